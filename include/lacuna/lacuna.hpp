@@ -1,5 +1,5 @@
 // lacuna/lacuna.hpp — the umbrella header: includes the public API, nothing else.
 #pragma once
 
-#include <lacuna/ring/concepts.hpp>
+#include <lacuna/ring/ring.hpp>
 #include <lacuna/complex/concepts.hpp>

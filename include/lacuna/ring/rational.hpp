@@ -1,0 +1,93 @@
+// lacuna/ring/rational.hpp — lacuna::rational, the field Q on
+// boost::multiprecision::cpp_rational (always in lowest terms, denominator > 0).
+//
+// A wrapper rather than ring_traits<cpp_rational> for the reasons given in big_integer.hpp
+// (expression templates, ADL).
+#pragma once
+
+#include <lacuna/ring/concepts.hpp>
+
+#include <boost/multiprecision/cpp_int.hpp>
+
+#include <compare>
+#include <cstdint>
+#include <functional>
+#include <ostream>
+#include <stdexcept>
+#include <string>
+#include <utility>
+
+namespace lacuna {
+
+/// An exact rational number (models field).
+class rational {
+ public:
+  using big_type = boost::multiprecision::cpp_rational;
+  using integer_type = boost::multiprecision::cpp_int;
+
+  rational() = default;
+  /// The integer n; implicit.
+  rational(std::int64_t n) : v_(n) {}  // NOLINT
+  /// num / den in lowest terms; throws std::domain_error if den == 0.
+  rational(const integer_type& num, const integer_type& den) {
+    if (den.is_zero()) throw std::domain_error("lacuna::rational: zero denominator");
+    v_ = big_type(num, den);
+  }
+  explicit rational(big_type v) : v_(std::move(v)) {}
+
+  [[nodiscard]] const big_type& value() const noexcept { return v_; }
+  [[nodiscard]] integer_type numerator() const { return boost::multiprecision::numerator(v_); }
+  /// Always positive.
+  [[nodiscard]] integer_type denominator() const { return boost::multiprecision::denominator(v_); }
+  /// "n" or "n/d".
+  [[nodiscard]] std::string to_string() const { return v_.str(); }
+  [[nodiscard]] bool is_zero() const noexcept { return v_.is_zero(); }
+
+  friend rational operator+(const rational& a, const rational& b) { return rational(big_type(a.v_ + b.v_)); }
+  friend rational operator-(const rational& a, const rational& b) { return rational(big_type(a.v_ - b.v_)); }
+  friend rational operator*(const rational& a, const rational& b) { return rational(big_type(a.v_ * b.v_)); }
+  /// Throws std::domain_error if b == 0.
+  friend rational operator/(const rational& a, const rational& b) {
+    if (b.is_zero()) throw std::domain_error("lacuna::rational: division by zero");
+    return rational(big_type(a.v_ / b.v_));
+  }
+  friend rational operator-(const rational& a) { return rational(big_type(-a.v_)); }
+  rational& operator+=(const rational& b) { v_ += b.v_; return *this; }
+  rational& operator-=(const rational& b) { v_ -= b.v_; return *this; }
+  rational& operator*=(const rational& b) { v_ *= b.v_; return *this; }
+  rational& operator/=(const rational& b) { return *this = *this / b; }
+
+  friend bool operator==(const rational& a, const rational& b) noexcept { return a.v_ == b.v_; }
+  friend std::strong_ordering operator<=>(const rational& a, const rational& b) noexcept {
+    return a.v_.compare(b.v_) <=> 0;
+  }
+  friend std::ostream& operator<<(std::ostream& os, const rational& a) { return os << a.v_; }
+
+  /// 1 / a; throws std::domain_error for zero.
+  [[nodiscard]] rational inverse() const { return rational(1) / *this; }
+
+ private:
+  big_type v_;
+};
+
+template <>
+struct ring_traits<rational> {
+  static constexpr bool is_exact = true;
+  static constexpr std::uint64_t characteristic = 0;
+  static rational from_integer(std::int64_t n) { return rational(n); }
+  static div_rem_result<rational> div_rem(const rational& a, const rational& b) { return {a / b, rational()}; }
+  static unsigned euclidean_size(const rational& a) noexcept { return !a.is_zero(); }
+  static rational normalize(const rational& a) { return rational(a.is_zero() ? 0 : 1); }
+  static rational unit_part(const rational& a) { return a.is_zero() ? rational(1) : a; }
+  static bool is_unit(const rational& a) noexcept { return !a.is_zero(); }
+  static rational inverse(const rational& a) { return a.inverse(); }
+};
+
+}  // namespace lacuna
+
+template <>
+struct std::hash<lacuna::rational> {
+  std::size_t operator()(const lacuna::rational& a) const {
+    return std::hash<boost::multiprecision::cpp_rational>{}(a.value());
+  }
+};
