@@ -13,7 +13,7 @@
 
 #include <lacuna/ring/concepts.hpp>
 
-#include <boost/multiprecision/cpp_int.hpp>
+#include <lacuna/ring/detail/cpp_int.hpp>
 
 #include <compare>
 #include <cstdint>

@@ -15,7 +15,7 @@
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
 
-#include <boost/multiprecision/cpp_int.hpp>
+#include <lacuna/ring/detail/cpp_int.hpp>
 
 #include <compare>
 #include <concepts>

@@ -7,7 +7,7 @@
 
 #include <lacuna/ring/concepts.hpp>
 
-#include <boost/multiprecision/cpp_int.hpp>
+#include <lacuna/ring/detail/cpp_int.hpp>
 
 #include <compare>
 #include <cstdint>
@@ -31,7 +31,8 @@ class rational {
   /// num / den in lowest terms; throws std::domain_error if den == 0.
   rational(const integer_type& num, const integer_type& den) {
     if (den.is_zero()) throw std::domain_error("lacuna::rational: zero denominator");
-    v_ = big_type(num, den);
+    // Boost 1.74's cpp_rational(num, den) throws "bad rational" for den < 0: make it positive.
+    v_ = den.sign() < 0 ? big_type(integer_type(-num), integer_type(-den)) : big_type(num, den);
   }
   explicit rational(big_type v) : v_(std::move(v)) {}
 
