@@ -6,6 +6,7 @@
 #include <lacuna/complex/simplicial_complex.hpp>
 
 #include <cstdint>
+#include <algorithm>
 #include <map>
 #include <numeric>
 #include <queue>
@@ -117,6 +118,30 @@ bool orientable(const C& c) {
     }
   }
   return true;
+}
+
+}  // namespace test_support
+
+#include <random>
+
+namespace test_support {
+
+/// A random simplicial complex: `facets` random facets of 1..max_size of n vertices
+/// (labels 0..n-1), from a fixed seed.
+inline lacuna::simplicial_complex<int> random_simplicial(unsigned seed, int n, int facets, int max_size) {
+  std::mt19937 rng(seed);
+  std::uniform_int_distribution<int> size(1, max_size), vertex(0, n - 1);
+  lacuna::simplicial_complex<int>::builder b;
+  for (int f = 0; f < facets; ++f) {
+    std::vector<int> s;
+    const int m = size(rng);
+    while (static_cast<int>(s.size()) < m) {
+      const int v = vertex(rng);
+      if (std::find(s.begin(), s.end(), v) == s.end()) s.push_back(v);
+    }
+    b.add_facet(s);
+  }
+  return std::move(b).finalize();
 }
 
 }  // namespace test_support
