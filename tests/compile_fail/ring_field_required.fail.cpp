@@ -1,4 +1,4 @@
-// expect: satisfaction of .field<F>
+// expect: satisfaction of .*field<F>
 // A function that needs a field, called with lacuna::integer (a Euclidean domain only).
 #include <lacuna/ring/integer.hpp>
 #include <lacuna/ring/mod_p.hpp>
