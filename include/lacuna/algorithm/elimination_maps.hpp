@@ -1,0 +1,104 @@
+// lacuna/algorithm/elimination_maps.hpp — the chain maps between a complex and the complex
+// left by eliminate_unit_pivots, read off the elimination log.
+//
+// For one pivot (a, b), c = <da, b> (Kaczynski, Mrozek & Slusarek 1998):
+//   lift  g: reduced -> original,   g(y) = y - c^-1 <dy, b> a      for y a cell beside a;
+//   push  f: original -> reduced,   f(z) = z - <z, b> c^-1 da      for z a cell beside b,
+//                                   f(a) = 0.
+// Both are chain maps inducing inverse isomorphisms on homology; g sends cycles of the
+// reduced complex to cycles of the original one, f sends cycles and boundaries to cycles
+// and boundaries. The composite maps run the log backwards (g) or forwards (f).
+#pragma once
+
+#include <lacuna/algorithm/unit_elimination.hpp>
+
+#include <cstdint>
+#include <limits>
+#include <unordered_map>
+#include <vector>
+
+namespace lacuna {
+
+/// A chain at one level of a reducible_complex: (local index, coefficient) pairs.
+template <class R>
+using level_chain = std::vector<sparse_entry<R>>;
+
+/// Lifts chains of the reduced complex at `level` (cells surviving the elimination) to
+/// chains of the original complex, all at once: g applied to each. level_size is the number
+/// of cells of that level in the original complex. Cost: proportional to the log of that
+/// level times the number of chains meeting each step, not to the number of chains times
+/// the log. Each result is sorted by index.
+template <class R>
+std::vector<level_chain<R>> lift_chains(const elimination_log<R>& log, int level, std::size_t level_size,
+                                        const std::vector<level_chain<R>>& chains) {
+  constexpr std::uint32_t none = std::numeric_limits<std::uint32_t>::max();
+  struct node {
+    std::uint32_t chain;
+    R value;
+    std::uint32_t next;
+  };
+  std::vector<std::uint32_t> head(level_size, none);
+  std::vector<node> nodes;
+  for (std::uint32_t g = 0; g < chains.size(); ++g)
+    for (const auto& e : chains[g]) {
+      nodes.push_back({g, e.value, head[e.index]});
+      head[e.index] = static_cast<std::uint32_t>(nodes.size() - 1);
+    }
+  std::vector<R> acc(chains.size(), zero<R>());
+  std::vector<std::uint32_t> touched;
+  for (auto s = log.steps.rbegin(); s != log.steps.rend(); ++s) {
+    if (s->level != level) continue;
+    touched.clear();
+    for (std::size_t k = s->affected_begin; k < s->affected_end; ++k) {
+      const auto& [y, w] = log.affected[k];
+      for (std::uint32_t n = head[y]; n != none; n = nodes[n].next) {
+        if (acc[nodes[n].chain] == zero<R>()) touched.push_back(nodes[n].chain);
+        acc[nodes[n].chain] += nodes[n].value * w;
+      }
+    }
+    for (std::uint32_t g : touched) {
+      const R t = acc[g];
+      acc[g] = zero<R>();
+      if (t == zero<R>()) continue;
+      nodes.push_back({g, -(s->c_inverse * t), head[s->a]});
+      head[s->a] = static_cast<std::uint32_t>(nodes.size() - 1);
+    }
+  }
+  std::vector<level_chain<R>> out(chains.size());
+  for (std::uint32_t i = 0; i < level_size; ++i)
+    for (std::uint32_t n = head[i]; n != none; n = nodes[n].next) {
+      auto& ch = out[nodes[n].chain];
+      if (!ch.empty() && ch.back().index == i)
+        ch.back().value += nodes[n].value;
+      else
+        ch.push_back({i, nodes[n].value});
+    }
+  for (auto& ch : out) std::erase_if(ch, [](const auto& e) { return e.value == zero<R>(); });
+  return out;
+}
+
+/// Pushes a chain of the original complex at `level` to the reduced complex: f applied to
+/// it. The result is supported on the surviving cells, sorted by index.
+template <class R>
+level_chain<R> push_chain(const elimination_log<R>& log, int level, const level_chain<R>& chain) {
+  std::unordered_map<std::uint32_t, R> w;
+  for (const auto& e : chain) w[e.index] += e.value;
+  for (const auto& s : log.steps) {
+    if (s.level == level + 1) {  // b lives at this level
+      auto it = w.find(s.b);
+      if (it == w.end() || it->second == zero<R>()) continue;
+      const R t = it->second * s.c_inverse;
+      for (std::size_t k = s.pivot_begin; k < s.pivot_end; ++k) w[log.pivot[k].index] -= t * log.pivot[k].value;
+      w.erase(s.b);
+    } else if (s.level == level) {  // a lives at this level
+      w.erase(s.a);
+    }
+  }
+  level_chain<R> out;
+  for (const auto& [i, v] : w)
+    if (!(v == zero<R>())) out.push_back({i, v});
+  std::sort(out.begin(), out.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+  return out;
+}
+
+}  // namespace lacuna

@@ -1,0 +1,389 @@
+// lacuna/algorithm/unit_elimination.hpp — sparse elimination of unit pivots on a chain
+// complex, keeping the maps back on request.
+//
+// A pivot is a pair (a, b): a a cell, b a face of a whose incidence c = <da, b> is a unit.
+// Eliminating it replaces the complex by a smaller chain-homotopy-equivalent one (Kaczynski,
+// Mrozek & Slusarek, "Homology computation by reduction of chain complexes", 1998):
+//   for every other coface y of b:  dy <- dy - <dy,b> c^-1 da     (b drops out of dy)
+//   for every coface x of a:        a drops out of dx
+// and a, b disappear. The order of pivots decides the fill-in:
+//   1. zero-fill pivots first: coreductions (a has exactly one active face; Mrozek & Batko,
+//      "Coreduction homology algorithm", 2009) and collapses (b has a single coface);
+//   2. when none is left, a cell with no active face is set aside as critical (it stays in
+//      the reduced complex), which is what starts the coreductions of the next piece;
+//   3. without set-aside, the unit pivot of least Markowitz count (|cofaces(b)|-1)(|da|-1)
+//      (Markowitz, 1957; as used for sparse integer matrices by Dumas, Heckenbach, Saunders
+//      & Welker, 2003).
+// Critical cells are cells never used as pivots; their boundaries are updated like any
+// other, so at the end the surviving cells with their boundaries are the reduced complex.
+//
+// The log (on request) records each pivot, the boundary of a at that moment, and the pairs
+// (y, <dy, b>); it is what maps chains between the original and the reduced complex
+// (lacuna/algorithm/elimination_maps.hpp).
+#pragma once
+
+#include <lacuna/chain/checked_coefficient.hpp>
+#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/ring/concepts.hpp>
+#include <lacuna/ring/euclid.hpp>
+
+#include <algorithm>
+#include <cstdint>
+#include <optional>
+#include <tuple>
+#include <vector>
+
+namespace lacuna {
+
+/// Options of eliminate_unit_pivots (designated initializers welcome).
+struct elimination_options {
+  bool coreductions = true;  ///< pivots found from a cell with a single active face
+  bool collapses = true;     ///< pivots found from a face with a single coface
+  bool set_aside = true;     ///< when stuck, set aside a cell with no active face as critical
+  bool markowitz = true;     ///< then unit pivots of least Markowitz count
+  bool record = false;       ///< keep the log (needed for generators and chain maps)
+  bool second_pass = true;   ///< after set-aside, reduce the critical cells once more (Markowitz)
+};
+
+/// One eliminated pivot: a at `level`, b at level-1, c = <da, b> a unit.
+template <class R>
+struct elimination_step {
+  int level;
+  std::uint32_t a, b;
+  R c, c_inverse;
+  std::size_t affected_begin, affected_end;  ///< log.affected: (y, <dy, b>) for the other cofaces y of b
+  std::size_t pivot_begin, pivot_end;        ///< log.pivot: da at the time, b included
+};
+
+/// The record of an elimination, in order.
+template <class R>
+struct elimination_log {
+  std::vector<elimination_step<R>> steps;
+  std::vector<sparse_entry<R>> affected;
+  std::vector<sparse_entry<R>> pivot;
+};
+
+/// Counts of what an elimination did, per kind of pivot.
+struct elimination_statistics {
+  std::size_t coreductions = 0, collapses = 0, markowitz = 0, set_aside = 0;
+};
+
+namespace detail {
+
+/// true when c is a unit of R; then inv is its inverse.
+template <class R>
+bool unit_inverse(const R& c, R& inv) {
+  if constexpr (std::same_as<R, checked_int64>) {
+    if (c.v == 1 || c.v == -1) {
+      inv = c;
+      return true;
+    }
+    return false;
+  } else if constexpr (field<R>) {
+    if (c == zero<R>()) return false;
+    inv = lacuna::inverse(c);
+    return true;
+  } else if constexpr (euclidean_domain<R>) {
+    if (c == zero<R>() || !lacuna::is_unit(c)) return false;
+    inv = div_rem(one<R>(), c).quotient;
+    return true;
+  } else {
+    if (c == one<R>() || c == -one<R>()) {
+      inv = c;
+      return true;
+    }
+    return false;
+  }
+}
+
+template <class R>
+class unit_eliminator {
+  using st = typename reducible_complex<R>::state;
+
+ public:
+  unit_eliminator(reducible_complex<R>& rc, const elimination_options& opt, elimination_log<R>* log)
+      : rc_(rc), opt_(opt), log_(log) {}
+
+  elimination_statistics run() {
+    const int nl = rc_.levels();
+    active_count_.resize(nl);
+    empty_.resize(nl);
+    for (int L = 0; L < nl; ++L) {
+      active_count_[L].resize(rc_.size(L));
+      for (std::uint32_t i = 0; i < rc_.size(L); ++i) {
+        if (!rc_.alive(L, i)) continue;
+        recount(L, i);
+        consider(L, i);
+      }
+    }
+    loop(opt_.set_aside);
+    if (opt_.set_aside && opt_.second_pass && opt_.markowitz) {
+      // Give the critical cells back to the pivot search: what is left has no unit pivot.
+      for (int L = 0; L < nl; ++L)
+        for (std::uint32_t i = 0; i < rc_.size(L); ++i)
+          if (rc_.cell_state(L, i) == st::critical) rc_.cell_state(L, i) = st::active;
+      for (int L = 0; L < nl; ++L)
+        for (std::uint32_t i = 0; i < rc_.size(L); ++i)
+          if (rc_.alive(L, i)) recount(L, i), consider(L, i);
+      loop(false);
+    }
+    return stats_;
+  }
+
+ private:
+  void recount(int L, std::uint32_t i) {
+    std::uint32_t n = 0;
+    if (L > 0)
+      for (const auto& e : rc_.boundary(L, i))
+        if (rc_.cell_state(L - 1, e.index) == st::active) ++n;
+    active_count_[L][i] = n;
+  }
+  void consider(int L, std::uint32_t i) {
+    if (rc_.cell_state(L, i) != st::active) return;
+    const auto n = active_count_[L][i];
+    if (n == 1 && opt_.coreductions) queue_.push_back({L, i});
+    if (n == 0 && opt_.set_aside) empty_[L].push_back(i);
+    if (opt_.collapses && L + 1 < rc_.levels() && rc_.cofaces(L, i).size() == 1) queue_.push_back({L, i});
+  }
+
+  void loop(bool set_aside) {
+    for (;;) {
+      while (head_ < queue_.size()) {
+        auto [L, i] = queue_[head_++];
+        try_zero_fill(L, i);
+      }
+      queue_.clear();
+      head_ = 0;
+      if (set_aside && set_aside_one()) continue;
+      if (opt_.markowitz && markowitz_batch()) continue;
+      break;
+    }
+  }
+
+  // A coreduction with i as a, or a collapse with i as b, when one applies.
+  void try_zero_fill(int L, std::uint32_t i) {
+    if (rc_.cell_state(L, i) != st::active) return;
+    if (opt_.coreductions && L > 0 && active_count_[L][i] == 1) {
+      for (const auto& e : rc_.boundary(L, i)) {
+        if (rc_.cell_state(L - 1, e.index) != st::active) continue;
+        R inv;
+        if (unit_inverse(e.value, inv)) {
+          eliminate(L, i, e.index, e.value, inv);
+          ++stats_.coreductions;
+          return;
+        }
+        break;
+      }
+    }
+    if (opt_.collapses && L + 1 < rc_.levels() && rc_.cofaces(L, i).size() == 1) {
+      const std::uint32_t a = rc_.cofaces(L, i)[0];
+      if (rc_.cell_state(L + 1, a) != st::active) return;
+      const R c = coefficient(L + 1, a, i);
+      R inv;
+      if (unit_inverse(c, inv)) {
+        eliminate(L + 1, a, i, c, inv);
+        ++stats_.collapses;
+      }
+    }
+  }
+
+  bool set_aside_one() {
+    for (int L = 0; L < rc_.levels(); ++L) {
+      auto& stack = empty_[L];
+      while (!stack.empty()) {
+        const std::uint32_t s = stack.back();
+        stack.pop_back();
+        if (rc_.cell_state(L, s) != st::active || active_count_[L][s] != 0) continue;
+        rc_.cell_state(L, s) = st::critical;
+        ++stats_.set_aside;
+        if (L + 1 < rc_.levels())
+          for (std::uint32_t x : rc_.cofaces(L, s)) {
+            --active_count_[L + 1][x];
+            consider(L + 1, x);
+          }
+        return true;
+      }
+    }
+    return false;
+  }
+
+  bool markowitz_batch() {
+    struct cand {
+      std::uint64_t cost;
+      int L;
+      std::uint32_t a, b;
+    };
+    std::vector<cand> cands;
+    for (int L = 1; L < rc_.levels(); ++L)
+      for (std::uint32_t a = 0; a < rc_.size(L); ++a) {
+        if (rc_.cell_state(L, a) != st::active) continue;
+        for (const auto& e : rc_.boundary(L, a)) {
+          if (rc_.cell_state(L - 1, e.index) != st::active) continue;
+          R inv;
+          if (!unit_inverse(e.value, inv)) continue;
+          cands.push_back({cost(L, a, e.index), L, a, e.index});
+        }
+      }
+    if (cands.empty()) return false;
+    std::sort(cands.begin(), cands.end(), [](const cand& x, const cand& y) {
+      return std::tie(x.cost, x.L, x.a, x.b) < std::tie(y.cost, y.L, y.a, y.b);
+    });
+    bool any = false;
+    for (const auto& cd : cands) {
+      if (rc_.cell_state(cd.L, cd.a) != st::active || rc_.cell_state(cd.L - 1, cd.b) != st::active) continue;
+      const R c = coefficient(cd.L, cd.a, cd.b);
+      R inv;
+      if (!unit_inverse(c, inv)) continue;
+      if (any && cost(cd.L, cd.a, cd.b) > cd.cost) continue;  // grew since the scan: rescan later
+      eliminate(cd.L, cd.a, cd.b, c, inv);
+      ++stats_.markowitz;
+      any = true;
+      // Zero-fill pivots made possible by this one go first.
+      while (head_ < queue_.size()) {
+        auto [L, i] = queue_[head_++];
+        try_zero_fill(L, i);
+      }
+      queue_.clear();
+      head_ = 0;
+    }
+    return any;
+  }
+
+  std::uint64_t cost(int L, std::uint32_t a, std::uint32_t b) const {
+    const std::uint64_t nb = rc_.cofaces(L - 1, b).size();
+    const std::uint64_t na = active_count_[L][a];
+    return (nb - 1) * (na > 0 ? na - 1 : 0);
+  }
+
+  R coefficient(int L, std::uint32_t a, std::uint32_t b) const {
+    const auto& col = rc_.boundary(L, a);
+    auto it = std::lower_bound(col.begin(), col.end(), b, [](const auto& e, std::uint32_t x) { return e.index < x; });
+    return it != col.end() && it->index == b ? it->value : zero<R>();
+  }
+
+  static void remove_index(std::vector<std::uint32_t>& v, std::uint32_t x) {
+    auto it = std::find(v.begin(), v.end(), x);
+    if (it != v.end()) {
+      *it = v.back();
+      v.pop_back();
+    }
+  }
+
+  // Eliminates the pivot (a at level L, b at level L-1), c = <da, b>, inv = c^-1.
+  void eliminate(int L, std::uint32_t a, std::uint32_t b, const R& c, const R& inv) {
+    auto& da = rc_.boundary(L, a);
+    elimination_step<R>* step = nullptr;
+    if (log_) {
+      log_->steps.push_back({L, a, b, c, inv, log_->affected.size(), 0, log_->pivot.size(), 0});
+      step = &log_->steps.back();
+      log_->pivot.insert(log_->pivot.end(), da.begin(), da.end());
+      step->pivot_end = log_->pivot.size();
+    }
+    // b leaves; its cofaces other than a absorb a multiple of da.
+    std::vector<std::uint32_t> ys = std::move(rc_.cofaces(L - 1, b));
+    rc_.cofaces(L - 1, b).clear();
+    rc_.cell_state(L, a) = st::eliminated;  // a is no longer a candidate for anything
+    rc_.cell_state(L - 1, b) = st::eliminated;
+    for (std::uint32_t y : ys) {
+      if (y == a) continue;
+      auto& dy = rc_.boundary(L, y);
+      const R w = coefficient(L, y, b);
+      if (log_) log_->affected.push_back({y, w});
+      const R q = w * inv;
+      merge_subtract(L, y, dy, q, da, b);
+      consider(L, y);
+    }
+    if (log_) step->affected_end = log_->affected.size();
+    // a leaves the coface lists of its other faces.
+    for (const auto& e : da) {
+      if (e.index == b) continue;
+      auto& cz = rc_.cofaces(L - 1, e.index);
+      remove_index(cz, a);
+      if (cz.size() == 1) consider(L - 1, e.index);
+    }
+    // b leaves the coface lists of its faces.
+    if (L - 1 > 0)
+      for (const auto& e : rc_.boundary(L - 1, b)) {
+        auto& cu = rc_.cofaces(L - 2, e.index);
+        remove_index(cu, b);
+        if (cu.size() == 1) consider(L - 2, e.index);
+      }
+    // The cofaces of a lose a.
+    if (L + 1 < rc_.levels()) {
+      for (std::uint32_t x : rc_.cofaces(L, a)) {
+        auto& dx = rc_.boundary(L + 1, x);
+        auto it = std::lower_bound(dx.begin(), dx.end(), a, [](const auto& e, std::uint32_t v) { return e.index < v; });
+        if (it != dx.end() && it->index == a) dx.erase(it);
+        --active_count_[L + 1][x];  // a was active when it was chosen
+        consider(L + 1, x);
+      }
+    }
+    std::vector<sparse_entry<R>>().swap(da);
+    std::vector<sparse_entry<R>>().swap(rc_.boundary(L - 1, b));
+    std::vector<std::uint32_t>().swap(rc_.cofaces(L, a));
+  }
+
+  // dy <- dy - q * da, with b dropping out; keeps coface lists and active counts exact.
+  void merge_subtract(int L, std::uint32_t y, std::vector<sparse_entry<R>>& dy, const R& q,
+                      const std::vector<sparse_entry<R>>& da, std::uint32_t b) {
+    scratch_.clear();
+    scratch_.reserve(dy.size() + da.size());
+    std::size_t i = 0, j = 0;
+    auto& cnt = active_count_[L][y];
+    while (i < dy.size() || j < da.size()) {
+      if (j == da.size() || (i < dy.size() && dy[i].index < da[j].index)) {
+        scratch_.push_back(dy[i++]);
+      } else if (i == dy.size() || da[j].index < dy[i].index) {
+        // A new face of y (fill-in).
+        const std::uint32_t z = da[j].index;
+        R v = -(q * da[j].value);
+        if (!(v == zero<R>())) {
+          scratch_.push_back({z, v});
+          rc_.cofaces(L - 1, z).push_back(y);
+          if (rc_.cell_state(L - 1, z) == st::active) ++cnt;
+        }
+        ++j;
+      } else {
+        const std::uint32_t z = dy[i].index;
+        R v = dy[i].value - q * da[j].value;
+        const bool was_active = rc_.cell_state(L - 1, z) == st::active || z == b;
+        if (!(v == zero<R>())) {
+          scratch_.push_back({z, v});
+        } else {
+          if (z != b) remove_index(rc_.cofaces(L - 1, z), y);
+          if (was_active) --cnt;
+        }
+        ++i, ++j;
+      }
+    }
+    dy.swap(scratch_);
+    if (dy.capacity() > 2 * dy.size() + 8) dy.shrink_to_fit();
+  }
+
+  reducible_complex<R>& rc_;
+  elimination_options opt_;
+  elimination_log<R>* log_;
+  elimination_statistics stats_;
+  std::vector<std::vector<std::uint32_t>> active_count_;
+  std::vector<std::vector<std::uint32_t>> empty_;
+  std::vector<std::pair<int, std::uint32_t>> queue_;
+  std::size_t head_ = 0;
+  std::vector<sparse_entry<R>> scratch_;
+};
+
+}  // namespace detail
+
+/// Eliminates unit pivots of rc in place (see the top of this header for the order).
+/// R models commutative_ring; units are found with lacuna::is_unit where R is a Euclidean
+/// domain, as non-zero elements in a field, and as +-1 otherwise. If log is given, the
+/// steps are recorded in it (set options.record too, for clarity; either enables it).
+/// Complexity: linear in the number of incidences for zero-fill pivots; each Markowitz pass
+/// scans the remaining cells.
+template <class R>
+elimination_statistics eliminate_unit_pivots(reducible_complex<R>& rc, elimination_options options = {},
+                                             elimination_log<R>* log = nullptr) {
+  detail::unit_eliminator<R> e(rc, options, log);
+  return e.run();
+}
+
+}  // namespace lacuna

@@ -1,0 +1,84 @@
+// lacuna/chain/chain.hpp — chains: finite formal sums of cells of one dimension.
+#pragma once
+
+#include <lacuna/ring/concepts.hpp>
+
+#include <algorithm>
+#include <cstddef>
+#include <vector>
+
+namespace lacuna {
+
+/// One term of a chain: a cell (by its index in its dimension) and a coefficient.
+template <class R>
+struct chain_term {
+  std::size_t cell;
+  R coefficient;
+  friend bool operator==(const chain_term&, const chain_term&) = default;
+};
+
+/// A chain of k-cells with coefficients in R: terms sorted by cell, no zero coefficient.
+/// R models commutative_ring.
+template <commutative_ring R>
+struct chain {
+  int dimension = 0;
+  std::vector<chain_term<R>> terms;
+
+  /// Puts the terms in canonical form: sorted by cell, equal cells added, zeros dropped.
+  void normalize_terms() {
+    std::sort(terms.begin(), terms.end(), [](const auto& x, const auto& y) { return x.cell < y.cell; });
+    std::size_t out = 0;
+    for (std::size_t i = 0; i < terms.size();) {
+      std::size_t j = i;
+      R sum = terms[i].coefficient;
+      while (++j < terms.size() && terms[j].cell == terms[i].cell) sum += terms[j].coefficient;
+      if (!(sum == zero<R>())) terms[out++] = {terms[i].cell, sum};
+      i = j;
+    }
+    terms.resize(out);
+  }
+  bool is_zero() const { return terms.empty(); }
+  /// The coefficient of a cell (zero when absent). O(log n).
+  R coefficient_of(std::size_t cell) const {
+    auto it = std::lower_bound(terms.begin(), terms.end(), cell,
+                               [](const auto& t, std::size_t c) { return t.cell < c; });
+    return it != terms.end() && it->cell == cell ? it->coefficient : zero<R>();
+  }
+  friend bool operator==(const chain&, const chain&) = default;
+};
+
+/// a + s * b for chains of one dimension.
+template <commutative_ring R>
+chain<R> add_scaled(const chain<R>& a, const R& s, const chain<R>& b) {
+  chain<R> out{a.dimension, {}};
+  out.terms.reserve(a.terms.size() + b.terms.size());
+  std::size_t i = 0, j = 0;
+  while (i < a.terms.size() || j < b.terms.size()) {
+    if (j == b.terms.size() || (i < a.terms.size() && a.terms[i].cell < b.terms[j].cell)) {
+      out.terms.push_back(a.terms[i++]);
+    } else if (i == a.terms.size() || b.terms[j].cell < a.terms[i].cell) {
+      R c = s * b.terms[j].coefficient;
+      if (!(c == zero<R>())) out.terms.push_back({b.terms[j].cell, c});
+      ++j;
+    } else {
+      R c = a.terms[i].coefficient + s * b.terms[j].coefficient;
+      if (!(c == zero<R>())) out.terms.push_back({a.terms[i].cell, c});
+      ++i, ++j;
+    }
+  }
+  return out;
+}
+
+/// s * a.
+template <commutative_ring R>
+chain<R> scaled(const R& s, const chain<R>& a) {
+  chain<R> out{a.dimension, {}};
+  if (s == zero<R>()) return out;
+  for (const auto& t : a.terms) {
+    R c = s * t.coefficient;
+    if (!(c == zero<R>())) out.terms.push_back({t.cell, c});
+  }
+  return out;
+}
+
+}  // namespace lacuna

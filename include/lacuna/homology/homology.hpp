@@ -1,0 +1,426 @@
+// lacuna/homology/homology.hpp — homology groups, with torsion and generators, of any cell
+// complex over any Euclidean domain; cohomology through the dual complex.
+//
+// Pipeline (shared/DESIGN.md): the complex is indexed into a reducible_complex over working
+// coefficients W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot
+// in), and the small core that is left is finished by dense Smith forms with transforms:
+//   D_k = boundary out of level k, U D_k V = diag(d_1..d_r): ker D_k = V[:, r..];
+//   M = (V^-1 D_{k+1})[r.., :], U' M V' = diag(e_1..e_s): H_k = Z^{n_k - r - s} + sum Z/e_i,
+//   generators = V[:, r..] U'^-1, one per column (columns with a unit e_i are boundaries).
+// Generators found on the core are lifted back to the original cells through the log.
+//
+// Over the integers, W is checked_int64 first; if a coefficient would pass 64 bits, the
+// whole computation is repeated with lacuna::integer, so a result is never wrong because a
+// number grew.
+#pragma once
+
+#include <lacuna/algorithm/dense_smith.hpp>
+#include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/unit_elimination.hpp>
+#include <lacuna/chain/chain.hpp>
+#include <lacuna/chain/checked_coefficient.hpp>
+#include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/complex/concepts.hpp>
+#include <lacuna/ring/concepts.hpp>
+#include <lacuna/ring/euclid.hpp>
+#include <lacuna/ring/integer.hpp>
+
+#include <cstdint>
+#include <memory>
+#include <stdexcept>
+#include <string>
+#include <type_traits>
+#include <vector>
+
+namespace lacuna {
+
+// ---- variants (policy values) -----------------------------------------------------------
+
+/// The default: sparse elimination of unit pivots, then dense Smith forms of the core.
+struct sparse_elimination {
+  elimination_options elimination{};
+};
+/// The reference for small complexes: dense Smith forms of the whole boundary matrices.
+struct dense_elimination {};
+
+template <class P>
+concept homology_algorithm = std::same_as<P, sparse_elimination> || std::same_as<P, dense_elimination>;
+
+/// Options of lacuna::homology and lacuna::cohomology.
+struct homology_options {
+  bool generators = false;  ///< one cycle per free summand and per torsion factor
+  bool reduced = false;     ///< reduced homology (augmented by the empty cell)
+  bool keep_basis = false;  ///< keep what coordinates() needs (implied by generators)
+};
+
+/// One homology group H_k = R^rank + R/t_1 + ... + R/t_m (t_1 | t_2 | ..., non-units).
+template <euclidean_domain R>
+struct homology_group {
+  int dimension = 0;
+  std::size_t rank = 0;
+  std::vector<R> torsion;
+  /// With generators: rank free generators first (order 0), then one per torsion factor.
+  std::vector<chain<R>> generators;
+  std::vector<R> orders;  ///< beside generators: 0 for free ones, the factor for torsion ones
+};
+
+namespace detail {
+
+template <class R>
+struct level_basis {
+  std::vector<std::uint32_t> core;          // surviving cells with incidences (local indices)
+  std::vector<std::int64_t> core_position;  // local index -> position in core or -1
+  std::vector<std::uint32_t> isolated;      // surviving cells without any incidence
+  std::vector<std::int64_t> isolated_position;
+  std::size_t r = 0;                        // rank of the boundary out of this level
+  dense_matrix<R> V_inv;                    // of that boundary's Smith form
+  dense_matrix<R> U_M;                      // of M
+  std::vector<R> factors;                   // invariant factors of M
+};
+
+template <class R>
+struct homology_basis {
+  elimination_log<R> log;
+  std::vector<level_basis<R>> levels;
+  std::vector<std::vector<std::int64_t>> from_original;  // per level, empty: identity
+  std::vector<std::size_t> level_sizes;
+};
+
+template <class R, class W>
+R to_ring(const W& w) {
+  if constexpr (std::same_as<R, W>)
+    return w;
+  else if constexpr (std::same_as<W, checked_int64>)
+    return R(w.v);
+  else
+    static_assert(std::same_as<R, W>, "no conversion of working coefficients");
+}
+
+template <class R>
+R canonical_residue(const R& w, const R& e) {
+  R r = div_rem(w, e).remainder;
+  if constexpr (std::totally_ordered<R>) {
+    if (r < zero<R>()) r += normalize(e);
+  }
+  return r;
+}
+
+template <class R>
+bool ring_is_unit(const R& x) {
+  if constexpr (field<R>)
+    return !(x == zero<R>());
+  else
+    return lacuna::is_unit(x);
+}
+
+/// Per level: rank, torsion, generators (as level chains over R, before lifting).
+template <class R>
+struct level_result {
+  std::size_t rank = 0;
+  std::vector<R> torsion;
+  std::vector<level_chain<R>> generators;
+  std::vector<R> orders;
+};
+
+// Dense matrix of the boundary from level L to level L-1, restricted to the core cells.
+template <class R, class W>
+dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_basis<R>>& lb, int L) {
+  dense_matrix<R> D(lb[L - 1].core.size(), lb[L].core.size());
+  for (std::size_t j = 0; j < lb[L].core.size(); ++j)
+    for (const auto& e : rc.boundary(L, lb[L].core[j])) {
+      const auto p = lb[L - 1].core_position[e.index];
+      D(static_cast<std::size_t>(p), j) = to_ring<R>(e.value);
+    }
+  return D;
+}
+
+template <class R, class W>
+std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool want_generators, bool keep,
+                                         std::vector<level_basis<R>>& lb) {
+  const int nl = rc.levels();
+  lb.assign(nl, {});
+  for (int L = 0; L < nl; ++L) {
+    auto& b = lb[L];
+    b.core_position.assign(rc.size(L), -1);
+    b.isolated_position.assign(rc.size(L), -1);
+    for (std::uint32_t i = 0; i < rc.size(L); ++i) {
+      if (!rc.alive(L, i)) continue;
+      const bool has = !rc.boundary(L, i).empty() || !rc.cofaces(L, i).empty();
+      if (has) {
+        b.core_position[i] = static_cast<std::int64_t>(b.core.size());
+        b.core.push_back(i);
+      } else {
+        b.isolated_position[i] = static_cast<std::int64_t>(b.isolated.size());
+        b.isolated.push_back(i);
+      }
+    }
+  }
+  std::vector<level_result<R>> out(nl);
+  if (!want_generators && !keep) {
+    // Ranks and invariant factors of each core boundary matrix suffice.
+    std::vector<smith_decomposition<R>> snf(nl + 1);
+    for (int L = 1; L < nl; ++L) snf[L] = dense_smith_form(core_matrix<R>(rc, lb, L));
+    for (int L = 0; L < nl; ++L) {
+      const std::size_t rL = L >= 1 ? snf[L].rank : 0;
+      const std::size_t rN = L + 1 < nl ? snf[L + 1].rank : 0;
+      out[L].rank = lb[L].isolated.size() + lb[L].core.size() - rL - rN;
+      if (L + 1 < nl)
+        for (const auto& d : snf[L + 1].diagonal)
+          if (!ring_is_unit(d)) out[L].torsion.push_back(d);
+    }
+    return out;
+  }
+  for (int L = 0; L < nl; ++L) {
+    auto& b = lb[L];
+    const std::size_t n = b.core.size();
+    smith_decomposition<R> s1;
+    if (L >= 1) {
+      s1 = dense_smith_form(core_matrix<R>(rc, lb, L), {.transforms = true});
+    } else {
+      s1.rank = 0;
+      s1.V = s1.V_inv = dense_matrix<R>::identity(n);
+    }
+    b.r = s1.rank;
+    const std::size_t kdim = n - b.r;
+    dense_matrix<R> M(kdim, L + 1 < nl ? lb[L + 1].core.size() : 0);
+    if (L + 1 < nl && M.cols() > 0 && kdim > 0) {
+      const dense_matrix<R> P = s1.V_inv * core_matrix<R>(rc, lb, L + 1);
+      for (std::size_t i = 0; i < kdim; ++i)
+        for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.r + i, j);
+    }
+    auto s2 = dense_smith_form(M, {.transforms = true});
+    b.factors = s2.diagonal;
+    b.V_inv = s1.V_inv;
+    b.U_M = s2.U;
+    auto& res = out[L];
+    // Free: isolated cells, then the core columns past the rank of M; torsion: non-unit e_i.
+    res.rank = b.isolated.size() + (kdim - s2.rank);
+    for (const auto& e : s2.diagonal)
+      if (!ring_is_unit(e)) res.torsion.push_back(e);
+    if (want_generators) {
+      auto column = [&](std::size_t i) {  // generator i = sum_j V[:, r+j] U'^-1[j, i]
+        level_chain<R> ch;
+        for (std::size_t row = 0; row < n; ++row) {
+          R v = zero<R>();
+          for (std::size_t j = 0; j < kdim; ++j)
+            if (!(s2.U_inv(j, i) == zero<R>())) v += s1.V(row, b.r + j) * s2.U_inv(j, i);
+          if (!(v == zero<R>())) ch.push_back({b.core[row], v});
+        }
+        std::sort(ch.begin(), ch.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+        return ch;
+      };
+      for (std::uint32_t c : b.isolated) res.generators.push_back({{c, one<R>()}}), res.orders.push_back(zero<R>());
+      for (std::size_t i = s2.rank; i < kdim; ++i) res.generators.push_back(column(i)), res.orders.push_back(zero<R>());
+      for (std::size_t i = 0; i < s2.rank; ++i)
+        if (!ring_is_unit(s2.diagonal[i])) res.generators.push_back(column(i)), res.orders.push_back(s2.diagonal[i]);
+    }
+  }
+  return out;
+}
+
+template <class R, class W>
+elimination_log<R> convert_log(elimination_log<W>&& log) {
+  if constexpr (std::same_as<R, W>) {
+    return std::move(log);
+  } else {
+    elimination_log<R> out;
+    out.steps.reserve(log.steps.size());
+    for (const auto& s : log.steps)
+      out.steps.push_back({s.level, s.a, s.b, to_ring<R>(s.c), to_ring<R>(s.c_inverse), s.affected_begin,
+                           s.affected_end, s.pivot_begin, s.pivot_end});
+    out.affected.reserve(log.affected.size());
+    for (const auto& e : log.affected) out.affected.push_back({e.index, to_ring<R>(e.value)});
+    out.pivot.reserve(log.pivot.size());
+    for (const auto& e : log.pivot) out.pivot.push_back({e.index, to_ring<R>(e.value)});
+    return out;
+  }
+}
+
+/// The whole computation at one working coefficient type W.
+template <class R, class W, cell_complex C, class Algorithm>
+std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
+                                            reducible_build_options build, std::shared_ptr<homology_basis<R>>* basis,
+                                            reducible_complex<W>* keep_rc = nullptr) {
+  auto rc = reducible_complex<W>::build(c, build);
+  elimination_log<W> log;
+  const bool want_log = opt.generators || opt.keep_basis;
+  if constexpr (std::same_as<Algorithm, sparse_elimination>) {
+    auto eo = alg.elimination;
+    eo.record = want_log;
+    eliminate_unit_pivots(rc, eo, want_log ? &log : nullptr);
+  }
+  std::vector<level_basis<R>> lb;
+  auto levels = finish_core<R>(rc, opt.generators, opt.keep_basis, lb);
+  auto rlog = convert_log<R>(std::move(log));
+  if (opt.generators)
+    for (int L = 0; L < rc.levels(); ++L) {
+      auto lifted = lift_chains(rlog, L, rc.size(L), levels[L].generators);
+      levels[L].generators = std::move(lifted);
+      for (auto& ch : levels[L].generators)
+        for (auto& e : ch) e.index = rc.original_index(L, e.index);
+    }
+  if (basis && opt.keep_basis) {
+    auto hb = std::make_shared<homology_basis<R>>();
+    hb->log = std::move(rlog);
+    hb->levels = std::move(lb);
+    for (int L = 0; L < rc.levels(); ++L) {
+      hb->from_original.push_back(rc.local_indices(L));
+      hb->level_sizes.push_back(rc.size(L));
+    }
+    *basis = std::move(hb);
+  }
+  if (keep_rc) *keep_rc = std::move(rc);
+  return levels;
+}
+
+template <class R, cell_complex C, class Algorithm>
+std::vector<level_result<R>> compute_levels_any(const C& c, const homology_options& opt, const Algorithm& alg,
+                                                reducible_build_options build,
+                                                std::shared_ptr<homology_basis<R>>* basis) {
+  if constexpr (std::same_as<R, integer> && std::same_as<Algorithm, sparse_elimination>) {
+    try {
+      return compute_levels<R, checked_int64>(c, opt, alg, build, basis);
+    } catch (const coefficient_overflow&) {
+      // Widen: repeat with coefficients that cannot overflow.
+    }
+  }
+  return compute_levels<R, R>(c, opt, alg, build, basis);
+}
+
+}  // namespace detail
+
+/// The homology (or cohomology) of a complex over R, one group per dimension 0..top.
+template <euclidean_domain R>
+class homology_result {
+ public:
+  std::vector<homology_group<R>> groups;
+  bool cohomology = false;
+  bool reduced = false;
+
+  const homology_group<R>& operator[](int k) const { return groups.at(static_cast<std::size_t>(k)); }
+  int top_dimension() const { return static_cast<int>(groups.size()) - 1; }
+  std::vector<std::size_t> betti_numbers() const {
+    std::vector<std::size_t> b;
+    for (const auto& g : groups) b.push_back(g.rank);
+    return b;
+  }
+  /// True when coordinates() can be called (keep_basis or generators was set).
+  bool has_basis() const { return basis_ != nullptr; }
+
+  /// The class of a k-cycle of the original complex in the basis of generators: first the
+  /// rank free coordinates, then one residue per torsion factor (canonical: in 0..t-1 over
+  /// the integers). Throws std::invalid_argument if the chain is not a cycle.
+  /// Cost: one pass over the elimination log, and dense products on the core.
+  std::vector<R> coordinates(const chain<R>& cycle) const {
+    if (!basis_) throw std::logic_error("lacuna: homology computed without keep_basis or generators");
+    const int L = level_of(cycle.dimension);
+    if (L < 0 || L >= static_cast<int>(basis_->levels.size()))
+      throw std::invalid_argument("lacuna: no cells of dimension " + std::to_string(cycle.dimension));
+    level_chain<R> lc;
+    for (const auto& t : cycle.terms) {
+      std::int64_t li = static_cast<std::int64_t>(t.cell);
+      if (!basis_->from_original[L].empty()) {
+        if (t.cell >= basis_->from_original[L].size()) continue;
+        li = basis_->from_original[L][t.cell];
+        if (li < 0) continue;  // a cell of the subcomplex: zero in the quotient
+      }
+      if (static_cast<std::size_t>(li) >= basis_->level_sizes[L])
+        throw std::invalid_argument("lacuna: a chain names a cell that does not exist");
+      lc.push_back({static_cast<std::uint32_t>(li), t.coefficient});
+    }
+    const level_chain<R> red = push_chain(basis_->log, L, lc);
+    const auto& b = basis_->levels[L];
+    std::vector<R> zc(b.core.size(), zero<R>());
+    std::vector<R> out;
+    std::vector<R> iso(b.isolated.size(), zero<R>());
+    for (const auto& e : red) {
+      if (b.core_position[e.index] >= 0)
+        zc[static_cast<std::size_t>(b.core_position[e.index])] += e.value;
+      else if (b.isolated_position[e.index] >= 0)
+        iso[static_cast<std::size_t>(b.isolated_position[e.index])] += e.value;
+      else
+        throw std::logic_error("lacuna: a pushed chain meets an eliminated cell");
+    }
+    const std::size_t n = b.core.size();
+    std::vector<R> y(n, zero<R>());
+    for (std::size_t i = 0; i < n; ++i)
+      for (std::size_t j = 0; j < n; ++j)
+        if (!(zc[j] == zero<R>())) y[i] += b.V_inv(i, j) * zc[j];
+    for (std::size_t i = 0; i < b.r; ++i)
+      if (!(y[i] == zero<R>())) throw std::invalid_argument("lacuna: the chain is not a cycle");
+    const std::size_t kdim = n - b.r;
+    std::vector<R> w(kdim, zero<R>());
+    for (std::size_t i = 0; i < kdim; ++i)
+      for (std::size_t j = 0; j < kdim; ++j)
+        if (!(y[b.r + j] == zero<R>())) w[i] += b.U_M(i, j) * y[b.r + j];
+    out = iso;
+    for (std::size_t i = b.factors.size(); i < kdim; ++i) out.push_back(w[i]);
+    for (std::size_t i = 0; i < b.factors.size(); ++i)
+      if (!detail::ring_is_unit(b.factors[i])) out.push_back(detail::canonical_residue(w[i], b.factors[i]));
+    return out;
+  }
+  /// True when the cycle is a boundary: all its coordinates vanish.
+  bool is_boundary(const chain<R>& cycle) const {
+    for (const auto& x : coordinates(cycle))
+      if (!(x == zero<R>())) return false;
+    return true;
+  }
+
+  std::shared_ptr<detail::homology_basis<R>> basis_;  // internal
+  int level_offset_ = 0;                               // internal: level = dim - offset (or top - dim)
+  int top_ = -1;
+
+ private:
+  int level_of(int dim) const { return cohomology ? top_ - dim : dim - level_offset_; }
+};
+
+namespace detail {
+template <euclidean_domain R, cell_complex C, class Algorithm>
+homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool co,
+                            const std::vector<std::vector<bool>>* excluded) {
+  if (opt.generators) opt.keep_basis = true;
+  if (co && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
+  reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded};
+  homology_result<R> res;
+  res.cohomology = co;
+  res.reduced = opt.reduced;
+  res.level_offset_ = opt.reduced ? -1 : 0;
+  const int top = lacuna::top_dimension(c);
+  res.top_ = top;
+  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_);
+  for (int k = 0; k <= top; ++k) {
+    const int L = co ? top - k : k - res.level_offset_;
+    auto& lr = levels[static_cast<std::size_t>(L)];
+    homology_group<R> g;
+    g.dimension = k;
+    g.rank = lr.rank;
+    g.torsion = std::move(lr.torsion);
+    for (std::size_t i = 0; i < lr.generators.size(); ++i) {
+      chain<R> ch{k, {}};
+      for (const auto& e : lr.generators[i]) ch.terms.push_back({e.index, e.value});
+      g.generators.push_back(std::move(ch));
+      g.orders.push_back(lr.orders[i]);
+    }
+    res.groups.push_back(std::move(g));
+  }
+  return res;
+}
+}  // namespace detail
+
+/// The homology of c over R (R models euclidean_domain; fields give dimensions, the
+/// integers give ranks and torsion). Algorithm: sparse_elimination{} (default) or
+/// dense_elimination{} (the small-matrix reference). See homology_options.
+template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
+homology_result<R> homology(const C& c, homology_options options = {}, const Algorithm& algorithm = {}) {
+  return detail::assemble<R>(c, options, algorithm, false, nullptr);
+}
+
+/// The cohomology H^k of c over R, with cocycle generators on request (cochains named by
+/// the cells they take the value 1 on, with coefficients).
+template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
+homology_result<R> cohomology(const C& c, homology_options options = {}, const Algorithm& algorithm = {}) {
+  return detail::assemble<R>(c, options, algorithm, true, nullptr);
+}
+
+}  // namespace lacuna
