@@ -1,0 +1,89 @@
+// lacuna/complex/clique_complex.hpp — the clique (flag) complex of a graph.
+//
+// The simplices are the sets of pairwise adjacent vertices, up to a chosen dimension. The
+// cliques are enumerated by extending each clique only by common neighbours of higher vertex
+// number (each clique is visited exactly once; no subset of a non-clique is ever formed), and
+// only the cliques that cannot be extended within the dimension bound are handed to the
+// builder as facets. Time O(sum over cliques of degree), memory as the complex.
+#pragma once
+
+#include <lacuna/complex/errors.hpp>
+#include <lacuna/complex/simplicial_complex.hpp>
+
+#include <algorithm>
+#include <cstdint>
+#include <iterator>
+#include <ranges>
+#include <tuple>
+#include <utility>
+#include <vector>
+
+namespace lacuna {
+
+namespace detail {
+inline void extend_cliques(std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& candidates,
+                           const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size,
+                           std::vector<std::vector<std::uint32_t>>& facets_out) {
+  if (candidates.empty() || clique.size() == max_size) {
+    facets_out.push_back(clique);
+    return;
+  }
+  std::vector<std::uint32_t> next;
+  for (const std::uint32_t c : candidates) {
+    next.clear();
+    const auto& h = higher[c];
+    std::set_intersection(candidates.begin(), candidates.end(), h.begin(), h.end(), std::back_inserter(next));
+    clique.push_back(c);
+    extend_cliques(clique, next, higher, max_size, facets_out);
+    clique.pop_back();
+  }
+}
+}  // namespace detail
+
+/// The clique complex of the graph with these vertices (in this order, numbered first) and
+/// edges (pairs of labels; endpoints not among `vertices` are added in order of first
+/// appearance), keeping the simplices of dimension <= max_dimension.
+/// Throws lacuna::invalid_complex for an edge from a vertex to itself, std::invalid_argument
+/// if max_dimension < 0.
+template <simplex_label Label, std::ranges::input_range Edges>
+simplicial_complex<Label> clique_complex(const std::vector<Label>& vertices, const Edges& edges, int max_dimension) {
+  if (max_dimension < 0) throw std::invalid_argument("clique_complex: negative dimension bound");
+  typename simplicial_complex<Label>::builder b;
+  for (const auto& v : vertices) b.vertex(v);
+  std::vector<std::pair<std::uint32_t, std::uint32_t>> e;
+  std::size_t number = 0;
+  for (const auto& edge : edges) {
+    ++number;
+    const Label& x = std::get<0>(edge);
+    const Label& y = std::get<1>(edge);
+    const auto u = b.vertex(x), v = b.vertex(y);
+    if (u == v)
+      throw invalid_complex("clique_complex: edge number " + std::to_string(number) + " joins vertex '" +
+                            detail::label_to_string(x) + "' to itself");
+    e.emplace_back(std::min(u, v), std::max(u, v));
+  }
+  std::vector<std::vector<std::uint32_t>> higher(b.vertex_count());
+  for (const auto& [u, v] : e) higher[u].push_back(v);
+  for (auto& h : higher) {
+    std::sort(h.begin(), h.end());
+    h.erase(std::unique(h.begin(), h.end()), h.end());
+  }
+  std::vector<std::vector<std::uint32_t>> facets;
+  std::vector<std::uint32_t> clique;
+  const auto max_size = static_cast<std::size_t>(max_dimension) + 1;
+  for (std::uint32_t v = 0; v < higher.size(); ++v) {
+    clique.assign(1, v);
+    detail::extend_cliques(clique, higher[v], higher, max_size, facets);
+    for (const auto& f : facets) b.add_facet_ids(f);
+    facets.clear();
+  }
+  return std::move(b).finalize();
+}
+
+/// The clique complex of the graph with these edges (vertices in order of first appearance).
+template <simplex_label Label>
+simplicial_complex<Label> clique_complex(const std::vector<std::pair<Label, Label>>& edges, int max_dimension) {
+  return clique_complex(std::vector<Label>{}, edges, max_dimension);
+}
+
+}  // namespace lacuna
