@@ -2,4 +2,32 @@
 #pragma once
 
 #include <lacuna/ring/ring.hpp>
+
 #include <lacuna/complex/concepts.hpp>
+#include <lacuna/complex/errors.hpp>
+#include <lacuna/complex/cell_list.hpp>
+#include <lacuna/complex/simplicial_complex.hpp>
+#include <lacuna/complex/clique_complex.hpp>
+#include <lacuna/complex/cubical_complex.hpp>
+#include <lacuna/complex/polygon_mesh.hpp>
+#include <lacuna/complex/coboundary_table.hpp>
+#include <lacuna/complex/validate.hpp>
+#include <lacuna/complex/construct.hpp>
+
+#include <lacuna/chain/chain.hpp>
+#include <lacuna/chain/checked_coefficient.hpp>
+#include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/reducible_complex.hpp>
+
+#include <lacuna/algorithm/dense_smith.hpp>
+#include <lacuna/algorithm/unit_elimination.hpp>
+#include <lacuna/algorithm/elimination_maps.hpp>
+
+#include <lacuna/homology/homology.hpp>
+
+#include <lacuna/io/facets.hpp>
+#include <lacuna/io/cells.hpp>
+#include <lacuna/io/off.hpp>
+#include <lacuna/io/obj.hpp>
+#include <lacuna/io/netpbm.hpp>
+#include <lacuna/io/nrrd.hpp>

@@ -80,9 +80,11 @@ class reducible_complex {
     return from_original_[level].empty() ? static_cast<std::int64_t>(original) : from_original_[level][original];
   }
 
-  /// Builds the complex of c, mapping integer incidences into R with from_integer.
+  /// Builds the complex of c, mapping an integer incidence n into R as from_integer<R>(n) *
+  /// unit. `unit` is the one of R; it matters for rings whose modulus lives in the elements
+  /// (mod_p_dynamic: pass a bound one, mod_p_dynamic(1, p)).
   template <cell_complex C>
-  static reducible_complex build(const C& c, reducible_build_options opt = {}) {
+  static reducible_complex build(const C& c, reducible_build_options opt = {}, const R& unit = one<R>()) {
     reducible_complex rc;
     const int top = lacuna::top_dimension(c);
     rc.top_ = top;
@@ -162,7 +164,7 @@ class reducible_complex {
               throw invalid_complex("cell '" + lacuna::cell_name(c, k, i) + "' (dimension " + std::to_string(k) +
                                       "): its incidence numbers overflow 64 bits", k, i);
           if (sum != 0) {
-            const R val = from_integer<R>(sum);
+            const R val = from_integer<R>(sum) * unit;
             if (!(val == zero<R>())) {
               if (!opt.dual) {
                 rc.bd_[lvl(k)][cell].push_back({scratch[s].index, val});
@@ -184,7 +186,7 @@ class reducible_complex {
     if (opt.augmented && top >= 0) {  // the empty cell is the common face of all vertices
       const int L0 = lvl(0);
       for (std::uint32_t v = 0; v < rc.bd_[L0].size(); ++v) {
-        rc.bd_[L0][v].push_back({0, one<R>()});
+        rc.bd_[L0][v].push_back({0, unit});
         rc.cob_[0][0].push_back(v);
       }
     }

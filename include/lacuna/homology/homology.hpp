@@ -241,8 +241,12 @@ elimination_log<R> convert_log(elimination_log<W>&& log) {
 template <class R, class W, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
                                             reducible_build_options build, std::shared_ptr<homology_basis<R>>* basis,
-                                            reducible_complex<W>* keep_rc = nullptr) {
-  auto rc = reducible_complex<W>::build(c, build);
+                                            const R& unit) {
+  reducible_complex<W> rc;
+  if constexpr (std::same_as<R, W>)
+    rc = reducible_complex<W>::build(c, build, unit);
+  else
+    rc = reducible_complex<W>::build(c, build);
   elimination_log<W> log;
   const bool want_log = opt.generators || opt.keep_basis;
   if constexpr (std::same_as<Algorithm, sparse_elimination>) {
@@ -270,22 +274,21 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     }
     *basis = std::move(hb);
   }
-  if (keep_rc) *keep_rc = std::move(rc);
   return levels;
 }
 
 template <class R, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels_any(const C& c, const homology_options& opt, const Algorithm& alg,
                                                 reducible_build_options build,
-                                                std::shared_ptr<homology_basis<R>>* basis) {
+                                                std::shared_ptr<homology_basis<R>>* basis, const R& unit) {
   if constexpr (std::same_as<R, integer> && std::same_as<Algorithm, sparse_elimination>) {
     try {
-      return compute_levels<R, checked_int64>(c, opt, alg, build, basis);
+      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, unit);
     } catch (const coefficient_overflow&) {
       // Widen: repeat with coefficients that cannot overflow.
     }
   }
-  return compute_levels<R, R>(c, opt, alg, build, basis);
+  return compute_levels<R, R>(c, opt, alg, build, basis, unit);
 }
 
 }  // namespace detail
@@ -378,7 +381,7 @@ class homology_result {
 namespace detail {
 template <euclidean_domain R, cell_complex C, class Algorithm>
 homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool co,
-                            const std::vector<std::vector<bool>>* excluded) {
+                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
   if (opt.generators) opt.keep_basis = true;
   if (co && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
   reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded};
@@ -388,7 +391,7 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
   res.level_offset_ = opt.reduced ? -1 : 0;
   const int top = lacuna::top_dimension(c);
   res.top_ = top;
-  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_);
+  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, unit);
   for (int k = 0; k <= top; ++k) {
     const int L = co ? top - k : k - res.level_offset_;
     auto& lr = levels[static_cast<std::size_t>(L)];
@@ -410,17 +413,31 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
 
 /// The homology of c over R (R models euclidean_domain; fields give dimensions, the
 /// integers give ranks and torsion). Algorithm: sparse_elimination{} (default) or
-/// dense_elimination{} (the small-matrix reference). See homology_options.
+/// dense_elimination{} (the small-matrix reference). See homology_options. `unit` is the one
+/// of R, for rings whose elements carry a run-time modulus (mod_p_dynamic(1, p)).
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
-homology_result<R> homology(const C& c, homology_options options = {}, const Algorithm& algorithm = {}) {
-  return detail::assemble<R>(c, options, algorithm, false, nullptr);
+homology_result<R> homology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
+                            const R& unit = one<R>()) {
+  return detail::assemble<R>(c, options, algorithm, false, nullptr, unit);
+}
+
+/// The homology of the pair (c, A) over R, A the subcomplex of the cells marked in
+/// `in_subcomplex` (in_subcomplex[k][i] for the i-th k-cell; the caller checks closure):
+/// the homology of the quotient chain complex C(c)/C(A).
+template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
+homology_result<R> relative_homology(const C& c, const std::vector<std::vector<bool>>& in_subcomplex,
+                                     homology_options options = {}, const Algorithm& algorithm = {},
+                                     const R& unit = one<R>()) {
+  if (options.reduced) throw std::invalid_argument("lacuna: relative homology is not augmented");
+  return detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, unit);
 }
 
 /// The cohomology H^k of c over R, with cocycle generators on request (cochains named by
 /// the cells they take the value 1 on, with coefficients).
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
-homology_result<R> cohomology(const C& c, homology_options options = {}, const Algorithm& algorithm = {}) {
-  return detail::assemble<R>(c, options, algorithm, true, nullptr);
+homology_result<R> cohomology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
+                              const R& unit = one<R>()) {
+  return detail::assemble<R>(c, options, algorithm, true, nullptr, unit);
 }
 
 }  // namespace lacuna
