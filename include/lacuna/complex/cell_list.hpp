@@ -11,6 +11,7 @@
 #pragma once
 
 #include <lacuna/complex/concepts.hpp>
+#include <lacuna/complex/detail/concat.hpp>
 #include <lacuna/complex/errors.hpp>
 
 #include <algorithm>
@@ -29,15 +30,6 @@
 namespace lacuna {
 
 namespace detail {
-/// Concatenates the pieces. (Written with append because GCC 12 at -O3 gives a false
-/// -Wrestrict on chains of std::string operator+ with a literal in front.)
-template <class... T>
-std::string concat(const T&... pieces) {
-  std::string s;
-  (s.append(std::string_view(pieces)), ...);
-  return s;
-}
-
 /// a + b, or an invalid_complex naming `what` if it does not fit int64.
 inline std::int64_t checked_add(std::int64_t a, std::int64_t b, const std::string& what) {
   std::int64_t r;

@@ -14,6 +14,7 @@
 #pragma once
 
 #include <lacuna/complex/concepts.hpp>
+#include <lacuna/complex/detail/concat.hpp>
 #include <lacuna/complex/errors.hpp>
 
 #include <algorithm>

@@ -1,0 +1,197 @@
+// lacuna/io/facets.hpp — the facet list format (.facets) of shared/FORMATS.md.
+//
+//   read_facets(stream, file_name [, options])  -> simplicial_complex<std::string>
+//   read_facets(path [, options])               -> simplicial_complex<std::string>
+//   write_facets(stream, complex)                  any simplicial_complex<Label>
+//
+// One simplex per line, labels separated by whitespace; '#' starts a comment; LF or CRLF;
+// blank lines ignored; the complex is the closure; vertices numbered in order of first
+// appearance. Errors are lacuna::parse_error, "FILE:LINE: message":
+//   * a label repeated within one line;
+//   * bytes that are not UTF-8;
+//   * a line whose closure alone exceeds options.max_cells (2^n - 1 faces for n labels),
+//     and a complex of more than max_cells simplices in all (reported with line 0).
+// The writer writes the maximal simplices in lexicographic order of vertex ids, adding a
+// line with a single vertex where that is needed to keep the numbering, so that reading the
+// output back gives the same complex (same numbering, same orientation).
+#pragma once
+
+#include <lacuna/complex/errors.hpp>
+#include <lacuna/complex/simplicial_complex.hpp>
+
+#include <algorithm>
+#include <cstddef>
+#include <cstdint>
+#include <filesystem>
+#include <fstream>
+#include <istream>
+#include <ostream>
+#include <string>
+#include <string_view>
+#include <unordered_set>
+#include <vector>
+
+namespace lacuna {
+
+/// Limits a reader applies before it allocates.
+struct facets_read_options {
+  /// The most simplices the complex may have (its closure included).
+  std::size_t max_cells = std::size_t{1} << 31;
+};
+
+namespace facets_detail {
+
+inline bool is_space(char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == '\v' || c == '\f'; }
+
+/// True if s is well-formed UTF-8 (no overlong forms, no surrogates, at most U+10FFFF).
+inline bool valid_utf8(std::string_view s) {
+  std::size_t i = 0;
+  while (i < s.size()) {
+    const auto c = static_cast<unsigned char>(s[i]);
+    std::size_t n;
+    std::uint32_t cp;
+    if (c < 0x80) {
+      ++i;
+      continue;
+    }
+    if ((c & 0xE0) == 0xC0) {
+      n = 1;
+      cp = c & 0x1Fu;
+    } else if ((c & 0xF0) == 0xE0) {
+      n = 2;
+      cp = c & 0x0Fu;
+    } else if ((c & 0xF8) == 0xF0) {
+      n = 3;
+      cp = c & 0x07u;
+    } else {
+      return false;
+    }
+    if (i + n >= s.size()) return false;  // truncated sequence
+    for (std::size_t t = 1; t <= n; ++t) {
+      const auto d = static_cast<unsigned char>(s[i + t]);
+      if ((d & 0xC0) != 0x80) return false;
+      cp = (cp << 6) | (d & 0x3Fu);
+    }
+    if ((n == 1 && cp < 0x80) || (n == 2 && cp < 0x800) || (n == 3 && cp < 0x10000) || cp > 0x10FFFF ||
+        (cp >= 0xD800 && cp <= 0xDFFF))
+      return false;
+    i += n + 1;
+  }
+  return true;
+}
+
+/// True if the text can be written as a facet-list label.
+inline bool writable_label(std::string_view s) {
+  if (s.empty()) return false;
+  for (char c : s)
+    if (is_space(c) || c == '#') return false;
+  return true;
+}
+
+}  // namespace facets_detail
+
+/// Reads a facet list from `in`; `file_name` is used in error messages only.
+/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+inline simplicial_complex<std::string> read_facets(std::istream& in, const std::string& file_name,
+                                                   const facets_read_options& options = {}) {
+  simplicial_complex<std::string>::builder b;
+  b.max_cells(options.max_cells);
+  std::string line;
+  std::vector<std::string> labels;
+  std::size_t line_number = 0;
+  while (std::getline(in, line)) {
+    ++line_number;
+    if (const auto hash = line.find('#'); hash != std::string::npos) line.erase(hash);
+    labels.clear();
+    for (std::size_t i = 0; i < line.size();) {
+      while (i < line.size() && facets_detail::is_space(line[i])) ++i;
+      const std::size_t start = i;
+      while (i < line.size() && !facets_detail::is_space(line[i])) ++i;
+      if (i > start) labels.emplace_back(line, start, i - start);
+    }
+    if (labels.empty()) continue;
+    for (const auto& l : labels)
+      if (!facets_detail::valid_utf8(l)) throw parse_error(file_name, line_number, "a label is not valid UTF-8");
+    // 2^n - 1 faces for n labels: refuse before the builder allocates them
+    const std::size_t n = labels.size();
+    if (n >= 63 || ((std::uint64_t{1} << n) - 1) > options.max_cells)
+      throw parse_error(file_name, line_number,
+                        "a simplex with " + std::to_string(n) + " vertices has 2^" + std::to_string(n) +
+                            " - 1 faces, more than the limit of " + std::to_string(options.max_cells) + " cells");
+    for (std::size_t i = 0; i < n; ++i)
+      for (std::size_t j = i + 1; j < n; ++j)
+        if (labels[i] == labels[j])
+          throw parse_error(file_name, line_number, "the label '" + labels[i] + "' is repeated within one simplex");
+    try {
+      b.add_facet(labels);
+    } catch (const invalid_complex& e) {
+      throw parse_error(file_name, line_number, e.what());
+    }
+  }
+  if (in.bad()) throw parse_error(file_name, line_number, "read error");
+  try {
+    return std::move(b).finalize();
+  } catch (const invalid_complex& e) {
+    throw parse_error(file_name, 0, e.what());
+  }
+}
+
+/// Reads the facet list in the file at `path`. Throws lacuna::parse_error ("FILE: cannot
+/// open the file", or FILE:LINE: message).
+inline simplicial_complex<std::string> read_facets(const std::filesystem::path& path,
+                                                   const facets_read_options& options = {}) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw parse_error(path.string(), 0, "cannot open the file");
+  return read_facets(in, path.string(), options);
+}
+
+/// Writes c as a facet list that reads back as the same complex. Throws
+/// lacuna::invalid_complex naming the vertex if a label's text is empty, holds whitespace
+/// or '#', or equals the text of another label.
+template <class Label>
+void write_facets(std::ostream& out, const simplicial_complex<Label>& c) {
+  std::vector<std::string> text;
+  std::unordered_set<std::string> seen;
+  for (std::uint32_t v = 0; v < c.vertex_count(); ++v) {
+    text.push_back(detail::label_to_string(c.label(v)));
+    if (!facets_detail::writable_label(text.back()))
+      throw invalid_complex("write_facets: the label of vertex " + std::to_string(v) + " ('" + text.back() +
+                                "') is empty or holds whitespace or '#'",
+                            0, v);
+    if (!seen.insert(text.back()).second)
+      throw invalid_complex("write_facets: two vertices have the label '" + text.back() + "'", 0, v);
+  }
+  auto facets = c.facets();
+  const auto lex = [&](const std::pair<int, std::size_t>& a, const std::pair<int, std::size_t>& b) {
+    const auto x = c.vertices(a.first, a.second), y = c.vertices(b.first, b.second);
+    return std::lexicographical_compare(x.begin(), x.end(), y.begin(), y.end());
+  };
+  std::sort(facets.begin(), facets.end(), lex);
+  out << "# " << c.vertex_count() << " vertices, " << facets.size() << " facets\n";
+  std::uint32_t next = 0;  // the first vertex not yet written
+  for (const auto& [k, i] : facets) {
+    const auto vs = c.vertices(k, i);
+    if (k == 0 && vs[0] < next) continue;  // already written on a line of its own
+    // the vertices that appear here for the first time must be next, next + 1, ... in order
+    std::uint32_t top_new = 0;
+    bool any_new = false;
+    for (auto v : vs)
+      if (v >= next) {
+        top_new = any_new ? std::max(top_new, v) : v;
+        any_new = true;
+      }
+    if (any_new) {
+      std::uint32_t expect = next;
+      bool in_order = true;
+      for (auto v : vs)
+        if (v >= next) in_order = in_order && (v == expect++);
+      if (!in_order)
+        for (; next < top_new; ++next) out << text[next] << '\n';
+      next = std::max(next, top_new + 1);
+    }
+    for (std::size_t j = 0; j < vs.size(); ++j) out << (j ? " " : "") << text[vs[j]];
+    out << '\n';
+  }
+}
+
+}  // namespace lacuna
