@@ -1,0 +1,227 @@
+// lacuna/io/netpbm.hpp — Netpbm bitmaps and greymaps (P1, P4, P2, P5) as 2D cubical complexes,
+// and a PGM writer.
+//
+// Pixel (x, y) — column x, row y counted from the top — is voxel (x, y) of a
+// lacuna::cubical_complex<2>: axis 0 runs along a row, axis 1 down the image. Foreground is a
+// sample other than zero (in PBM, 1 = black), or with image_options::threshold T a sample >= T.
+//
+// Accepted: the magic P1, P2, P4 or P5; width, height (and maxval, 1..65535, for P2/P5)
+// separated by whitespace, with '#' comments anywhere in the header (and, leniently, between
+// samples of P1 and P2); in P4/P5 exactly one whitespace byte before the raster; P5 with
+// maxval > 255 has 16-bit big-endian samples. P1 samples need not be separated. Only the first
+// image of a file is read; whatever follows it is ignored.
+// Errors (lacuna::parse_error): "FILE:LINE: message" for the header and plain rasters,
+// "FILE: byte offset N: message" for binary rasters.
+#pragma once
+
+#include <lacuna/complex/cubical_complex.hpp>
+#include <lacuna/complex/errors.hpp>
+#include <lacuna/io/read_limits.hpp>
+
+#include <cstddef>
+#include <cstdint>
+#include <filesystem>
+#include <istream>
+#include <limits>
+#include <ostream>
+#include <span>
+#include <string>
+#include <vector>
+
+namespace lacuna::io {
+
+namespace detail {
+
+class netpbm_reader {
+ public:
+  netpbm_reader(std::istream& in, const std::string& name, const image_options& opt)
+      : src_(in), name_(name), opt_(opt) {}
+
+  cubical_complex<2> read() {
+    const int p = src_.get(), k = src_.get();
+    if (p != 'P' || k < '1' || k > '7') fail(1, "not a Netpbm image (the file must begin with P1, P2, P4 or P5)");
+    if (k == '3' || k == '6') fail(1, "P" + std::string(1, static_cast<char>(k)) + " (colour) images are not supported; use P1, P2, P4 or P5");
+    if (k == '7') fail(1, "P7 (PAM) images are not supported; use P1, P2, P4 or P5");
+    kind_ = k - '0';
+    const std::uint64_t w = header_number("width"), h = header_number("height");
+    const std::size_t size_line = last_token_line_;  // size errors are reported where the sizes are
+    if (w == 0 || h == 0) fail(last_token_line_, "the image has no pixels (width " + std::to_string(w) + ", height " + std::to_string(h) + ")");
+    std::uint64_t maxval = 1;
+    if (kind_ == 2 || kind_ == 5) {
+      maxval = header_number("maxval");
+      if (maxval == 0 || maxval > 65535) fail(last_token_line_, "maxval " + std::to_string(maxval) + " is out of range 1..65535");
+    }
+    if (kind_ == 4 || kind_ == 5) {
+      const int c = src_.get();  // the single whitespace byte before the raster
+      if (c < 0) fail(src_.line(), "the file ends before the pixel data");
+      if (!is_space(c)) fail(src_.line(), "expected one whitespace byte after the header");
+    }
+    maxval_ = maxval;
+
+    // sizes, checked before anything is allocated
+    const auto pixels = checked_mul(w, h);
+    const auto gw = checked_mul(2 * w + 1, 2 * h + 1);
+    if (!pixels || !gw || w > (std::uint64_t{1} << 62) || h > (std::uint64_t{1} << 62) ||
+        *gw > opt_.limits.max_cells || *pixels > std::numeric_limits<std::size_t>::max() / 2)
+      fail(size_line, "an image of " + std::to_string(w) + " x " + std::to_string(h) +
+                            " pixels exceeds the limit of " + std::to_string(opt_.limits.max_cells) + " grid cells");
+    const std::uint64_t bytes_per_sample = (kind_ == 5 && maxval > 255) ? 2 : 1;
+    const std::uint64_t row_bytes = kind_ == 4 ? (w + 7) / 8 : w * bytes_per_sample;
+    // the fewest bytes the raster can take: P1 one per pixel, P2 two per sample but the last
+    const std::uint64_t min_bytes = kind_ == 1 ? *pixels : kind_ == 2 ? 2 * *pixels - 1 : row_bytes * h;
+    if (min_bytes > opt_.limits.max_bytes)
+      fail(size_line, "the pixel data (" + std::to_string(min_bytes) + " bytes) exceeds the limit of " +
+                            std::to_string(opt_.limits.max_bytes) + " bytes");
+    const auto left = remaining_bytes(src_.stream());
+    if (left && *left < min_bytes) {
+      if (kind_ == 4 || kind_ == 5)
+        fail_at(src_.offset() + *left, "pixel data truncated: the header promises " + std::to_string(min_bytes) +
+                                           " bytes, the file holds " + std::to_string(*left));
+      fail(size_line, "the header promises " + std::to_string(*pixels) + " pixels, the file is too short to hold them (" +
+                            std::to_string(*left) + " bytes left)");
+    }
+
+    w_ = static_cast<std::size_t>(w);
+    h_ = static_cast<std::size_t>(h);
+    bit_sink bits(static_cast<std::size_t>(*pixels), left.has_value());
+    if (kind_ == 1 || kind_ == 2) read_plain(bits);
+    else read_binary(bits, static_cast<std::size_t>(row_bytes), static_cast<unsigned>(bytes_per_sample));
+    return cubical_complex<2>({w_, h_}, bits.take());
+  }
+
+ private:
+  static bool is_space(int c) { return c == ' ' || c == '\t' || c == '\n' || c == '\r' || c == '\f' || c == '\v'; }
+  static std::optional<std::uint64_t> checked_mul(std::uint64_t a, std::uint64_t b) {
+    if (a != 0 && b > std::numeric_limits<std::uint64_t>::max() / a) return std::nullopt;
+    return a * b;
+  }
+  [[noreturn]] void fail(std::size_t line, const std::string& msg) const { throw parse_error(name_, line, msg); }
+  [[noreturn]] void fail_at(std::uint64_t offset, const std::string& msg) const {
+    throw parse_error(name_, 0, "byte offset " + std::to_string(offset) + ": " + msg);
+  }
+  bool foreground(std::uint64_t v) const {
+    return opt_.threshold ? static_cast<std::int64_t>(v) >= *opt_.threshold : v != 0;
+  }
+
+  // skips whitespace and comments; returns the next byte (not consumed), -1 at the end
+  int skip_blank() {
+    for (;;) {
+      const int c = src_.peek();
+      if (c == '#') {
+        while (src_.get() >= 0 && src_.peek() != '\n' && src_.peek() >= 0) {}
+        continue;
+      }
+      if (c >= 0 && is_space(c)) {
+        src_.get();
+        continue;
+      }
+      return c < 0 ? -1 : c;
+    }
+  }
+
+  std::uint64_t header_number(const char* what) {
+    const int first = skip_blank();
+    if (first < 0) fail(src_.line(), std::string("the file ends before the ") + what);
+    const std::size_t line = src_.line();
+    last_token_line_ = line;
+    std::string digits;
+    while (src_.peek() >= 0 && !is_space(src_.peek()) && src_.peek() != '#' && digits.size() < 32)
+      digits.push_back(static_cast<char>(src_.get()));
+    const auto v = parse_unsigned(digits);
+    if (!v) fail(line, std::string("bad ") + what + " " + quote_token(digits));
+    return *v;
+  }
+
+  void read_plain(bit_sink& bits) {
+    const std::size_t total = w_ * h_;
+    for (std::size_t i = 0; i < total; ++i) {
+      const int c = skip_blank();
+      if (c < 0)
+        fail(src_.line(), "the file ends after " + std::to_string(i) + " of " + std::to_string(total) + " pixels");
+      if (kind_ == 1) {
+        src_.get();
+        if (c != '0' && c != '1') fail(src_.line(), "bad pixel " + quote_token(std::string(1, static_cast<char>(c))) + " (PBM pixels are 0 or 1)");
+        bits.push(foreground(c == '1' ? 1 : 0));
+      } else {
+        const std::size_t line = src_.line();
+        std::string digits;
+        while (src_.peek() >= 0 && !is_space(src_.peek()) && src_.peek() != '#' && digits.size() < 32)
+          digits.push_back(static_cast<char>(src_.get()));
+        const auto v = parse_unsigned(digits);
+        if (!v) fail(line, "bad sample " + quote_token(digits));
+        if (*v > maxval_) fail(line, "sample " + std::to_string(*v) + " exceeds maxval " + std::to_string(maxval_));
+        bits.push(foreground(*v));
+      }
+    }
+  }
+
+  // reads row by row in chunks of at most 64 KiB, so that a lying width costs no memory
+  void read_binary(bit_sink& bits, std::size_t row_bytes, unsigned bps) {
+    std::vector<unsigned char> buf(std::min<std::size_t>(row_bytes, std::size_t{1} << 16));
+    for (std::size_t y = 0; y < h_; ++y) {
+      std::size_t x = 0;  // next pixel of the row (P5) or next byte (P4)
+      for (std::size_t done = 0; done < row_bytes;) {
+        const std::size_t want = std::min(buf.size(), row_bytes - done);  // even for 16-bit rows
+        const std::uint64_t start = src_.offset();
+        const std::size_t got = src_.read(reinterpret_cast<char*>(buf.data()), want);
+        if (got < want)
+          fail_at(start + got, "pixel data truncated in row " + std::to_string(y) + " of " + std::to_string(h_));
+        done += got;
+        if (kind_ == 4) {
+          for (std::size_t b = 0; b < got; ++b, ++x)
+            for (unsigned k = 0; k < 8 && 8 * x + k < w_; ++k) bits.push(foreground((buf[b] >> (7 - k)) & 1));
+          continue;
+        }
+        for (std::size_t b = 0; b < got; b += bps, ++x) {
+          const std::uint64_t v = bps == 1 ? buf[b] : (std::uint64_t{buf[b]} << 8) | buf[b + 1];
+          if (v > maxval_) fail_at(start + b, "sample " + std::to_string(v) + " exceeds maxval " + std::to_string(maxval_));
+          bits.push(foreground(v));
+        }
+      }
+    }
+  }
+
+  byte_source src_;
+  const std::string& name_;
+  const image_options& opt_;
+  int kind_ = 0;
+  std::uint64_t maxval_ = 1;
+  std::size_t w_ = 0, h_ = 0;
+  std::size_t last_token_line_ = 1;
+};
+
+}  // namespace detail
+
+/// Reads a PBM or PGM image (P1, P2, P4, P5) from a stream as a 2D cubical complex; `name`
+/// names the input in error messages. Throws lacuna::parse_error.
+inline cubical_complex<2> read_netpbm(std::istream& in, const std::string& name, const image_options& options = {}) {
+  return detail::netpbm_reader(in, name, options).read();
+}
+
+/// Reads a PBM or PGM file.
+inline cubical_complex<2> read_netpbm(const std::filesystem::path& path, const image_options& options = {}) {
+  auto in = detail::open_input(path);
+  return read_netpbm(in, path.string(), options);
+}
+
+/// Writes samples (row by row, top row first) as a binary PGM (P5); 16-bit big-endian samples
+/// when maxval > 255. Precondition: samples.size() == width * height, every sample <= maxval.
+inline void write_pgm(std::ostream& out, std::size_t width, std::size_t height,
+                      std::span<const std::uint16_t> samples, std::uint16_t maxval) {
+  out << "P5\n" << width << ' ' << height << '\n' << maxval << '\n';
+  for (std::size_t i = 0; i < width * height; ++i) {
+    if (maxval > 255) out.put(static_cast<char>(samples[i] >> 8));
+    out.put(static_cast<char>(samples[i] & 0xff));
+  }
+}
+
+/// Writes the foreground of a 2D cubical complex as a PGM: 255 for foreground, 0 otherwise.
+/// Reading it back gives the same complex.
+inline void write_pgm(std::ostream& out, const cubical_complex<2>& c) {
+  const auto n = c.extents();
+  out << "P5\n" << n[0] << ' ' << n[1] << "\n255\n";
+  for (std::size_t y = 0; y < n[1]; ++y)
+    for (std::size_t x = 0; x < n[0]; ++x) out.put(c.is_foreground({x, y}) ? static_cast<char>(255) : '\0');
+}
+
+}  // namespace lacuna::io
