@@ -9,8 +9,9 @@
 // simplex, the simplices in lexicographic order (no per-simplex object); the 0-simplices are
 // the vertex ids 0..n-1 (4 bytes each, so that every dimension is a plain array). A face is found by binary search, so
 // boundary(k, i) costs O(k^2 log n_{k-1}) and allocates nothing for k < 8.
-// Memory: 4(k+1) bytes per k-simplex; 10^7 tetrahedra with their faces take about 0.6 GiB
-// (measured in tests/complex/simplicial_memory.long.cpp).
+// Memory: 4(k+1) bytes per k-simplex. Measured (tests/complex/simplicial_memory.long.cpp):
+// a 3-dimensional complex of 1.02 * 10^7 simplices holds 117.5 MB of simplex arrays
+// (11.5 bytes per simplex) and builds in 4 s with a peak resident size of 331 MiB.
 #pragma once
 
 #include <lacuna/complex/concepts.hpp>
