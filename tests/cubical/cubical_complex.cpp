@@ -6,6 +6,7 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <array>
 #include <cstdint>
 #include <map>
@@ -169,6 +170,8 @@ void check_cobound_and_roundtrip(const cubical_complex<D>& c) {
       REQUIRE(c.position(k, i) == p);
       REQUIRE(c.index_of(p) == i);
       REQUIRE(cubical_complex<D>::dimension_of(p) == k);
+      const auto via_index = c.boundary(k, i), via_position = c.boundary_at(p);
+      REQUIRE(std::equal(via_index.begin(), via_index.end(), via_position.begin(), via_position.end()));
     });
     REQUIRE(expect == c.cell_count(k));
     for (std::size_t i = 0; i < c.cell_count(k); ++i) {

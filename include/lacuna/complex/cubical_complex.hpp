@@ -77,17 +77,18 @@ inline void or_bit_range(std::uint64_t* dst, std::size_t dst_pos, const std::uin
 }
 
 /// The position (0..63) of the r-th (0-based) set bit of w; precondition r < popcount(w).
+/// Broadword: byte counts side by side, their prefix sums by one multiplication (Vigna 2008).
 inline unsigned select_in_word(std::uint64_t w, unsigned r) {
-  for (unsigned byte = 0; byte < 8; ++byte) {
-    const unsigned c = static_cast<unsigned>(std::popcount((w >> (8 * byte)) & 0xff));
-    if (r < c) {
-      std::uint64_t b = (w >> (8 * byte)) & 0xff;
-      for (unsigned i = 0; i < r; ++i) b &= b - 1;
-      return 8 * byte + static_cast<unsigned>(std::countr_zero(b));
-    }
-    r -= c;
-  }
-  return 64;  // unreachable under the precondition
+  std::uint64_t s = w - ((w >> 1) & 0x5555555555555555u);
+  s = (s & 0x3333333333333333u) + ((s >> 2) & 0x3333333333333333u);
+  s = (s + (s >> 4)) & 0x0f0f0f0f0f0f0f0fu;
+  const std::uint64_t prefix = s * 0x0101010101010101u;  // byte i: set bits in bytes 0..i
+  unsigned byte = 0;
+  while (byte < 7 && ((prefix >> (8 * byte)) & 0xff) <= r) ++byte;
+  if (byte != 0) r -= static_cast<unsigned>((prefix >> (8 * (byte - 1))) & 0xff);
+  std::uint64_t b = (w >> (8 * byte)) & 0xff;
+  for (unsigned i = 0; i < r; ++i) b &= b - 1;
+  return 8 * byte + static_cast<unsigned>(std::countr_zero(b));
 }
 
 /// At most N incidences held inline: the boundary or coboundary of one cubical cell.
@@ -218,17 +219,23 @@ class cubical_complex {
   /// The boundary of the i-th k-cell (standard cubical orientation, see the file comment):
   /// for each free axis, in increasing order, the lower face and then the upper face.
   /// O(k) rank queries plus one select; no allocation.
-  boundary_range boundary(int k, std::size_t i) const {
-    const position_type p = position(k, i);
+  boundary_range boundary(int k, std::size_t i) const { return boundary_at(position(k, i)); }
+
+  /// The boundary of the cell at grid position p (as boundary(), without the select step: use it
+  /// with for_each_cell). Precondition: contains(p).
+  boundary_range boundary_at(const position_type& p) const noexcept {
     boundary_range out;
+    const int k = dimension_of(p);
+    if (k == 0) return out;
+    const std::size_t base = offsets_[static_cast<std::size_t>(k - 1)];
     std::int64_t sign = 1;
     for (std::size_t a = 0; a < D; ++a) {
       if ((p[a] & 1) == 0) continue;
       position_type q = p;
       q[a] = p[a] - 1;
-      out.push_back({rank_of_bit(bit_of(q)) - offsets_[static_cast<std::size_t>(k - 1)], -sign});
+      out.push_back({rank_of_bit(bit_of(q)) - base, -sign});
       q[a] = p[a] + 1;
-      out.push_back({rank_of_bit(bit_of(q)) - offsets_[static_cast<std::size_t>(k - 1)], sign});
+      out.push_back({rank_of_bit(bit_of(q)) - base, sign});
       sign = -sign;
     }
     return out;
@@ -347,12 +354,23 @@ class cubical_complex {
     for (const parity_class& c : classes_) {
       if (c.dimension != k || c.cell_count == 0) continue;
       const std::size_t w0 = c.bit_begin >> 6, w1 = (c.bit_begin + c.size + 63) >> 6;
+      // sub-grid coordinates advance like an odometer: a division only when a row is crossed
+      extents_type t{};
+      std::size_t at = 0;  // the sub-grid index t stands for
       for (std::size_t w = w0; w < w1; ++w) {
         std::uint64_t word = words_[w];
         while (word != 0) {
           const std::size_t sub = (w << 6) + static_cast<std::size_t>(std::countr_zero(word)) - c.bit_begin;
           word &= word - 1;
-          f(index++, std::as_const(*this).position_in_class(c, sub));
+          t[0] += sub - at;
+          at = sub;
+          for (std::size_t a = 0; a + 1 < D && t[a] >= c.extents[a]; ++a) {
+            t[a + 1] += t[a] / c.extents[a];
+            t[a] %= c.extents[a];
+          }
+          position_type p;
+          for (std::size_t a = 0; a < D; ++a) p[a] = 2 * t[a] + ((c.odd_axes >> a) & 1);
+          f(index++, std::as_const(p));
         }
       }
     }
@@ -393,32 +411,33 @@ class cubical_complex {
   }
   /// Whether bit b of bitmap() is set.
   bool test_bit(std::size_t b) const noexcept { return (words_[b >> 6] >> (b & 63)) & 1; }
-  /// The number of set bits of bitmap() before bit b.
+  /// The number of set bits of bitmap() before bit b. O(1): one popcount (rank9, Vigna 2008).
   std::size_t rank_of_bit(std::size_t b) const noexcept {
     const std::size_t w = b >> 6, block = w >> 3;
-    std::size_t r = blocks_[block];
-    for (std::size_t x = block << 3; x < w; ++x) r += static_cast<std::size_t>(std::popcount(words_[x]));
+    const unsigned j = static_cast<unsigned>(w & 7);
+    std::size_t r = dir_[2 * block];
+    if (j != 0) r += (dir_[2 * block + 1] >> (9 * (j - 1))) & 0x1ff;
     const unsigned off = static_cast<unsigned>(b & 63);
     if (off != 0) r += static_cast<std::size_t>(std::popcount(words_[w] << (64 - off)));
     return r;
   }
   /// The bit of bitmap() holding the r-th (0-based) set bit. Precondition: r < total cells.
+  /// A binary search over the blocks between two samples, then the block's word counts.
   std::size_t select_bit(std::size_t r) const noexcept {
     const std::size_t sample = r >> select_shift;
     std::size_t lo = samples_[sample];
-    std::size_t hi = sample + 1 < samples_.size() ? samples_[sample + 1] + 1 : blocks_.size() - 1;
-    // the last block with blocks_[block] <= r, in [lo, hi)
+    std::size_t hi = sample + 1 < samples_.size() ? samples_[sample + 1] + 1 : dir_.size() / 2 - 1;
+    // the last block whose count of earlier bits is <= r, in [lo, hi)
     while (hi - lo > 1) {
       const std::size_t mid = lo + (hi - lo) / 2;
-      if (blocks_[mid] <= r) lo = mid; else hi = mid;
+      if (dir_[2 * mid] <= r) lo = mid; else hi = mid;
     }
-    std::size_t left = r - blocks_[lo];
-    std::size_t w = lo << 3;
-    for (;; ++w) {
-      const auto c = static_cast<std::size_t>(std::popcount(words_[w]));
-      if (left < c) break;
-      left -= c;
-    }
+    std::size_t left = r - dir_[2 * lo];
+    const std::uint64_t rel = dir_[2 * lo + 1];
+    unsigned j = 0;
+    while (j < 7 && ((rel >> (9 * j)) & 0x1ff) <= left) ++j;
+    if (j != 0) left -= (rel >> (9 * (j - 1))) & 0x1ff;
+    const std::size_t w = (lo << 3) + j;
     return (w << 6) + detail::select_in_word(words_[w], static_cast<unsigned>(left));
   }
   /// The number of cells of dimension below k: the first global rank of a k-cell.
@@ -426,19 +445,20 @@ class cubical_complex {
 
   /// Heap and object bytes held by this complex.
   std::size_t memory_bytes() const noexcept {
-    return sizeof(*this) + words_.capacity() * sizeof(std::uint64_t) + blocks_.capacity() * sizeof(std::size_t) +
+    return sizeof(*this) + words_.capacity() * sizeof(std::uint64_t) + dir_.capacity() * sizeof(std::uint64_t) +
            samples_.capacity() * sizeof(std::size_t) + classes_.capacity() * sizeof(parity_class);
   }
 
  private:
-  static constexpr unsigned select_shift = 12;  // one select sample per 4096 cells
+  static constexpr unsigned select_shift = 10;  // one select sample per 1024 cells
 
   void build(std::size_t voxel_count, const std::vector<std::uint64_t>& voxels) {
     // storage order: by dimension, then mask
     std::vector<unsigned> masks(class_count);
     for (unsigned m = 0; m < class_count; ++m) masks[m] = m;
-    std::stable_sort(masks.begin(), masks.end(),
-                     [](unsigned x, unsigned y) { return std::popcount(x) < std::popcount(y); });
+    std::sort(masks.begin(), masks.end(), [](unsigned x, unsigned y) {
+      return std::popcount(x) != std::popcount(y) ? std::popcount(x) < std::popcount(y) : x < y;
+    });
     classes_.resize(class_count);
     std::size_t bit = 0;
     for (unsigned s = 0; s < class_count; ++s) {
@@ -484,13 +504,23 @@ class cubical_complex {
     }
 
     // rank directory, counts, select samples
-    blocks_.assign((words_.size() + 7) / 8 + 1, 0);
+    // rank9 directory: per 512-bit block the set bits before it, and seven 9-bit counts of the
+    // set bits before each of its words 1..7; a last block holds the total
+    const std::size_t nblocks = (words_.size() + 7) / 8;
+    dir_.assign(2 * (nblocks + 1), 0);
     std::size_t total = 0;
-    for (std::size_t w = 0; w < words_.size(); ++w) {
-      if ((w & 7) == 0) blocks_[w >> 3] = total;
-      total += static_cast<std::size_t>(std::popcount(words_[w]));
+    for (std::size_t block = 0; block < nblocks; ++block) {
+      dir_[2 * block] = total;
+      std::uint64_t rel = 0, in_block = 0;
+      for (std::size_t j = 0; j < 8; ++j) {
+        if (j != 0) rel |= in_block << (9 * (j - 1));
+        const std::size_t w = 8 * block + j;
+        if (w < words_.size()) in_block += static_cast<std::uint64_t>(std::popcount(words_[w]));
+      }
+      dir_[2 * block + 1] = rel;
+      total += in_block;
     }
-    blocks_.back() = total;
+    dir_[2 * nblocks] = total;
     counts_.fill(0);
     for (parity_class& c : classes_) {
       const std::size_t begin = rank_of_bit(c.bit_begin);
@@ -504,7 +534,7 @@ class cubical_complex {
     samples_.assign((total >> select_shift) + 1, 0);
     std::size_t next = 0, block = 0;
     for (std::size_t j = 0; j < samples_.size(); ++j, next += std::size_t{1} << select_shift) {
-      while (block + 1 < blocks_.size() && blocks_[block + 1] <= next) ++block;
+      while (block + 1 < nblocks + 1 && dir_[2 * (block + 1)] <= next) ++block;
       samples_[j] = block;
     }
   }
@@ -512,8 +542,8 @@ class cubical_complex {
   extents_type extents_{};
   std::size_t grid_positions_ = 1;
   std::vector<std::uint64_t> words_;
-  std::vector<std::size_t> blocks_;   // set bits before each 512-bit block; last: the total
-  std::vector<std::size_t> samples_;  // block holding the (j * 4096)-th set bit
+  std::vector<std::uint64_t> dir_;    // rank9 pairs per 512-bit block (count before, word counts)
+  std::vector<std::size_t> samples_;  // block holding the (j * 1024)-th set bit
   std::vector<parity_class> classes_;
   std::array<unsigned, class_count> slot_of_mask_{};
   std::array<std::size_t, D + 1> counts_{};
