@@ -3,6 +3,7 @@
 // Toriwaki & Yonekura 2002 in 3D), d∘d = 0 in dimensions 1..4, boundary/coboundary agreement,
 // index <-> position round trips, and the memory per grid position.
 #include <lacuna/complex/cubical_complex.hpp>
+#include <lacuna/complex/validate.hpp>
 
 #include <doctest/doctest.h>
 
@@ -149,6 +150,7 @@ std::vector<std::size_t> brute_counts(const std::vector<std::uint8_t>& vox, cons
 
 template <std::size_t D>
 void check_dd_zero(const cubical_complex<D>& c) {
+  CHECK_NOTHROW(lacuna::validate(c));  // the library's own checker: faces in range, dd = 0
   for (int k = 2; k <= c.top_dimension(); ++k) {
     std::map<std::size_t, std::int64_t> acc;
     for (std::size_t i = 0; i < c.cell_count(k); ++i) {

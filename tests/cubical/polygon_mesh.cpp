@@ -1,6 +1,7 @@
 // Tests of lacuna::polygon_mesh: counts and Euler characteristics of standard surfaces
 // (from memory: sphere 2, disc 1, annulus 0, torus 0), d∘d = 0, coboundaries, bad faces.
 #include <lacuna/complex/polygon_mesh.hpp>
+#include <lacuna/complex/validate.hpp>
 
 #include <doctest/doctest.h>
 
@@ -17,6 +18,7 @@ namespace {
 std::vector<std::size_t> counts(const polygon_mesh& m) { return {m.cell_count(0), m.cell_count(1), m.cell_count(2)}; }
 
 void check_dd_and_coboundary(const polygon_mesh& m) {
+  CHECK_NOTHROW(lacuna::validate(m));  // the library's own checker: faces in range, dd = 0
   for (std::size_t f = 0; f < m.face_count(); ++f) {
     std::map<std::size_t, long> acc;
     for (const auto& x : lacuna::boundary(m, 2, f))

@@ -8,13 +8,15 @@
 // Layout (no per-cell objects). The grid splits into 2^D parity classes (which coordinates are
 // odd); each class is a regular sub-grid, stored as its own bitmap of present cells. The class
 // bitmaps are concatenated, ordered by dimension and then by the odd-axes mask, each starting at
-// a 64-bit word. One rank directory over the whole bitmap (one 64-bit count per 512 bits) and
-// one select sample (the block holding every 4096th present cell) give
-//   position -> dense index : O(1) (at most 8 popcounts),
-//   dense index -> position : a binary search between two samples, then popcounts.
+// a 64-bit word. One rank directory over the whole bitmap (rank9, Vigna 2008: per 512 bits a
+// 64-bit count and seven 9-bit word counts) and one select sample (the block holding every
+// 1024th present cell) give
+//   position -> dense index : O(1), one popcount;
+//   dense index -> position : a short binary search between two samples, then broadword select.
 // The dense index of a k-cell is its rank among all present bits minus the number of cells of
 // dimension < k. Hence the k-cells are ordered by parity class (odd-axes mask ascending), then
-// by their place in the class's sub-grid, axis 0 fastest. About 0.14 bytes per grid position.
+// by their place in the class's sub-grid, axis 0 fastest. About 0.16 bytes per grid position
+// (measured: 0.1606 for 256^3 voxels), nearly independent of the foreground.
 //
 // Orientation: a cube whose free (odd) axes are a_1 < ... < a_k has boundary
 //   sum_j (-1)^(j-1) (upper face along a_j - lower face along a_j).
