@@ -214,3 +214,32 @@ TEST_CASE("quotient: chi(X/A) = chi(X) - chi(A) + 1") {
   CHECK(counts(lacuna::quotient(t, [](int, std::size_t) { return false; })) ==
         std::vector<std::size_t>{2, 3, 2});  // X/∅ = X ⊔ point
 }
+
+TEST_CASE("barycentric subdivision of regular cell complexes (the order complex of the face poset)") {
+  // through a cell list, a simplicial complex gives exactly the simplicial subdivision
+  for (const auto& x : simplicial_inputs()) {
+    const auto direct = lacuna::barycentric_subdivision(x);
+    const auto generic = lacuna::barycentric_subdivision(lacuna::to_cell_list(x));
+    CHECK(generic == direct);
+  }
+  // a square as one 2-cell, four edges, four vertices (regular): sd has 9 vertices, 8 triangles
+  cell_list sq;
+  for (const char* v : {"p", "q", "r", "s"}) sq.add_cell(0, v);
+  sq.add_cell(1, "a", {{1, 1}, {0, -1}});
+  sq.add_cell(1, "b", {{2, 1}, {1, -1}});
+  sq.add_cell(1, "c", {{3, 1}, {2, -1}});
+  sq.add_cell(1, "d", {{0, 1}, {3, -1}});
+  sq.add_cell(2, "F", {{0, 1}, {1, 1}, {2, 1}, {3, 1}});
+  lacuna::validate(sq);
+  const auto sd = lacuna::barycentric_subdivision(sq);
+  CHECK(counts(sd) == std::vector<std::size_t>{9, 16, 8});  // 2 triangles per (edge, vertex) flag: 4 * 2
+  CHECK(euler_characteristic(sd) == 1);                      // a disk
+  // products of regular complexes are regular: chi is kept
+  const auto p = lacuna::product(sq, lacuna::to_cell_list(simplicial_complex<int>{{0, 1}, {1, 2}, {2, 0}}));
+  const auto sdp = lacuna::barycentric_subdivision(p);
+  CHECK(euler_characteristic(sdp) == euler_characteristic(p));  // disk x circle: chi = 0
+  CHECK(euler_characteristic(p) == 0);
+  lacuna::validate(sdp);
+  CHECK(test_support::closed_pseudomanifold(lacuna::barycentric_subdivision(lacuna::product(
+      lacuna::to_cell_list(test_support::simplex_boundary_sphere(2)), lacuna::to_cell_list(test_support::simplex_boundary_sphere(2))))));
+}

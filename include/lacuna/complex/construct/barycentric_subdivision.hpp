@@ -4,9 +4,22 @@
 // "{A,B,C}" from the labels of their vertices; the simplices are the chains
 // σ0 ⊂ σ1 ⊂ ... ⊂ σk of simplices of X (Hatcher 2002, §2.1, barycentric subdivision).
 // A facet of dimension p of X gives (p+1)! facets of sd X.
+//
+// The second overload takes any *regular* cell complex (every closed cell a ball attached
+// homeomorphically: polyhedral meshes, cubical complexes, Delta-complexes without
+// identifications, products of these) and returns the order complex of its face poset, which
+// is its barycentric subdivision (Lundell & Weingram, The Topology of CW Complexes, 1969,
+// from memory). The face relation is read from the non-zero boundary coefficients. Vertex k, i
+// is labelled "{NAME}" with whitespace runs of the name turned into ',' (so a simplicial
+// complex gives the same result through either overload); if two labels collide, every vertex
+// is labelled "{e<k>_<i>}". Regularity is a precondition that is not checked: for the
+// one-vertex torus, say, the order complex is not the torus.
 #pragma once
 
+#include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
+
+#include <unordered_set>
 
 #include <algorithm>
 #include <cstdint>
@@ -51,6 +64,73 @@ simplicial_complex<std::string> barycentric_subdivision(const simplicial_complex
       b.add_facet_ids(ids);
     } while (std::next_permutation(perm.begin(), perm.end()));
   }
+  return std::move(b).finalize();
+}
+
+/// The barycentric subdivision of a regular cell complex (the order complex of its face
+/// poset) as a simplicial_complex<std::string>; χ(sd X) = χ(X). One facet per maximal chain
+/// τ_top > face > ... > vertex.
+template <cell_complex C>
+simplicial_complex<std::string> barycentric_subdivision(const C& c) {
+  using out_t = simplicial_complex<std::string>;
+  const int top = lacuna::top_dimension(c);
+  std::vector<std::size_t> first;
+  std::vector<std::string> labels;
+  std::unordered_set<std::string> seen;
+  bool unique = true;
+  for (int k = 0; k <= top; ++k) {
+    first.push_back(labels.size());
+    for (std::size_t i = 0; i < lacuna::cell_count(c, k); ++i) {
+      const std::string name = lacuna::cell_name(c, k, i);
+      std::string l = "{";
+      bool space = false;
+      for (char ch : name) {
+        const bool ws = ch == ' ' || ch == '\t' || ch == '\n' || ch == '\r';
+        if (ws) {
+          space = true;
+          continue;
+        }
+        if (space && l.size() > 1) l += ',';
+        space = false;
+        l += ch;
+      }
+      l += '}';
+      unique = unique && seen.insert(l).second;
+      labels.push_back(std::move(l));
+    }
+  }
+  out_t::builder b;
+  for (int k = 0; k <= top; ++k)
+    for (std::size_t i = 0; i < lacuna::cell_count(c, k); ++i)
+      b.vertex(unique ? labels[first[static_cast<std::size_t>(k)] + i]
+                      : detail::concat("{e", std::to_string(k), "_", std::to_string(i), "}"));
+  // covered[k][i]: the cell is a face of some (k+1)-cell, so no maximal chain starts there
+  std::vector<std::vector<char>> covered(static_cast<std::size_t>(top >= 0 ? top + 1 : 0));
+  for (int k = 0; k <= top; ++k) covered[static_cast<std::size_t>(k)].assign(lacuna::cell_count(c, k), 0);
+  for (int k = 1; k <= top; ++k)
+    for (std::size_t i = 0; i < lacuna::cell_count(c, k); ++i)
+      for (const auto& t : lacuna::boundary(c, k, i)) {
+        const incidence f = as_incidence(t);
+        if (f.coefficient != 0) covered[static_cast<std::size_t>(k - 1)].at(f.face) = 1;
+      }
+  std::vector<std::uint32_t> chain;
+  // depth-first over descending chains; each path to a cell without faces is a facet
+  const auto descend = [&](auto&& self, int k, std::size_t i) -> void {
+    chain.push_back(static_cast<std::uint32_t>(first[static_cast<std::size_t>(k)] + i));
+    bool any = false;
+    if (k > 0)
+      for (const auto& t : lacuna::boundary(c, k, i)) {
+        const incidence f = as_incidence(t);
+        if (f.coefficient == 0) continue;
+        any = true;
+        self(self, k - 1, f.face);
+      }
+    if (!any) b.add_facet_ids(chain);
+    chain.pop_back();
+  };
+  for (int k = 0; k <= top; ++k)
+    for (std::size_t i = 0; i < lacuna::cell_count(c, k); ++i)
+      if (!covered[static_cast<std::size_t>(k)][i]) descend(descend, k, i);
   return std::move(b).finalize();
 }
 
