@@ -61,11 +61,12 @@ inline lacuna::sparse_elimination markowitz_only() {
 }
 
 /// Computes homology (or cohomology) of c over R with every variant — sparse default, sparse
-/// Markowitz only, dense (when the complex has at most dense_limit cells) — with generators;
+/// Markowitz only, dense (when the complex has at most dense_limit cells; the same limit for
+/// verify_generators' dense cross-check) — with generators;
 /// checks that the groups agree and that every result's generators pass verify_generators.
 /// Returns the groups of the default variant.
 template <class R, class C>
-std::vector<group> all_variants(const C& c, bool co = false, bool reduced = false, std::size_t dense_limit = 2500) {
+std::vector<group> all_variants(const C& c, bool co = false, bool reduced = false, std::size_t dense_limit = 1600) {
   const lacuna::homology_options o{.generators = true, .reduced = reduced};
   auto run = [&](const auto& alg) {
     return co ? lacuna::cohomology<R>(c, o, alg) : lacuna::homology<R>(c, o, alg);
@@ -73,7 +74,7 @@ std::vector<group> all_variants(const C& c, bool co = false, bool reduced = fals
   const auto h0 = run(lacuna::sparse_elimination{});
   const auto g0 = groups_of(h0);
   {
-    const auto rep = lacuna::verify_generators(c, h0);
+    const auto rep = lacuna::verify_generators(c, h0, {.dense_cell_limit = dense_limit});
     INFO("sparse default: ", rep.first_failure);
     CHECK(rep.ok);
     CHECK(rep.checks > 0);
@@ -82,7 +83,7 @@ std::vector<group> all_variants(const C& c, bool co = false, bool reduced = fals
     const auto h1 = run(markowitz_only());
     INFO("default: ", show(g0), " markowitz only: ", show(groups_of(h1)));
     CHECK(groups_of(h1) == g0);
-    const auto rep = lacuna::verify_generators(c, h1);
+    const auto rep = lacuna::verify_generators(c, h1, {.dense_cell_limit = dense_limit});
     INFO("markowitz only: ", rep.first_failure);
     CHECK(rep.ok);
   }
@@ -90,7 +91,7 @@ std::vector<group> all_variants(const C& c, bool co = false, bool reduced = fals
     const auto h2 = run(lacuna::dense_elimination{});
     INFO("default: ", show(g0), " dense: ", show(groups_of(h2)));
     CHECK(groups_of(h2) == g0);
-    const auto rep = lacuna::verify_generators(c, h2);
+    const auto rep = lacuna::verify_generators(c, h2, {.dense_cell_limit = dense_limit});
     INFO("dense: ", rep.first_failure);
     CHECK(rep.ok);
   }

@@ -54,7 +54,7 @@ struct verification_report {
 struct verify_options {
   /// Cross-check against a dense_elimination result when the complex has at most this many
   /// cells (0: never).
-  std::size_t dense_cell_limit = 4000;
+  std::size_t dense_cell_limit = 2000;
 };
 
 namespace detail {
