@@ -122,15 +122,31 @@ class unit_eliminator {
       for (int L = 0; L < nl; ++L)
         for (std::uint32_t i = 0; i < rc_.size(L); ++i)
           if (rc_.cell_state(L, i) == st::critical) rc_.cell_state(L, i) = st::active;
+      rebuild_cofaces();
       for (int L = 0; L < nl; ++L)
         for (std::uint32_t i = 0; i < rc_.size(L); ++i)
           if (rc_.alive(L, i)) recount(L, i), consider(L, i);
       loop(false);
     }
+    rebuild_cofaces();
     return stats_;
   }
 
  private:
+  // Coface lists are kept for active cells only while eliminating (a critical cell is never
+  // a pivot, and a set-aside vertex would otherwise collect every edge of a coreduction
+  // front). The reduced complex gets exact lists for all surviving cells here.
+  void rebuild_cofaces() {
+    for (int L = 0; L < rc_.levels(); ++L)
+      for (std::uint32_t i = 0; i < rc_.size(L); ++i)
+        if (rc_.alive(L, i)) rc_.cofaces(L, i).clear();
+    for (int L = 1; L < rc_.levels(); ++L)
+      for (std::uint32_t i = 0; i < rc_.size(L); ++i)
+        if (rc_.alive(L, i))
+          for (const auto& e : rc_.boundary(L, i)) rc_.cofaces(L - 1, e.index).push_back(i);
+  }
+  bool critical(int L, std::uint32_t i) const { return rc_.cell_state(L, i) == st::critical; }
+
   void recount(int L, std::uint32_t i) {
     std::uint32_t n = 0;
     if (L > 0)
@@ -201,6 +217,7 @@ class unit_eliminator {
             --active_count_[L + 1][x];
             consider(L + 1, x);
           }
+        std::vector<std::uint32_t>().swap(rc_.cofaces(L, s));
         return true;
       }
     }
@@ -296,7 +313,7 @@ class unit_eliminator {
     if (log_) step->affected_end = log_->affected.size();
     // a leaves the coface lists of its other faces.
     for (const auto& e : da) {
-      if (e.index == b) continue;
+      if (e.index == b || critical(L - 1, e.index)) continue;
       auto& cz = rc_.cofaces(L - 1, e.index);
       remove_index(cz, a);
       if (cz.size() == 1) consider(L - 1, e.index);
@@ -304,6 +321,7 @@ class unit_eliminator {
     // b leaves the coface lists of its faces.
     if (L - 1 > 0)
       for (const auto& e : rc_.boundary(L - 1, b)) {
+        if (critical(L - 2, e.index)) continue;
         auto& cu = rc_.cofaces(L - 2, e.index);
         remove_index(cu, b);
         if (cu.size() == 1) consider(L - 2, e.index);
@@ -339,8 +357,10 @@ class unit_eliminator {
         R v = -(q * da[j].value);
         if (!(v == zero<R>())) {
           scratch_.push_back({z, v});
-          rc_.cofaces(L - 1, z).push_back(y);
-          if (rc_.cell_state(L - 1, z) == st::active) ++cnt;
+          if (rc_.cell_state(L - 1, z) == st::active) {
+            rc_.cofaces(L - 1, z).push_back(y);
+            ++cnt;
+          }
         }
         ++j;
       } else {
@@ -350,7 +370,7 @@ class unit_eliminator {
         if (!(v == zero<R>())) {
           scratch_.push_back({z, v});
         } else {
-          if (z != b) remove_index(rc_.cofaces(L - 1, z), y);
+          if (z != b && !critical(L - 1, z)) remove_index(rc_.cofaces(L - 1, z), y);
           if (was_active) --cnt;
         }
         ++i, ++j;
