@@ -4,6 +4,10 @@
 
 #include <doctest/doctest.h>
 
+#include <fstream>
+#include <iterator>
+#include <random>
+
 #include <sstream>
 #include <string>
 
@@ -108,4 +112,45 @@ TEST_CASE("OFF: a hostile header on a stream that cannot tell its size") {
   std::istream in(&buf);
   expect_parse_error([&] { (void)lacuna::io::read_off(in, "pipe", {.max_cells = std::uint64_t{1} << 40}); }, 3,
                      "the file ends after 1 of 100000000 vertices");
+}
+
+namespace {
+// Random damage to a valid input: flipped bytes, a cut, an inserted or deleted run (fixed seed).
+std::string mutate(const std::string& s, std::mt19937& rng) {
+  std::string t = s;
+  const int kind = static_cast<int>(rng() % 4);
+  if (t.empty()) return "\x01";
+  const std::size_t at = rng() % t.size();
+  if (kind == 0) {
+    for (int i = 0; i < 1 + static_cast<int>(rng() % 4); ++i) t[rng() % t.size()] = static_cast<char>(rng() % 256);
+  } else if (kind == 1) {
+    t.resize(at);
+  } else if (kind == 2) {
+    const char* pieces[] = {"9", "99999999999999999999", "-1", " ", "\n", "#", "0", "4294967296", "\n\n", "x"};
+    t.insert(at, pieces[rng() % 10]);
+  } else {
+    t.erase(at, 1 + rng() % 8);
+  }
+  return t;
+}
+}  // namespace
+
+TEST_CASE("OFF: damaged inputs give a result or a parse_error, nothing else") {
+  std::mt19937 rng(2024);
+  for (const std::string& path : {data + "cube.off", data + "book.off"}) {
+    std::ifstream f(path, std::ios::binary);
+    const std::string original((std::istreambuf_iterator<char>(f)), std::istreambuf_iterator<char>());
+    REQUIRE(!original.empty());
+    std::size_t errors = 0;
+    for (int round = 0; round < 400; ++round) {
+      std::istringstream in(mutate(original, rng));
+      try {
+        (void)lacuna::io::read_off(in, "mutant.off");
+      } catch (const lacuna::parse_error& e) {
+        ++errors;
+        CHECK(std::string(e.what()).rfind("mutant.", 0) == 0);  // always names the input
+      }  // any other exception, a crash or a hang fails the test
+    }
+    CHECK(errors > 0);  // the damage is noticed at least sometimes
+  }
 }

@@ -88,7 +88,7 @@ class nrrd_reader {
         fail(line_, "the header does not end with an empty line (the file ends in the header)");
       const std::size_t ln = line_;
       std::string_view l = trim(line);
-      if (line.empty() || (line.size() == 1 && line[0] == '\r')) break;
+      if (line.empty()) break;
       if (l.empty() || l.front() == '#') continue;
       const auto colon = l.find(':');
       if (colon == std::string_view::npos) fail(ln, "expected 'field: value', found " + quote_token(l));
@@ -210,6 +210,7 @@ class nrrd_reader {
       if (line.size() >= 65536) fail(line_, "header line longer than 65536 bytes");
       line.push_back(static_cast<char>(c));
     }
+    if (!line.empty() && line.back() == '\r') line.pop_back();  // CRLF headers
     return true;
   }
 
