@@ -109,7 +109,7 @@ coefficient_report check_universal_coefficients(const C& c, const Algorithm& alg
     rep.identities.push_back({"rank H^" + N + "(X; Z) = rank H_" + N, std::to_string(hz[n].rank),
                               std::to_string(co[n].rank), hz[n].rank == co[n].rank});
     const std::vector<integer> predicted = n > 0 ? hz[n - 1].torsion : std::vector<integer>{};
-    rep.identities.push_back({"torsion H^" + N + "(X; Z) = torsion H_" + std::to_string(n - 1),
+    rep.identities.push_back({"torsion H^" + N + "(X; Z) = " + (n > 0 ? "torsion H_" + std::to_string(n - 1) : "0"),
                               detail::torsion_text(predicted), detail::torsion_text(co[n].torsion),
                               predicted == co[n].torsion});
   }
