@@ -321,9 +321,9 @@ void run_homology(const run_options& o) {
   if (o.threshold && ext != ".pbm" && ext != ".pgm" && ext != ".nrrd")
     throw usage_error("lacuna: --threshold applies to images and volumes (.pbm, .pgm, .nrrd), not to " + o.file);
   if (ext == ".facets") {
-    compute_and_report(lacuna::read_facets(std::filesystem::path(o.file), {.max_cells = o.max_cells}), o, progress);
+    compute_and_report(lacuna::io::read_facets(std::filesystem::path(o.file), {.max_cells = o.max_cells}), o, progress);
   } else if (ext == ".cells") {
-    compute_and_report(lacuna::read_cells(std::filesystem::path(o.file), {.max_cells = o.max_cells}), o, progress);
+    compute_and_report(lacuna::io::read_cells(std::filesystem::path(o.file), {.max_cells = o.max_cells}), o, progress);
   } else if (ext == ".off") {
     compute_and_report(lacuna::io::read_off(std::filesystem::path(o.file), limits), o, progress);
   } else if (ext == ".obj") {

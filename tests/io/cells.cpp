@@ -20,11 +20,11 @@
 using test_support::counts;
 
 namespace {
-lacuna::cell_list parse(const std::string& text, lacuna::cells_read_options o = {}) {
+lacuna::cell_list parse(const std::string& text, lacuna::io::cells_read_options o = {}) {
   std::istringstream in(text);
-  return lacuna::read_cells(in, "test.cells", o);
+  return lacuna::io::read_cells(in, "test.cells", o);
 }
-std::string error_of(const std::string& text, lacuna::cells_read_options o = {}) {
+std::string error_of(const std::string& text, lacuna::io::cells_read_options o = {}) {
   try {
     parse(text, o);
   } catch (const lacuna::parse_error& e) {
@@ -118,7 +118,7 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
     CAPTURE(e.file);
     const std::string path = std::string(LACUNA_TEST_DATA_DIR) + "/complex/" + e.file;
     try {
-      lacuna::read_cells(std::filesystem::path(path));
+      lacuna::io::read_cells(std::filesystem::path(path));
       FAIL("must throw");
     } catch (const lacuna::parse_error& x) {
       CHECK(x.file() == path);
@@ -135,7 +135,7 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
   CHECK(error_of("0 p q\n") == "test.cells:1: unexpected 'q' after the 0-cell 'p'");
   CHECK(error_of("0 p\n1 q : 2 * * p\n") == "test.cells:2: expected a cell name in the boundary of 'q', found '*'");
   const std::string missing = std::string(LACUNA_TEST_DATA_DIR) + "/complex/no_such_file.cells";
-  CHECK_THROWS_WITH_AS(lacuna::read_cells(std::filesystem::path(missing)), (missing + ": cannot open the file").c_str(),
+  CHECK_THROWS_WITH_AS(lacuna::io::read_cells(std::filesystem::path(missing)), (missing + ": cannot open the file").c_str(),
                        lacuna::parse_error);
 }
 
@@ -151,22 +151,22 @@ TEST_CASE("round trips: the standard complexes, a product, simplicial complexes"
                         cell_list::projective_plane(), cell_list::real_projective_space(6),
                         cell_list::lens_space(7, 3), cell_list::sphere(4), cell_list::sphere(0)}) {
     std::ostringstream out;
-    lacuna::write_cells(out, c);
+    lacuna::io::write_cells(out, c);
     CHECK(parse(out.str()) == c);  // names and boundaries kept
   }
   std::ostringstream t;
-  lacuna::write_cells(t, cell_list::torus());
+  lacuna::io::write_cells(t, cell_list::torus());
   CHECK(t.str() == "0 v\n1 a : 0\n1 b : 0\n1 c : 0\n2 U : a + b - c\n2 L : a + b - c\n");
   // names that are not NAMEs: "a×b" becomes "a_b", the original kept in a comment
   const auto p = lacuna::product(cell_list::klein_bottle(), cell_list::projective_plane());
   std::ostringstream out;
-  lacuna::write_cells(out, p);
+  lacuna::io::write_cells(out, p);
   CHECK(out.str().find("2 U_v : a_v + b_v - c_v  # U×v\n") != std::string::npos);
   CHECK(same_boundaries(p, parse(out.str())));
   for (unsigned seed = 1; seed <= 10; ++seed) {
     const auto s = test_support::random_simplicial(seed, 8, 6, 4);  // names "0 1 2": rewritten
     std::ostringstream o;
-    lacuna::write_cells(o, s);
+    lacuna::io::write_cells(o, s);
     const auto back = parse(o.str());
     CHECK(same_boundaries(s, back));
     lacuna::validate(back);

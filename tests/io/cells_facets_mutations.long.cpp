@@ -56,9 +56,9 @@ TEST_CASE("mutated inputs give a valid complex or a parse_error with the file na
       std::istringstream in(mutate(text, rng));
       try {
         if (ext == ".cells")
-          lacuna::validate(lacuna::read_cells(in, "m.cells", {.max_cells = 1000}));
+          lacuna::validate(lacuna::io::read_cells(in, "m.cells", {.max_cells = 1000}));
         else
-          lacuna::validate(lacuna::read_facets(in, "m.facets", {.max_cells = 100000}));
+          lacuna::validate(lacuna::io::read_facets(in, "m.facets", {.max_cells = 100000}));
         ++ok;
       } catch (const lacuna::parse_error& e) {
         CHECK(std::string(e.what()).rfind("m.", 0) == 0);

@@ -15,11 +15,11 @@
 using test_support::counts;
 
 namespace {
-lacuna::simplicial_complex<std::string> parse(const std::string& text, lacuna::facets_read_options o = {}) {
+lacuna::simplicial_complex<std::string> parse(const std::string& text, lacuna::io::facets_read_options o = {}) {
   std::istringstream in(text);
-  return lacuna::read_facets(in, "test.facets", o);
+  return lacuna::io::read_facets(in, "test.facets", o);
 }
-std::string error_of(const std::string& text, lacuna::facets_read_options o = {}) {
+std::string error_of(const std::string& text, lacuna::io::facets_read_options o = {}) {
   try {
     parse(text, o);
   } catch (const lacuna::parse_error& e) {
@@ -72,7 +72,7 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
     CAPTURE(e.file);
     const std::string path = std::string(LACUNA_TEST_DATA_DIR) + "/complex/" + e.file;
     try {
-      lacuna::read_facets(std::filesystem::path(path));
+      lacuna::io::read_facets(std::filesystem::path(path));
       FAIL("must throw");
     } catch (const lacuna::parse_error& x) {
       CHECK(x.file() == path);
@@ -88,7 +88,7 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
   CHECK(error_of("a b c d\nd e f g\n", {.max_cells = 20}) == "test.facets: simplicial complex: more than 20 simplices");
   CHECK(error_of("a b c d\n", {.max_cells = 15}) == "no error");  // exactly at the limit
   const std::string missing = std::string(LACUNA_TEST_DATA_DIR) + "/complex/no_such_file.facets";
-  CHECK_THROWS_WITH_AS(lacuna::read_facets(std::filesystem::path(missing)), (missing + ": cannot open the file").c_str(),
+  CHECK_THROWS_WITH_AS(lacuna::io::read_facets(std::filesystem::path(missing)), (missing + ": cannot open the file").c_str(),
                        lacuna::parse_error);
 }
 
@@ -101,7 +101,7 @@ TEST_CASE("round trip: write then read gives the same complex (random, fixed see
     for (const auto& [k, i] : r.facets()) b.add_facet_ids(r.vertices(k, i));
     const auto c = std::move(b).finalize();
     std::ostringstream out;
-    lacuna::write_facets(out, c);
+    lacuna::io::write_facets(out, c);
     const auto back = parse(out.str());
     CHECK(back == c);
   }
@@ -111,7 +111,7 @@ TEST_CASE("round trip: write then read gives the same complex (random, fixed see
   b.add_facet({0, 2});
   const auto c = std::move(b).finalize();
   std::ostringstream out;
-  lacuna::write_facets(out, c);
+  lacuna::io::write_facets(out, c);
   CHECK(out.str() == "# 3 vertices, 2 facets\n0\n1\n0 2\n");
   const auto back = parse(out.str());
   CHECK(back.labels() == std::vector<std::string>{"0", "1", "2"});  // the numbering is kept
@@ -121,7 +121,7 @@ TEST_CASE("round trip: write then read gives the same complex (random, fixed see
 TEST_CASE("the writer refuses labels it cannot write") {
   const lacuna::simplicial_complex<std::string> c{{"a b", "c"}};
   std::ostringstream out;
-  CHECK_THROWS_WITH_AS(lacuna::write_facets(out, c),
+  CHECK_THROWS_WITH_AS(lacuna::io::write_facets(out, c),
                        "write_facets: the label of vertex 0 ('a b') is empty or holds whitespace or '#'",
                        lacuna::invalid_complex);
 }

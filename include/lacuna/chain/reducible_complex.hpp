@@ -193,6 +193,34 @@ class reducible_complex {
     return rc;
   }
 
+  /// A matrix as a complex of two levels: level 0 its rows, level 1 its columns, the
+  /// boundary of column j its entries. `convert` maps an entry to R (and may throw
+  /// coefficient_overflow). This is how the elimination of one matrix reuses the engine.
+  template <class Matrix, class Convert>
+  static reducible_complex from_matrix(const Matrix& m, Convert convert) {
+    reducible_complex rc;
+    rc.top_ = 1;
+    rc.bd_.resize(2);
+    rc.cob_.resize(2);
+    rc.state_.resize(2);
+    rc.to_original_.resize(2);
+    rc.from_original_.resize(2);
+    if (m.rows >= std::numeric_limits<std::uint32_t>::max() || m.cols >= std::numeric_limits<std::uint32_t>::max())
+      throw std::length_error("lacuna: a matrix side of 2^32 or more");
+    rc.bd_[0].resize(m.rows);
+    rc.cob_[0].resize(m.rows);
+    rc.state_[0].assign(m.rows, state::active);
+    rc.bd_[1].resize(m.cols);
+    rc.cob_[1].resize(m.cols);
+    rc.state_[1].assign(m.cols, state::active);
+    for (std::uint32_t j = 0; j < m.cols; ++j)
+      for (const auto& e : m.columns[j]) {
+        rc.bd_[1][j].push_back({e.index, convert(e.value)});
+        rc.cob_[0][e.index].push_back(j);
+      }
+    return rc;
+  }
+
  private:
   int top_ = -1, offset_ = 0;
   bool dual_ = false;

@@ -16,6 +16,7 @@
 
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
@@ -35,17 +36,13 @@
 
 namespace lacuna {
 
-// ---- variants (policy values) -----------------------------------------------------------
-
-/// The default: sparse elimination of unit pivots, then dense Smith forms of the core.
-struct sparse_elimination {
-  elimination_options elimination{};
-};
-/// The reference for small complexes: dense Smith forms of the whole boundary matrices.
-struct dense_elimination {};
-
+// ---- variants (policy values, from lacuna/algorithm/smith_normal_form.hpp) ---------------
+//   sparse_elimination{}  the default: unit pivots eliminated on the whole chain complex,
+//                         then dense Smith forms of the small core;
+//   dense_elimination{}   the reference for small complexes: dense Smith forms of the whole
+//                         boundary matrices.
 template <class P>
-concept homology_algorithm = std::same_as<P, sparse_elimination> || std::same_as<P, dense_elimination>;
+concept homology_algorithm = smith_algorithm<P>;
 
 /// Options of lacuna::homology and lacuna::cohomology.
 struct homology_options {

@@ -33,7 +33,7 @@
 #include <unordered_set>
 #include <vector>
 
-namespace lacuna {
+namespace lacuna::io {
 
 /// Limits a reader applies before it allocates.
 struct cells_read_options {
@@ -328,4 +328,4 @@ void write_cells(std::ostream& out, const C& c) {
     }
 }
 
-}  // namespace lacuna
+}  // namespace lacuna::io

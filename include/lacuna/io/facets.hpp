@@ -31,7 +31,7 @@
 #include <unordered_set>
 #include <vector>
 
-namespace lacuna {
+namespace lacuna::io {
 
 /// Limits a reader applies before it allocates.
 struct facets_read_options {
@@ -194,4 +194,4 @@ void write_facets(std::ostream& out, const simplicial_complex<Label>& c) {
   }
 }
 
-}  // namespace lacuna
+}  // namespace lacuna::io
