@@ -351,7 +351,8 @@ int main(int argc, char** argv) {
   hom->add_flag("--json", o.json, "one JSON object (shared/FORMATS.md)");
   hom->add_flag("--quiet", o.quiet, "no progress on stderr");
   hom->add_option("--threshold", o.threshold, "images and volumes: foreground is a value >= T");
-  hom->add_option("--max-cells", o.max_cells, "refuse inputs announcing more cells than this");
+  hom->add_option("--max-cells", o.max_cells, "refuse inputs announcing more cells than this")
+      ->check(CLI::NonNegativeNumber);  // CLI11 would read -1 as 2^64 - 1
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   try {
     try {
