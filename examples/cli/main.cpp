@@ -352,7 +352,9 @@ int main(int argc, char** argv) {
   hom->add_flag("--quiet", o.quiet, "no progress on stderr");
   hom->add_option("--threshold", o.threshold, "images and volumes: foreground is a value >= T");
   hom->add_option("--max-cells", o.max_cells, "refuse inputs announcing more cells than this")
-      ->check(CLI::NonNegativeNumber);  // CLI11 would read -1 as 2^64 - 1
+      ->check(CLI::Validator(  // CLI11 would read -1 as 2^64 - 1
+          [](std::string& v) { return v.find('-') == std::string::npos ? std::string() : "must not be negative"; },
+          "N"));
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   try {
     try {
