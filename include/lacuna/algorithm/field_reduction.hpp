@@ -289,9 +289,12 @@ class word_accumulator {
   bool active_ = false;
 };
 
-/// Default switch to the dense form: when the sparse merge would touch more entries than a
-/// word scan of the column's range costs, with a floor for small matrices.
-inline std::size_t automatic_threshold(std::size_t rows) { return std::max<std::size_t>(256, rows / 32); }
+/// Default switch to the dense form. Measured (docs/performance.md, bench_field_reduction
+/// *_threshold on d2 of the 256 x 256 torus): any value from 8 to 256 is within 5% of the
+/// best, and 20x faster than never switching; a bound that grew with the number of rows
+/// (rows / 32) left the long columns of large tori in the sparse merge, whose cost per
+/// addition is the length of the working column rather than that of the column added.
+inline std::size_t automatic_threshold(std::size_t /*rows*/) { return 128; }
 
 /// Per-matrix state shared by the reductions: pivot slot of each row, columns of V.
 template <class V>
