@@ -139,11 +139,11 @@ class unit_eliminator {
   void rebuild_cofaces() {
     for (int L = 0; L < rc_.levels(); ++L)
       for (std::uint32_t i = 0; i < rc_.size(L); ++i)
-        if (rc_.alive(L, i)) rc_.cofaces(L, i).clear();
+        if (rc_.alive(L, i)) rc_.clear_cofaces(L, i);
     for (int L = 1; L < rc_.levels(); ++L)
       for (std::uint32_t i = 0; i < rc_.size(L); ++i)
         if (rc_.alive(L, i))
-          for (const auto& e : rc_.boundary(L, i)) rc_.cofaces(L - 1, e.index).push_back(i);
+          for (const auto& e : rc_.boundary(L, i)) rc_.add_coface(L - 1, e.index, i);
   }
   bool critical(int L, std::uint32_t i) const { return rc_.cell_state(L, i) == st::critical; }
 
@@ -217,7 +217,7 @@ class unit_eliminator {
             --active_count_[L + 1][x];
             consider(L + 1, x);
           }
-        std::vector<std::uint32_t>().swap(rc_.cofaces(L, s));
+        rc_.release_cofaces(L, s);
         return true;
       }
     }
@@ -278,72 +278,63 @@ class unit_eliminator {
     return it != col.end() && it->index == b ? it->value : zero<R>();
   }
 
-  static void remove_index(std::vector<std::uint32_t>& v, std::uint32_t x) {
-    auto it = std::find(v.begin(), v.end(), x);
-    if (it != v.end()) {
-      *it = v.back();
-      v.pop_back();
-    }
-  }
-
   // Eliminates the pivot (a at level L, b at level L-1), c = <da, b>, inv = c^-1.
   void eliminate(int L, std::uint32_t a, std::uint32_t b, const R& c, const R& inv) {
-    auto& da = rc_.boundary(L, a);
-    elimination_step<R>* step = nullptr;
+    // Copies: the boundary and coface storage may move while other cells change.
+    const auto da_span = rc_.boundary(L, a);
+    pivot_.assign(da_span.begin(), da_span.end());
+    const auto yb = rc_.cofaces(L - 1, b);
+    ys_.assign(yb.begin(), yb.end());
+    rc_.release_cofaces(L - 1, b);
     if (log_) {
       log_->steps.push_back({L, a, b, c, inv, log_->affected.size(), 0, log_->pivot.size(), 0});
-      step = &log_->steps.back();
-      log_->pivot.insert(log_->pivot.end(), da.begin(), da.end());
-      step->pivot_end = log_->pivot.size();
+      log_->pivot.insert(log_->pivot.end(), pivot_.begin(), pivot_.end());
+      log_->steps.back().pivot_end = log_->pivot.size();
     }
-    // b leaves; its cofaces other than a absorb a multiple of da.
-    std::vector<std::uint32_t> ys = std::move(rc_.cofaces(L - 1, b));
-    rc_.cofaces(L - 1, b).clear();
     rc_.cell_state(L, a) = st::eliminated;  // a is no longer a candidate for anything
     rc_.cell_state(L - 1, b) = st::eliminated;
-    for (std::uint32_t y : ys) {
+    // b leaves; its cofaces other than a absorb a multiple of da.
+    for (std::uint32_t y : ys_) {
       if (y == a) continue;
-      auto& dy = rc_.boundary(L, y);
       const R w = coefficient(L, y, b);
       if (log_) log_->affected.push_back({y, w});
-      const R q = w * inv;
-      merge_subtract(L, y, dy, q, da, b);
+      merge_subtract(L, y, w * inv, b);
       consider(L, y);
     }
-    if (log_) step->affected_end = log_->affected.size();
+    if (log_) log_->steps.back().affected_end = log_->affected.size();
     // a leaves the coface lists of its other faces.
-    for (const auto& e : da) {
+    for (const auto& e : pivot_) {
       if (e.index == b || critical(L - 1, e.index)) continue;
-      auto& cz = rc_.cofaces(L - 1, e.index);
-      remove_index(cz, a);
-      if (cz.size() == 1) consider(L - 1, e.index);
+      rc_.remove_coface(L - 1, e.index, a);
+      if (rc_.cofaces(L - 1, e.index).size() == 1) consider(L - 1, e.index);
     }
     // b leaves the coface lists of its faces.
     if (L - 1 > 0)
       for (const auto& e : rc_.boundary(L - 1, b)) {
         if (critical(L - 2, e.index)) continue;
-        auto& cu = rc_.cofaces(L - 2, e.index);
-        remove_index(cu, b);
-        if (cu.size() == 1) consider(L - 2, e.index);
+        rc_.remove_coface(L - 2, e.index, b);
+        if (rc_.cofaces(L - 2, e.index).size() == 1) consider(L - 2, e.index);
       }
     // The cofaces of a lose a.
     if (L + 1 < rc_.levels()) {
-      for (std::uint32_t x : rc_.cofaces(L, a)) {
-        auto& dx = rc_.boundary(L + 1, x);
-        auto it = std::lower_bound(dx.begin(), dx.end(), a, [](const auto& e, std::uint32_t v) { return e.index < v; });
-        if (it != dx.end() && it->index == a) dx.erase(it);
+      const auto xa = rc_.cofaces(L, a);
+      xs_.assign(xa.begin(), xa.end());
+      for (std::uint32_t x : xs_) {
+        rc_.erase_face(L + 1, x, a);
         --active_count_[L + 1][x];  // a was active when it was chosen
         consider(L + 1, x);
       }
     }
-    std::vector<sparse_entry<R>>().swap(da);
-    std::vector<sparse_entry<R>>().swap(rc_.boundary(L - 1, b));
-    std::vector<std::uint32_t>().swap(rc_.cofaces(L, a));
+    rc_.release_boundary(L, a);
+    rc_.release_boundary(L - 1, b);
+    rc_.release_cofaces(L, a);
   }
 
-  // dy <- dy - q * da, with b dropping out; keeps coface lists and active counts exact.
-  void merge_subtract(int L, std::uint32_t y, std::vector<sparse_entry<R>>& dy, const R& q,
-                      const std::vector<sparse_entry<R>>& da, std::uint32_t b) {
+  // dy <- dy - q * da (da in pivot_), with b dropping out; keeps coface lists of active
+  // faces and active counts exact.
+  void merge_subtract(int L, std::uint32_t y, const R& q, std::uint32_t b) {
+    const auto dy = rc_.boundary(L, y);
+    const auto& da = pivot_;
     scratch_.clear();
     scratch_.reserve(dy.size() + da.size());
     std::size_t i = 0, j = 0;
@@ -358,7 +349,7 @@ class unit_eliminator {
         if (!(v == zero<R>())) {
           scratch_.push_back({z, v});
           if (rc_.cell_state(L - 1, z) == st::active) {
-            rc_.cofaces(L - 1, z).push_back(y);
+            rc_.add_coface(L - 1, z, y);
             ++cnt;
           }
         }
@@ -370,14 +361,13 @@ class unit_eliminator {
         if (!(v == zero<R>())) {
           scratch_.push_back({z, v});
         } else {
-          if (z != b && !critical(L - 1, z)) remove_index(rc_.cofaces(L - 1, z), y);
+          if (z != b && !critical(L - 1, z)) rc_.remove_coface(L - 1, z, y);
           if (was_active) --cnt;
         }
         ++i, ++j;
       }
     }
-    dy.swap(scratch_);
-    if (dy.capacity() > 2 * dy.size() + 8) dy.shrink_to_fit();
+    rc_.set_boundary(L, y, scratch_);
   }
 
   reducible_complex<R>& rc_;
@@ -388,7 +378,8 @@ class unit_eliminator {
   std::vector<std::vector<std::uint32_t>> empty_;
   std::vector<std::pair<int, std::uint32_t>> queue_;
   std::size_t head_ = 0;
-  std::vector<sparse_entry<R>> scratch_;
+  std::vector<sparse_entry<R>> scratch_, pivot_;
+  std::vector<std::uint32_t> ys_, xs_;
 };
 
 }  // namespace detail

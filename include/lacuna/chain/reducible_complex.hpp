@@ -16,6 +16,7 @@
 // dimension top - L, and the boundary of a cell is its coboundary.
 #pragma once
 
+#include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/ring/concepts.hpp>
@@ -23,6 +24,7 @@
 #include <algorithm>
 #include <cstdint>
 #include <limits>
+#include <span>
 #include <stdexcept>
 #include <string>
 #include <vector>
@@ -50,6 +52,7 @@ template <class R>
 class reducible_complex {
  public:
   enum class state : std::uint8_t { active, eliminated, critical };
+  using entry = sparse_entry<R>;
 
   /// Levels 0..levels()-1.
   int levels() const { return static_cast<int>(bd_.size()); }
@@ -58,15 +61,39 @@ class reducible_complex {
   /// The level of a dimension (may be outside 0..levels()-1).
   int level_of_dimension(int dim) const { return dual_ ? top_ - dim : dim - offset_; }
   bool is_dual() const { return dual_; }
-  std::size_t size(int level) const { return bd_[level].size(); }
+  std::size_t size(int level) const { return state_[level].size(); }
 
-  std::vector<sparse_entry<R>>& boundary(int level, std::uint32_t i) { return bd_[level][i]; }
-  const std::vector<sparse_entry<R>>& boundary(int level, std::uint32_t i) const { return bd_[level][i]; }
-  std::vector<std::uint32_t>& cofaces(int level, std::uint32_t i) { return cob_[level][i]; }
-  const std::vector<std::uint32_t>& cofaces(int level, std::uint32_t i) const { return cob_[level][i]; }
+  /// The boundary of a cell, sorted by face. Valid until the next change of a boundary.
+  std::span<const entry> boundary(int level, std::uint32_t i) const { return bd_[level][i]; }
+  /// The cofaces of a cell, in no order. Valid until the next change of a coface list.
+  std::span<const std::uint32_t> cofaces(int level, std::uint32_t i) const { return cob_[level][i]; }
   state& cell_state(int level, std::uint32_t i) { return state_[level][i]; }
   state cell_state(int level, std::uint32_t i) const { return state_[level][i]; }
   bool alive(int level, std::uint32_t i) const { return state_[level][i] != state::eliminated; }
+
+  // ---- changes (for reductions) ----
+  void set_boundary(int level, std::uint32_t i, std::span<const entry> b) { bd_[level].assign(i, b); }
+  /// Removes the term of a face from a boundary, if present.
+  void erase_face(int level, std::uint32_t i, std::uint32_t face) {
+    auto b = bd_[level][i];
+    auto it = std::lower_bound(b.begin(), b.end(), face, [](const entry& e, std::uint32_t f) { return e.index < f; });
+    if (it != b.end() && it->index == face) bd_[level].erase_at(i, static_cast<std::size_t>(it - b.begin()));
+  }
+  void release_boundary(int level, std::uint32_t i) { bd_[level].release(i); }
+  void add_coface(int level, std::uint32_t i, std::uint32_t coface) { cob_[level].push_back(i, coface); }
+  /// Removes a coface from a coface list, if present.
+  void remove_coface(int level, std::uint32_t i, std::uint32_t coface) {
+    auto c = cob_[level][i];
+    auto it = std::find(c.begin(), c.end(), coface);
+    if (it != c.end()) cob_[level].swap_remove(i, static_cast<std::size_t>(it - c.begin()));
+  }
+  void clear_cofaces(int level, std::uint32_t i) { cob_[level].clear(i); }
+  void release_cofaces(int level, std::uint32_t i) { cob_[level].release(i); }
+  std::size_t memory_bytes() const {
+    std::size_t n = 0;
+    for (int L = 0; L < levels(); ++L) n += bd_[L].memory_bytes() + cob_[L].memory_bytes() + state_[L].capacity();
+    return n;
+  }
 
   /// Maps an original cell index to this complex (identity unless cells were excluded) and back.
   std::uint32_t original_index(int level, std::uint32_t i) const {
@@ -85,18 +112,14 @@ class reducible_complex {
   /// (mod_p_dynamic: pass a bound one, mod_p_dynamic(1, p)).
   template <cell_complex C>
   static reducible_complex build(const C& c, reducible_build_options opt = {}, const R& unit = one<R>()) {
+    if (opt.dual && opt.augmented) throw std::invalid_argument("reducible_complex: dual and augmented together");
     reducible_complex rc;
     const int top = lacuna::top_dimension(c);
     rc.top_ = top;
     rc.dual_ = opt.dual;
     rc.offset_ = opt.augmented ? -1 : 0;
     const int nlev = top < 0 ? (opt.augmented ? 1 : 0) : top + 1 + (opt.augmented ? 1 : 0);
-    rc.bd_.resize(nlev);
-    rc.cob_.resize(nlev);
-    rc.state_.resize(nlev);
-    rc.to_original_.resize(nlev);
-    rc.from_original_.resize(nlev);
-    if (opt.dual && opt.augmented) throw std::invalid_argument("reducible_complex: dual and augmented together");
+    rc.resize_levels(nlev);
 
     // Per dimension: which cells are kept, and their local indices.
     std::vector<std::vector<std::int64_t>> local(top + 1);
@@ -118,8 +141,6 @@ class reducible_complex {
     auto lvl = [&](int dim) { return rc.level_of_dimension(dim); };
     for (int k = 0; k <= top; ++k) {
       const int L = lvl(k);
-      rc.bd_[L].resize(kept[k]);
-      rc.cob_[L].resize(kept[k]);
       rc.state_[L].assign(kept[k], state::active);
       if (!local[k].empty()) {
         rc.from_original_[L] = local[k];
@@ -128,18 +149,21 @@ class reducible_complex {
           if (local[k][i] >= 0) rc.to_original_[L][static_cast<std::size_t>(local[k][i])] = static_cast<std::uint32_t>(i);
       }
     }
-    if (opt.augmented) {
-      rc.bd_[0].resize(1);
-      rc.cob_[0].resize(1);
-      rc.state_[0].assign(1, state::active);
-    }
-    // Boundaries (or coboundaries, when dual) from the complex's incidences.
+    if (opt.augmented) rc.state_[0].assign(1, state::active);
+
+    // For each k >= 1, the k-th boundary in CSR (columns: k-cells), then its transpose.
+    std::vector<std::vector<entry>> down_data(top + 1);
+    std::vector<std::vector<std::uint64_t>> down_off(top + 1);
     std::vector<sparse_entry<std::int64_t>> scratch;
     for (int k = 1; k <= top; ++k) {
       const std::size_t n = lacuna::cell_count(c, k);
       const std::size_t nf = lacuna::cell_count(c, k - 1);
+      auto& data = down_data[k];
+      auto& off = down_off[k];
+      off.reserve(kept[k] + 1);
+      off.push_back(0);
       for (std::size_t i = 0; i < n; ++i) {
-        std::int64_t li = local[k].empty() ? static_cast<std::int64_t>(i) : local[k][i];
+        const std::int64_t li = local[k].empty() ? static_cast<std::int64_t>(i) : local[k][i];
         if (li < 0) continue;
         scratch.clear();
         for (auto&& v : lacuna::boundary(c, k, i)) {
@@ -149,12 +173,11 @@ class reducible_complex {
                                       "): face index " + std::to_string(inc.face) + " is out of range (" +
                                       std::to_string(nf) + " cells of dimension " + std::to_string(k - 1) + ")",
                                   k, i);
-          std::int64_t lf = local[k - 1].empty() ? static_cast<std::int64_t>(inc.face) : local[k - 1][inc.face];
+          const std::int64_t lf = local[k - 1].empty() ? static_cast<std::int64_t>(inc.face) : local[k - 1][inc.face];
           if (lf < 0 || inc.coefficient == 0) continue;
           scratch.push_back({static_cast<std::uint32_t>(lf), inc.coefficient});
         }
         std::sort(scratch.begin(), scratch.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
-        const auto cell = static_cast<std::uint32_t>(li);
         // Add up repeated faces; an overflowing sum is an error, never a silent wrap.
         for (std::size_t s = 0; s < scratch.size();) {
           std::size_t t = s;
@@ -162,32 +185,70 @@ class reducible_complex {
           for (; t < scratch.size() && scratch[t].index == scratch[s].index; ++t)
             if (__builtin_add_overflow(sum, scratch[t].value, &sum))
               throw invalid_complex("cell '" + lacuna::cell_name(c, k, i) + "' (dimension " + std::to_string(k) +
-                                      "): its incidence numbers overflow 64 bits", k, i);
+                                        "): its incidence numbers overflow 64 bits",
+                                    k, i);
           if (sum != 0) {
-            const R val = from_integer<R>(sum) * unit;
-            if (!(val == zero<R>())) {
-              if (!opt.dual) {
-                rc.bd_[lvl(k)][cell].push_back({scratch[s].index, val});
-                rc.cob_[lvl(k - 1)][scratch[s].index].push_back(cell);
-              } else {  // the coboundary of the face gains this cell
-                rc.bd_[lvl(k - 1)][scratch[s].index].push_back({cell, val});
-                rc.cob_[lvl(k)][cell].push_back(scratch[s].index);
-              }
-            }
+            R val = from_integer<R>(sum) * unit;
+            if (!(val == zero<R>())) data.push_back({scratch[s].index, std::move(val)});
           }
           s = t;
         }
+        off.push_back(data.size());
       }
     }
-    if (opt.dual) {  // coboundaries were appended in cell order: already sorted by index
-      for (auto& level : rc.bd_)
-        for (auto& col : level) col.shrink_to_fit();
+    for (int k = 0; k <= top; ++k) {
+      // The transpose of the (k+1)-th boundary: for each k-cell, its cofaces with values.
+      const std::size_t nk = kept[k];
+      std::vector<std::uint64_t> up_off(nk + 1, 0);
+      std::vector<entry> up_data;
+      if (k + 1 <= top) {
+        for (const auto& e : down_data[k + 1]) ++up_off[e.index + 1];
+        for (std::size_t i = 0; i < nk; ++i) up_off[i + 1] += up_off[i];
+        up_data.resize(down_data[k + 1].size(), entry{0, zero<R>()});
+        std::vector<std::uint64_t> fill(up_off.begin(), up_off.end() - 1);
+        const auto& off = down_off[k + 1];
+        for (std::size_t j = 0; j + 1 < off.size(); ++j)
+          for (std::uint64_t t = off[j]; t < off[j + 1]; ++t) {
+            const auto& e = down_data[k + 1][t];
+            up_data[fill[e.index]++] = {static_cast<std::uint32_t>(j), e.value};
+          }
+      }
+      const int L = lvl(k);
+      if (!opt.dual) {
+        // boundary(level k) = down_data[k]; cofaces(level k) = indices of up_data
+        if (k >= 1)
+          rc.bd_[L] = slotted_lists<entry>(std::move(down_data[k]), down_off[k]);
+        else
+          rc.bd_[L] = slotted_lists<entry>(nk);
+        std::vector<std::uint32_t> idx(up_data.size());
+        for (std::size_t t = 0; t < up_data.size(); ++t) idx[t] = up_data[t].index;
+        rc.cob_[L] = slotted_lists<std::uint32_t>(std::move(idx), up_off);
+      } else {
+        // dual: boundary(level of k) = coboundary (up_data); cofaces = faces (down indices)
+        rc.bd_[L] = slotted_lists<entry>(std::move(up_data), up_off);
+        if (k >= 1) {
+          std::vector<std::uint32_t> idx(down_data[k].size());
+          for (std::size_t t = 0; t < down_data[k].size(); ++t) idx[t] = down_data[k][t].index;
+          rc.cob_[L] = slotted_lists<std::uint32_t>(std::move(idx), down_off[k]);
+          std::vector<entry>().swap(down_data[k]);
+        } else {
+          rc.cob_[L] = slotted_lists<std::uint32_t>(nk);
+        }
+      }
     }
-    if (opt.augmented && top >= 0) {  // the empty cell is the common face of all vertices
-      const int L0 = lvl(0);
-      for (std::uint32_t v = 0; v < rc.bd_[L0].size(); ++v) {
-        rc.bd_[L0][v].push_back({0, unit});
-        rc.cob_[0][0].push_back(v);
+    if (opt.augmented) {  // the empty cell is the common face of all vertices
+      rc.bd_[0] = slotted_lists<entry>(1);
+      rc.cob_[0] = slotted_lists<std::uint32_t>(1);
+      if (top >= 0) {
+        const int L0 = lvl(0);
+        const std::size_t nv = rc.size(L0);
+        for (std::uint32_t v = 0; v < nv; ++v) {
+          const entry e{0, unit};
+          std::vector<entry> b(rc.bd_[L0][v].begin(), rc.bd_[L0][v].end());
+          b.insert(b.begin(), e);
+          rc.bd_[L0].assign(v, b);
+          rc.cob_[0].push_back(0, v);
+        }
       }
     }
     return rc;
@@ -198,34 +259,47 @@ class reducible_complex {
   /// coefficient_overflow). This is how the elimination of one matrix reuses the engine.
   template <class Matrix, class Convert>
   static reducible_complex from_matrix(const Matrix& m, Convert convert) {
-    reducible_complex rc;
-    rc.top_ = 1;
-    rc.bd_.resize(2);
-    rc.cob_.resize(2);
-    rc.state_.resize(2);
-    rc.to_original_.resize(2);
-    rc.from_original_.resize(2);
     if (m.rows >= std::numeric_limits<std::uint32_t>::max() || m.cols >= std::numeric_limits<std::uint32_t>::max())
       throw std::length_error("lacuna: a matrix side of 2^32 or more");
-    rc.bd_[0].resize(m.rows);
-    rc.cob_[0].resize(m.rows);
+    reducible_complex rc;
+    rc.top_ = 1;
+    rc.resize_levels(2);
     rc.state_[0].assign(m.rows, state::active);
-    rc.bd_[1].resize(m.cols);
-    rc.cob_[1].resize(m.cols);
     rc.state_[1].assign(m.cols, state::active);
-    for (std::uint32_t j = 0; j < m.cols; ++j)
+    std::vector<entry> data;
+    std::vector<std::uint64_t> off{0};
+    std::vector<std::uint64_t> up_off(m.rows + 1, 0);
+    for (std::uint32_t j = 0; j < m.cols; ++j) {
       for (const auto& e : m.columns[j]) {
-        rc.bd_[1][j].push_back({e.index, convert(e.value)});
-        rc.cob_[0][e.index].push_back(j);
+        data.push_back({e.index, convert(e.value)});
+        ++up_off[e.index + 1];
       }
+      off.push_back(data.size());
+    }
+    for (std::size_t i = 0; i < m.rows; ++i) up_off[i + 1] += up_off[i];
+    std::vector<std::uint32_t> idx(data.size());
+    std::vector<std::uint64_t> fill(up_off.begin(), up_off.end() - 1);
+    for (std::uint32_t j = 0; j < m.cols; ++j)
+      for (std::uint64_t t = off[j]; t < off[j + 1]; ++t) idx[fill[data[t].index]++] = j;
+    rc.bd_[0] = slotted_lists<entry>(m.rows);
+    rc.bd_[1] = slotted_lists<entry>(std::move(data), off);
+    rc.cob_[0] = slotted_lists<std::uint32_t>(std::move(idx), up_off);
+    rc.cob_[1] = slotted_lists<std::uint32_t>(m.cols);
     return rc;
   }
 
  private:
+  void resize_levels(int n) {
+    bd_.resize(n);
+    cob_.resize(n);
+    state_.resize(n);
+    to_original_.resize(n);
+    from_original_.resize(n);
+  }
   int top_ = -1, offset_ = 0;
   bool dual_ = false;
-  std::vector<std::vector<std::vector<sparse_entry<R>>>> bd_;
-  std::vector<std::vector<std::vector<std::uint32_t>>> cob_;
+  std::vector<slotted_lists<entry>> bd_;
+  std::vector<slotted_lists<std::uint32_t>> cob_;
   std::vector<std::vector<state>> state_;
   std::vector<std::vector<std::uint32_t>> to_original_;
   std::vector<std::vector<std::int64_t>> from_original_;

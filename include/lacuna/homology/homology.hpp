@@ -32,6 +32,7 @@
 #include <stdexcept>
 #include <string>
 #include <type_traits>
+#include <unordered_map>
 #include <vector>
 
 namespace lacuna {
@@ -310,7 +311,9 @@ class homology_result {
 
   /// The class of a k-cycle of the original complex in the basis of generators: first the
   /// rank free coordinates, then one residue per torsion factor (canonical: in 0..t-1 over
-  /// the integers). Throws std::invalid_argument if the chain is not a cycle.
+  /// the integers). Precondition: the chain is a cycle (a cocycle, for cohomology); the
+  /// overload taking the complex checks it. Without the complex, a non-cycle is caught only
+  /// when its image on the reduced complex is not a cycle (std::invalid_argument).
   /// Cost: one pass over the elimination log, and dense products on the core.
   std::vector<R> coordinates(const chain<R>& cycle) const {
     if (!basis_) throw std::logic_error("lacuna: homology computed without keep_basis or generators");
@@ -360,11 +363,25 @@ class homology_result {
       if (!detail::ring_is_unit(b.factors[i])) out.push_back(detail::canonical_residue(w[i], b.factors[i]));
     return out;
   }
-  /// True when the cycle is a boundary: all its coordinates vanish.
+  /// True when the cycle is a boundary: all its coordinates vanish (precondition as above).
   bool is_boundary(const chain<R>& cycle) const {
     for (const auto& x : coordinates(cycle))
       if (!(x == zero<R>())) return false;
     return true;
+  }
+
+  /// coordinates(cycle), after checking on `complex` (the one this result was computed from)
+  /// that the chain is a cycle (for cohomology: a cocycle; for a pair: a relative cycle).
+  /// Throws std::invalid_argument otherwise. Extra cost: one pass over the boundaries.
+  template <cell_complex C>
+  std::vector<R> coordinates(const C& complex, const chain<R>& cycle) const {
+    check_cycle(complex, cycle);
+    return coordinates(cycle);
+  }
+  template <cell_complex C>
+  bool is_boundary(const C& complex, const chain<R>& cycle) const {
+    check_cycle(complex, cycle);
+    return is_boundary(cycle);
   }
 
   std::shared_ptr<detail::homology_basis<R>> basis_;  // internal
@@ -373,6 +390,55 @@ class homology_result {
 
  private:
   int level_of(int dim) const { return cohomology ? top_ - dim : dim - level_offset_; }
+  bool excluded(int dim, std::size_t cell) const {
+    const int L = level_of(dim);
+    if (!basis_ || L < 0 || L >= static_cast<int>(basis_->from_original.size())) return false;
+    const auto& f = basis_->from_original[static_cast<std::size_t>(L)];
+    return !f.empty() && cell < f.size() && f[cell] < 0;
+  }
+  template <cell_complex C>
+  void check_cycle(const C& c, const chain<R>& z) const {
+    const int k = z.dimension;
+    const int top = lacuna::top_dimension(c);
+    if (k < 0 || k > top) throw std::invalid_argument("lacuna: no cells of dimension " + std::to_string(k));
+    const R unit = unit_;
+    std::unordered_map<std::size_t, R> acc;
+    if (!cohomology) {
+      if (k == 0 && !reduced) return;  // every 0-chain is a cycle
+      for (const auto& t : z.terms) {
+        if (t.cell >= lacuna::cell_count(c, k)) throw std::invalid_argument("lacuna: a chain names a cell that does not exist");
+        if (excluded(k, t.cell)) continue;
+        if (k == 0) {
+          acc[0] += t.coefficient;  // the augmentation
+          continue;
+        }
+        for (auto&& v : lacuna::boundary(c, k, t.cell)) {
+          const incidence inc = as_incidence(v);
+          if (excluded(k - 1, inc.face)) continue;
+          acc[inc.face] += from_integer<R>(inc.coefficient) * unit * t.coefficient;
+        }
+      }
+    } else {
+      if (k == top) return;  // every top cochain is a cocycle
+      std::unordered_map<std::size_t, R> phi;
+      for (const auto& t : z.terms) {
+        if (t.cell >= lacuna::cell_count(c, k)) throw std::invalid_argument("lacuna: a chain names a cell that does not exist");
+        phi[t.cell] += t.coefficient;
+      }
+      for (std::size_t s = 0; s < lacuna::cell_count(c, k + 1); ++s)
+        for (auto&& v : lacuna::boundary(c, k + 1, s)) {
+          const incidence inc = as_incidence(v);
+          auto it = phi.find(inc.face);
+          if (it != phi.end()) acc[s] += from_integer<R>(inc.coefficient) * unit * it->second;
+        }
+    }
+    for (const auto& [cell, v] : acc)
+      if (!(v == zero<R>()))
+        throw std::invalid_argument(cohomology ? "lacuna: the cochain is not a cocycle" : "lacuna: the chain is not a cycle");
+  }
+
+ public:
+  R unit_ = one<R>();  // internal: the one of R the result was computed with
 };
 
 namespace detail {
@@ -388,6 +454,7 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
   res.level_offset_ = opt.reduced ? -1 : 0;
   const int top = lacuna::top_dimension(c);
   res.top_ = top;
+  res.unit_ = unit;
   auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, unit);
   for (int k = 0; k <= top; ++k) {
     const int L = co ? top - k : k - res.level_offset_;
