@@ -118,28 +118,29 @@ class progress_line {
 
 // ---- output -----------------------------------------------------------------------------
 
-std::string json_string(const std::string& s) {
-  std::string out = "\"";
+/// Appends s as a JSON string literal.
+void append_json_string(std::string& out, const std::string& s) {
+  out += '"';
   for (unsigned char ch : s) {
+    if (ch >= 0x20 && ch != '"' && ch != '\\') {
+      out += static_cast<char>(ch);
+      continue;
+    }
     switch (ch) {
       case '"': out += "\\\""; break;
       case '\\': out += "\\\\"; break;
       case '\n': out += "\\n"; break;
       case '\r': out += "\\r"; break;
       case '\t': out += "\\t"; break;
-      default:
-        if (ch < 0x20) {
-          char buf[8];
-          std::snprintf(buf, sizeof buf, "\\u%04x", ch);
-          out += buf;
-        } else {
-          out += static_cast<char>(ch);
-        }
+      default: {
+        char buf[8];
+        std::snprintf(buf, sizeof buf, "\\u%04x", ch);
+        out += buf;
+      }
     }
   }
-  return out + "\"";
+  out += '"';
 }
-
 std::string text_of(const lacuna::integer& x) { return x.to_string(); }
 std::string text_of(const lacuna::z2& x) { return x == lacuna::one<lacuna::z2>() ? "1" : "0"; }
 std::string text_of(const lacuna::mod_p_dynamic& x, std::uint64_t p) {
@@ -205,7 +206,7 @@ struct run_options {
 };
 
 template <class R, class C>
-void report(const C& cx, const lacuna::homology_result<R>& h, const run_options& o, std::ostream& out) {
+void report(const C& cx, const lacuna::homology_result<R>& h, const run_options& o, std::string& out) {
   const int top = lacuna::top_dimension(cx);
   std::vector<std::size_t> cells;
   for (int k = 0; k <= top; ++k) cells.push_back(lacuna::cell_count(cx, k));
@@ -216,64 +217,82 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
       for (const auto& x : g.torsion) t.push_back(x.to_string());
     return t;
   };
-  auto chain_names = [&](const lacuna::chain<R>& ch) {
-    std::vector<std::string> names;
-    for (const auto& t : ch.terms) names.push_back(lacuna::cell_name(cx, ch.dimension, t.cell));
-    return names;
+  auto order_text = [](const lacuna::homology_group<R>& g, std::size_t i) -> std::string {
+    if constexpr (std::same_as<R, lacuna::integer>)
+      return g.orders[i].to_string();
+    else
+      return "0";
   };
+  auto num = [&out](auto v) { out += std::to_string(v); };
   if (o.json) {
-    out << "{\n  \"coefficients\": " << json_string(o.co.text) << ",\n  \"cells\": [";
-    for (std::size_t k = 0; k < cells.size(); ++k) out << (k ? ", " : "") << cells[k];
-    out << "],\n  \"euler_characteristic\": " << chi << ",\n  \"homology\": [";
+    out += "{\n  \"coefficients\": ";
+    append_json_string(out, o.co.text);
+    out += ",\n  \"cells\": [";
+    for (std::size_t k = 0; k < cells.size(); ++k) {
+      if (k) out += ", ";
+      num(cells[k]);
+    }
+    out += "],\n  \"euler_characteristic\": ";
+    num(chi);
+    out += ",\n  \"homology\": [";
     for (std::size_t k = 0; k < h.groups.size(); ++k) {
       const auto& g = h.groups[k];
-      out << (k ? ",\n" : "\n") << "    {\"dimension\": " << g.dimension << ", \"rank\": " << g.rank
-          << ", \"torsion\": [";
+      out += k ? ",\n" : "\n";
+      out += "    {\"dimension\": ";
+      num(g.dimension);
+      out += ", \"rank\": ";
+      num(g.rank);
+      out += ", \"torsion\": [";
       const auto tt = torsion_texts(g);
-      for (std::size_t i = 0; i < tt.size(); ++i) out << (i ? ", " : "") << tt[i];
-      out << "]";
+      for (std::size_t i = 0; i < tt.size(); ++i) out += (i ? ", " : "") + tt[i];
+      out += "]";
       if (o.generators) {
-        out << ", \"generators\": [";
+        out += ", \"generators\": [";
         for (std::size_t i = 0; i < g.generators.size(); ++i) {
-          const auto coeffs = chain_coefficients(g.generators[i], o.co);
-          const auto names = chain_names(g.generators[i]);
-          std::string order = "0";
-          if constexpr (std::same_as<R, lacuna::integer>) order = g.orders[i].to_string();
-          out << (i ? ",\n      " : "\n      ") << "{\"order\": " << order << ", \"chain\": [";
-          for (std::size_t j = 0; j < coeffs.size(); ++j)
-            out << (j ? ", " : "") << "[" << coeffs[j] << ", " << json_string(names[j]) << "]";
-          out << "]}";
+          const auto& ch = g.generators[i];
+          const auto coeffs = chain_coefficients(ch, o.co);
+          out += i ? ",\n      " : "\n      ";
+          out += "{\"order\": " + order_text(g, i) + ", \"chain\": [";
+          for (std::size_t j = 0; j < coeffs.size(); ++j) {
+            out += j ? ", [" : "[";
+            out += coeffs[j];
+            out += ", ";
+            append_json_string(out, lacuna::cell_name(cx, ch.dimension, ch.terms[j].cell));
+            out += ']';
+          }
+          out += "]}";
         }
-        out << (g.generators.empty() ? "]" : "\n    ]");
+        out += g.generators.empty() ? "]" : "\n    ]";
       }
-      out << "}";
+      out += "}";
     }
-    out << (h.groups.empty() ? "]" : "\n  ]") << "\n}\n";
+    out += h.groups.empty() ? "]" : "\n  ]";
+    out += "\n}\n";
     return;
   }
-  out << "homology of " << o.file << " over " << o.co.text << "\n";
-  out << "cells:";
-  if (cells.empty()) out << " none (the empty complex)";
-  for (std::size_t k = 0; k < cells.size(); ++k) out << (k ? ", " : " ") << cells[k] << " in dimension " << k;
-  out << "\nEuler characteristic: " << chi << "\n";
+  out += "homology of " + o.file + " over " + o.co.text + "\n";
+  out += "cells:";
+  if (cells.empty()) out += " none (the empty complex)";
+  for (std::size_t k = 0; k < cells.size(); ++k)
+    out += (k ? ", " : " ") + std::to_string(cells[k]) + " in dimension " + std::to_string(k);
+  out += "\nEuler characteristic: " + std::to_string(chi) + "\n";
   for (const auto& g : h.groups) {
-    out << "H_" << g.dimension << " = " << group_text(g.rank, torsion_texts(g), o.co) << "\n";
+    out += "H_" + std::to_string(g.dimension) + " = " + group_text(g.rank, torsion_texts(g), o.co) + "\n";
     if (!o.generators) continue;
     for (std::size_t i = 0; i < g.generators.size(); ++i) {
-      const auto coeffs = chain_coefficients(g.generators[i], o.co);
-      const auto names = chain_names(g.generators[i]);
-      std::string order = "free";
-      if constexpr (std::same_as<R, lacuna::integer>)
-        if (!(g.orders[i] == lacuna::zero<R>())) order = "order " + g.orders[i].to_string();
-      out << "  generator (" << order << "): ";
+      const auto& ch = g.generators[i];
+      const auto coeffs = chain_coefficients(ch, o.co);
+      const std::string order = order_text(g, i);
+      out += "  generator (" + (order == "0" ? std::string("free") : "order " + order) + "): ";
       for (std::size_t j = 0; j < coeffs.size(); ++j) {
         std::string c = coeffs[j];
         const bool neg = !c.empty() && c[0] == '-';
         if (neg) c = c.substr(1);
-        out << (j == 0 ? (neg ? "-" : "") : (neg ? " - " : " + ")) << (c == "1" ? "" : c + "*") << "[" << names[j]
-            << "]";
+        out += j == 0 ? (neg ? "-" : "") : (neg ? " - " : " + ");
+        if (c != "1") out += c + "*";
+        out += "[" + lacuna::cell_name(cx, ch.dimension, ch.terms[j].cell) + "]";
       }
-      out << "\n";
+      out += "\n";
     }
   }
 }
@@ -281,8 +300,9 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
 template <class C>
 void compute_and_report(const C& cx, const run_options& o, progress_line& progress) {
   progress.phase("computing homology");
-  lacuna::homology_options ho{.generators = o.generators};
-  std::ostringstream out;  // nothing reaches stdout until the whole answer is known
+  // Generators without coordinates: the tool never asks for classes of other cycles.
+  lacuna::homology_options ho{.generators = o.generators, .keep_basis = false};
+  std::string out;  // nothing reaches stdout until the whole answer is known
   switch (o.co.k) {
     case coefficients::integers:
       report(cx, lacuna::homology<lacuna::integer>(cx, ho), o, out);
@@ -301,7 +321,8 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
       break;
   }
   progress.stop();
-  std::cout << out.str() << std::flush;
+  if (std::fwrite(out.data(), 1, out.size(), stdout) != out.size() || std::fflush(stdout) != 0)
+    throw std::runtime_error("cannot write the result to standard output");
 }
 
 std::string extension_of(const std::string& file) {
@@ -336,6 +357,14 @@ void run_homology(const run_options& o) {
     throw usage_error(o.file + ": unknown file type '" + ext +
                       "' (expected .facets, .cells, .off, .obj, .pbm, .pgm or .nrrd)");
   }
+}
+
+/// An error message as one line: control characters (a newline in a file name, say) are
+/// shown as '?', so that the message stays the single line FORMATS.md promises.
+std::string one_line(std::string s) {
+  for (auto& ch : s)
+    if (static_cast<unsigned char>(ch) < 0x20 || ch == 0x7f) ch = '?';
+  return s;
 }
 
 }  // namespace
@@ -374,13 +403,13 @@ int main(int argc, char** argv) {
     if (hom->parsed()) run_homology(o);
     return 0;
   } catch (const usage_error& e) {
-    std::cerr << e.what() << "\n";
+    std::cerr << one_line(e.what()) << "\n";
   } catch (const lacuna::parse_error& e) {
-    std::cerr << e.what() << "\n";
+    std::cerr << one_line(e.what()) << "\n";
   } catch (const std::bad_alloc&) {
-    std::cerr << o.file << ": not enough memory for this input\n";
+    std::cerr << one_line(o.file + ": not enough memory for this input") << "\n";
   } catch (const std::exception& e) {
-    std::cerr << o.file << ": " << e.what() << "\n";
+    std::cerr << one_line(o.file + ": " + e.what()) << "\n";
   }
   return 2;
 }

@@ -42,6 +42,7 @@ struct elimination_options {
   bool set_aside = true;     ///< when stuck, set aside a cell with no active face as critical
   bool markowitz = true;     ///< then unit pivots of least Markowitz count
   bool record = false;       ///< keep the log (needed for generators and chain maps)
+  bool record_pivots = true; ///< with the log: also each pivot's boundary (needed to push chains)
   bool second_pass = true;   ///< after set-aside, reduce the critical cells once more (Markowitz)
 };
 
@@ -288,7 +289,7 @@ class unit_eliminator {
     rc_.release_cofaces(L - 1, b);
     if (log_) {
       log_->steps.push_back({L, a, b, c, inv, log_->affected.size(), 0, log_->pivot.size(), 0});
-      log_->pivot.insert(log_->pivot.end(), pivot_.begin(), pivot_.end());
+      if (opt_.record_pivots) log_->pivot.insert(log_->pivot.end(), pivot_.begin(), pivot_.end());
       log_->steps.back().pivot_end = log_->pivot.size();
     }
     rc_.cell_state(L, a) = st::eliminated;  // a is no longer a candidate for anything

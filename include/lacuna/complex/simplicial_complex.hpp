@@ -268,6 +268,7 @@ class simplicial_complex {
   std::size_t storage_bytes() const noexcept {
     std::size_t b = 0;
     for (const auto& a : simplices_) b += a.capacity() * sizeof(vertex_id);
+    for (const auto& d : first_) b += d.capacity() * sizeof(std::uint64_t);
     return b;
   }
   /// The maximal simplices (facets) as (dimension, index) pairs, by dimension then index.
@@ -302,6 +303,15 @@ class simplicial_complex {
     const auto& a = simplices_[static_cast<std::size_t>(k)];
     const auto w = static_cast<std::size_t>(k + 1);
     std::size_t lo = 0, hi = a.size() / w;
+    // The directory by first vertex narrows the search to the simplices that start with
+    // key[0] (a handful on a surface, instead of log2 of millions of steps).
+    const auto& dir = first_[static_cast<std::size_t>(k)];
+    if (key[0] + 1 < dir.size()) {
+      lo = dir[key[0]];
+      hi = dir[key[0] + 1];
+    } else if (!dir.empty()) {
+      return std::nullopt;
+    }
     while (lo < hi) {
       const std::size_t mid = lo + (hi - lo) / 2;
       const vertex_id* r = a.data() + mid * w;
@@ -318,6 +328,22 @@ class simplicial_complex {
   detail::label_index_t<Label> index_;
   // [k]: the k-simplices, k+1 ids each, lexicographic; [0] is 0, 1, ..., n-1 (the vertices).
   std::vector<std::vector<vertex_id>> simplices_;
+  // [k]: for k >= 1, first_[k][v] is the index of the first k-simplex whose first vertex is
+  // at least v (n + 1 entries): the simplices starting with v are [first_[k][v], first_[k][v+1]).
+  std::vector<std::vector<std::uint64_t>> first_;
+
+  void build_directory() {
+    first_.assign(simplices_.size(), {});
+    const std::size_t n = labels_.size();
+    for (std::size_t k = 1; k < simplices_.size(); ++k) {
+      const auto& a = simplices_[k];
+      const std::size_t w = k + 1, m = a.size() / w;
+      auto& d = first_[k];
+      d.assign(n + 1, m);
+      for (std::size_t i = m; i-- > 0;) d[a[i * w]] = i;
+      for (std::size_t v = n; v-- > 0;) d[v] = std::min(d[v], d[v + 1]);
+    }
+  }
 };
 
 /// Collects facets, then closes them (sort + unique per dimension, top down).
@@ -409,6 +435,7 @@ class simplicial_complex<Label>::builder {
       s[0].resize(sc_.labels_.size());
       std::iota(s[0].begin(), s[0].end(), vertex_id{0});
     }
+    sc_.build_directory();
     return std::move(sc_);
   }
 

@@ -29,6 +29,7 @@
 
 #include <cstdint>
 #include <memory>
+#include <optional>
 #include <stdexcept>
 #include <string>
 #include <type_traits>
@@ -49,7 +50,9 @@ concept homology_algorithm = smith_algorithm<P>;
 struct homology_options {
   bool generators = false;  ///< one cycle per free summand and per torsion factor
   bool reduced = false;     ///< reduced homology (augmented by the empty cell)
-  bool keep_basis = false;  ///< keep what coordinates() needs (implied by generators)
+  /// Keep what coordinates() and is_boundary() need. Unset: kept exactly when generators
+  /// are asked for. Set it to false with generators to save the memory (about a third).
+  std::optional<bool> keep_basis{};
 };
 
 /// One homology group H_k = R^rank + R/t_1 + ... + R/t_m (t_1 | t_2 | ..., non-units).
@@ -246,14 +249,16 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   else
     rc = reducible_complex<W>::build(c, build);
   elimination_log<W> log;
-  const bool want_log = opt.generators || opt.keep_basis;
+  const bool keep = opt.keep_basis.value_or(false);
+  const bool want_log = opt.generators || keep;
   if constexpr (std::same_as<Algorithm, sparse_elimination>) {
     auto eo = alg.elimination;
     eo.record = want_log;
+    eo.record_pivots = keep;
     eliminate_unit_pivots(rc, eo, want_log ? &log : nullptr);
   }
   std::vector<level_basis<R>> lb;
-  auto levels = finish_core<R>(rc, opt.generators, opt.keep_basis, lb);
+  auto levels = finish_core<R>(rc, opt.generators, keep, lb);
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators)
     for (int L = 0; L < rc.levels(); ++L) {
@@ -262,7 +267,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
       for (auto& ch : levels[L].generators)
         for (auto& e : ch) e.index = rc.original_index(L, e.index);
     }
-  if (basis && opt.keep_basis) {
+  if (basis && keep) {
     auto hb = std::make_shared<homology_basis<R>>();
     hb->log = std::move(rlog);
     hb->levels = std::move(lb);
@@ -445,7 +450,7 @@ namespace detail {
 template <euclidean_domain R, cell_complex C, class Algorithm>
 homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool co,
                             const std::vector<std::vector<bool>>* excluded, const R& unit) {
-  if (opt.generators) opt.keep_basis = true;
+  if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (co && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
   reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded};
   homology_result<R> res;
