@@ -295,11 +295,18 @@ class unit_eliminator {
     rc_.cell_state(L, a) = st::eliminated;  // a is no longer a candidate for anything
     rc_.cell_state(L - 1, b) = st::eliminated;
     // b leaves; its cofaces other than a absorb a multiple of da.
+    const bool lone = pivot_.size() == 1;  // da = c b: the cofaces of b just lose b
     for (std::uint32_t y : ys_) {
       if (y == a) continue;
-      const R w = coefficient(L, y, b);
-      if (log_) log_->affected.push_back({y, w});
-      merge_subtract(L, y, w * inv, b);
+      if (lone) {
+        const R w = rc_.take_face(L, y, b);
+        if (log_) log_->affected.push_back({y, w});
+        --active_count_[L][y];  // b was active
+      } else {
+        const R w = coefficient(L, y, b);
+        if (log_) log_->affected.push_back({y, w});
+        merge_subtract(L, y, w * inv, b);
+      }
       consider(L, y);
     }
     if (log_) log_->steps.back().affected_end = log_->affected.size();

@@ -79,6 +79,15 @@ class reducible_complex {
     auto it = std::lower_bound(b.begin(), b.end(), face, [](const entry& e, std::uint32_t f) { return e.index < f; });
     if (it != b.end() && it->index == face) bd_[level].erase_at(i, static_cast<std::size_t>(it - b.begin()));
   }
+  /// Removes the term of a face from a boundary and returns its coefficient (zero if absent).
+  R take_face(int level, std::uint32_t i, std::uint32_t face) {
+    auto b = bd_[level][i];
+    auto it = std::lower_bound(b.begin(), b.end(), face, [](const entry& e, std::uint32_t f) { return e.index < f; });
+    if (it == b.end() || it->index != face) return zero<R>();
+    R v = it->value;
+    bd_[level].erase_at(i, static_cast<std::size_t>(it - b.begin()));
+    return v;
+  }
   void release_boundary(int level, std::uint32_t i) { bd_[level].release(i); }
   void add_coface(int level, std::uint32_t i, std::uint32_t coface) { cob_[level].push_back(i, coface); }
   /// Removes a coface from a coface list, if present.
@@ -155,6 +164,7 @@ class reducible_complex {
     std::vector<std::vector<entry>> down_data(top + 1);
     std::vector<std::vector<std::uint64_t>> down_off(top + 1);
     std::vector<sparse_entry<std::int64_t>> scratch;
+    std::vector<sparse_entry<integer>> exact;  // terms beyond int64, and every term of a cell summed exactly
     for (int k = 1; k <= top; ++k) {
       const std::size_t n = lacuna::cell_count(c, k);
       const std::size_t nf = lacuna::cell_count(c, k - 1);
@@ -166,32 +176,56 @@ class reducible_complex {
         const std::int64_t li = local[k].empty() ? static_cast<std::int64_t>(i) : local[k][i];
         if (li < 0) continue;
         scratch.clear();
+        exact.clear();
         for (auto&& v : lacuna::boundary(c, k, i)) {
-          const incidence inc = as_incidence(v);
-          if (inc.face >= nf)
+          const std::size_t face = incidence_face(v);
+          if (face >= nf)
             throw invalid_complex("cell '" + lacuna::cell_name(c, k, i) + "' (dimension " + std::to_string(k) +
-                                      "): face index " + std::to_string(inc.face) + " is out of range (" +
+                                      "): face index " + std::to_string(face) + " is out of range (" +
                                       std::to_string(nf) + " cells of dimension " + std::to_string(k - 1) + ")",
                                   k, i);
-          const std::int64_t lf = local[k - 1].empty() ? static_cast<std::int64_t>(inc.face) : local[k - 1][inc.face];
-          if (lf < 0 || inc.coefficient == 0) continue;
-          scratch.push_back({static_cast<std::uint32_t>(lf), inc.coefficient});
+          const std::int64_t lf = local[k - 1].empty() ? static_cast<std::int64_t>(face) : local[k - 1][face];
+          if (lf < 0) continue;
+          if constexpr (small_incidence_like<std::remove_cvref_t<decltype(v)>>) {
+            const std::int64_t n = as_incidence(v).coefficient;
+            if (n != 0) scratch.push_back({static_cast<std::uint32_t>(lf), n});
+          } else {  // coefficients of any size: the int64 ones on the fast path, the others exact
+            integer n = coefficient_as_integer(v);
+            if (!n.is_small())
+              exact.push_back({static_cast<std::uint32_t>(lf), std::move(n)});
+            else if (n.small_value() != 0)
+              scratch.push_back({static_cast<std::uint32_t>(lf), n.small_value()});
+          }
         }
         std::sort(scratch.begin(), scratch.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
-        // Add up repeated faces; an overflowing sum is an error, never a silent wrap.
-        for (std::size_t s = 0; s < scratch.size();) {
+        // Add up repeated faces in int64 while every sum fits; otherwise exactly, in lacuna::integer.
+        bool exact_sum = !exact.empty();
+        for (std::size_t s = 0; s < scratch.size() && !exact_sum;) {
           std::size_t t = s;
           std::int64_t sum = 0;
-          for (; t < scratch.size() && scratch[t].index == scratch[s].index; ++t)
-            if (__builtin_add_overflow(sum, scratch[t].value, &sum))
-              throw invalid_complex("cell '" + lacuna::cell_name(c, k, i) + "' (dimension " + std::to_string(k) +
-                                        "): its incidence numbers overflow 64 bits",
-                                    k, i);
-          if (sum != 0) {
+          for (; t < scratch.size() && scratch[t].index == scratch[s].index && !exact_sum; ++t)
+            exact_sum = __builtin_add_overflow(sum, scratch[t].value, &sum);
+          if (!exact_sum && sum != 0) {
             R val = from_integer<R>(sum) * unit;
             if (!(val == zero<R>())) data.push_back({scratch[s].index, std::move(val)});
           }
           s = t;
+        }
+        if (exact_sum) {
+          // A big integer maps into R by coefficient_in (checked_int64 throws coefficient_overflow).
+          data.erase(data.begin() + static_cast<std::ptrdiff_t>(off.back()), data.end());
+          for (const auto& e : scratch) exact.push_back({e.index, integer(e.value)});
+          std::stable_sort(exact.begin(), exact.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+          for (std::size_t s = 0; s < exact.size();) {
+            std::size_t t = s;
+            integer sum;
+            for (; t < exact.size() && exact[t].index == exact[s].index; ++t) sum += exact[t].value;
+            if (sum.sign() != 0) {
+              R val = coefficient_in<R>(sum, unit);
+              if (!(val == zero<R>())) data.push_back({exact[s].index, std::move(val)});
+            }
+            s = t;
+          }
         }
         off.push_back(data.size());
       }

@@ -84,7 +84,35 @@ void sort_unique_fixed(std::vector<std::uint32_t>& flat) {
   std::vector<record> recs(flat.size() / W);
   if (!recs.empty()) std::memcpy(recs.data(), flat.data(), flat.size() * sizeof(std::uint32_t));
   std::vector<std::uint32_t>().swap(flat);
-  std::sort(recs.begin(), recs.end());
+  if (recs.size() < (std::size_t{1} << 15)) {
+    std::sort(recs.begin(), recs.end());
+  } else {
+    // Least-significant-digit radix sort (counting sort per column, last column first): a
+    // few linear passes instead of ~log2(n) comparisons of whole records per record — the
+    // closure of millions of facets spent most of its time in std::sort.
+    std::uint32_t max_id = 0;
+    for (const auto& r : recs)
+      for (auto v : r) max_id = std::max(max_id, v);
+    const bool one_pass = max_id < (std::uint32_t{1} << 22);
+    const std::size_t buckets = one_pass ? std::size_t{max_id} + 1 : std::size_t{1} << 16;
+    std::vector<record> tmp(recs.size());
+    std::vector<std::size_t> count(buckets + 1);
+    auto pass = [&](std::size_t col, unsigned shift, std::uint32_t mask) {
+      std::fill(count.begin(), count.end(), 0);
+      for (const auto& r : recs) ++count[((r[col] >> shift) & mask) + 1];
+      for (std::size_t b = 0; b < buckets; ++b) count[b + 1] += count[b];
+      for (const auto& r : recs) tmp[count[(r[col] >> shift) & mask]++] = r;
+      recs.swap(tmp);
+    };
+    for (std::size_t col = W; col-- > 0;) {
+      if (one_pass) {
+        pass(col, 0, 0xffffffffu);
+      } else {
+        pass(col, 0, 0xffffu);
+        pass(col, 16, 0xffffu);
+      }
+    }
+  }
   recs.erase(std::unique(recs.begin(), recs.end()), recs.end());
   flat.resize(recs.size() * W);
   if (!recs.empty()) std::memcpy(flat.data(), recs.data(), flat.size() * sizeof(std::uint32_t));
