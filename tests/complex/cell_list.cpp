@@ -4,11 +4,19 @@
 
 #include "support.hpp"
 
+#include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/validate.hpp>
+#include <lacuna/ring/mod_p.hpp>
+#include <lacuna/ring/rational.hpp>
+#include <lacuna/ring/z2.hpp>
 
+#include <cstdint>
 #include <limits>
+#include <ranges>
+#include <stdexcept>
+#include <utility>
 #include <string>
 #include <vector>
 
@@ -94,11 +102,89 @@ TEST_CASE("add_cell: faces merge, zeros drop, errors name the cell") {
     CHECK(e.dimension() == 1);
     CHECK(e.index() == 1);
   }
+  // a sum beyond int64 is kept exactly: (2^63 - 1) + 1 = 2^63, and the 1-cells switch to exact storage
   constexpr auto big = std::numeric_limits<std::int64_t>::max();
-  CHECK_THROWS_WITH_AS(c.add_cell(1, "c", {{0, big}, {0, 1}}), "integer overflow: boundary of cell 'c'",
-                       lacuna::invalid_complex);
+  CHECK(!c.has_big_coefficients(1));
+  CHECK(c.add_cell(1, "c", {{0, big}, {0, 1}}) == 1);
+  CHECK(c.has_big_coefficients(1));
+  CHECK(c.boundary(1, 1)[0] == lacuna::exact_incidence{0, lacuna::integer(big) + 1});
+  CHECK(c.boundary(1, 0)[1] == lacuna::incidence{1, 1});  // the earlier cell is kept, exactly
   CHECK_THROWS_AS(c.add_cell(0, "x", {{0, 1}}), lacuna::invalid_complex);
   CHECK_THROWS_AS(c.add_cell(-1, "y"), lacuna::invalid_complex);
   CHECK(c.add_cell(2, "") == 0);
   CHECK(c.cell_name(2, 0) == "e2_0");  // the default name
+}
+
+TEST_CASE("incidence numbers beyond int64: exact storage per dimension, one boundary view") {
+  using lacuna::exact_incidence;
+  using lacuna::integer;
+  const integer two70 = integer(integer::big_type(1) << 70);  // 2^70
+  cell_list c;
+  c.add_cell(0, "p");
+  c.add_cell(1, "q", {{0, 1}, {0, -1}});
+  c.add_cell(2, "r", std::vector<exact_incidence>{{0, two70}});
+  c.add_cell(2, "s", std::vector<exact_incidence>{{0, integer(5)}});
+  CHECK(!c.has_big_coefficients(1));
+  CHECK(c.has_big_coefficients(2));
+  CHECK(c.boundary(2, 0)[0].coefficient == two70);
+  CHECK(c.boundary(2, 1)[0] == lacuna::incidence{0, 5});
+  CHECK(c.small_boundary(1, 0).empty());
+  CHECK_THROWS_AS(c.small_boundary(2, 1), std::overflow_error);
+  // the view models the concept; its terms read exactly, and as int64 only when they fit
+  static_assert(lacuna::cell_complex<cell_list>);
+  static_assert(std::ranges::random_access_range<cell_list::boundary_view>);
+  static_assert(std::ranges::sized_range<cell_list::boundary_view>);
+  static_assert(std::ranges::view<cell_list::boundary_view>);
+  static_assert(!lacuna::small_incidence_like<exact_incidence>);
+  static_assert(lacuna::small_incidence_like<lacuna::incidence>);
+  CHECK(lacuna::coefficient_as_integer(c.boundary(2, 0)[0]) == two70);
+  CHECK(lacuna::as_incidence(c.boundary(2, 1)[0]) == lacuna::incidence{0, 5});
+  CHECK_THROWS_WITH_AS(lacuna::as_incidence(c.boundary(2, 0)[0]),
+                       "lacuna: the incidence number 1180591620717411303424 (on face 0) does not fit in a signed "
+                       "64-bit integer; read it with lacuna::coefficient_as_integer",
+                       std::overflow_error);
+  // exact terms that fit stay on the int64 path; exact sums cancel
+  cell_list d;
+  d.add_cell(0, "p");
+  d.add_cell(1, "q", std::vector<exact_incidence>{{0, two70}, {0, -two70}, {0, integer(3)}});
+  CHECK(!d.has_big_coefficients(1));
+  CHECK(d.boundary(1, 0).size() == 1);
+  CHECK(d.small_boundary(1, 0)[0] == lacuna::incidence{0, 3});
+  // equality compares values, whatever the storage
+  cell_list e;
+  e.add_cell(0, "p");
+  e.add_cell(1, "q", {{0, 3}});
+  CHECK(d == e);
+  cell_list f = e, g = e;
+  f.add_cell(1, "x", std::vector<exact_incidence>{{0, two70}});
+  g.add_cell(1, "x", std::vector<exact_incidence>{{0, two70 + 1}});
+  CHECK(!(f == g));
+  CHECK(f == f);
+  // other incidence-like coefficient types: uint64 beyond int64 is exact, not truncated
+  const std::pair<std::size_t, std::uint64_t> u{0, std::numeric_limits<std::uint64_t>::max()};
+  static_assert(lacuna::incidence_like<decltype(u)> && !lacuna::small_incidence_like<decltype(u)>);
+  CHECK(lacuna::coefficient_as_integer(u) == integer(std::numeric_limits<std::uint64_t>::max()));
+  CHECK_THROWS_AS(lacuna::as_incidence(u), std::overflow_error);
+  const std::pair<std::size_t, unsigned> small_u{1, 7u};
+  CHECK(lacuna::as_incidence(small_u) == lacuna::incidence{1, 7});
+}
+
+TEST_CASE("coefficient_in: a big integer in any ring, by Horner in base 2^62") {
+  using lacuna::integer;
+  const integer n = integer(integer::big_type(1) << 70) + 5;  // 2^70 + 5
+  // 2^70 = (2^2)^35 = 4^35; mod 3: 4 = 1, so 2^70 + 5 = 6 = 0; mod 7: 2^3 = 1, 2^70 = 2^1 = 2, so 7 = 0
+  CHECK(lacuna::coefficient_in<lacuna::mod_p<3>>(n) == lacuna::mod_p<3>(0));
+  CHECK(lacuna::coefficient_in<lacuna::mod_p<7>>(n) == lacuna::mod_p<7>(0));
+  CHECK(lacuna::coefficient_in<lacuna::mod_p<5>>(n) == lacuna::mod_p<5>(4));  // 2^70 = 2^(4*17+2) = 4, 4 + 0 = 4
+  CHECK(lacuna::coefficient_in<lacuna::mod_p<5>>(-n) == lacuna::mod_p<5>(1));
+  CHECK(lacuna::coefficient_in<lacuna::z2>(n) == lacuna::z2(1));
+  CHECK(lacuna::coefficient_in<integer>(n) == n);
+  CHECK(lacuna::coefficient_in<integer>(-n) == -n);
+  CHECK(lacuna::coefficient_in<lacuna::rational>(n) == lacuna::rational(n.to_big(), lacuna::rational::integer_type(1)));
+  CHECK(lacuna::coefficient_in<lacuna::mod_p_dynamic>(n, lacuna::mod_p_dynamic(1, 65521)) ==
+        lacuna::mod_p_dynamic(static_cast<std::int64_t>(n.to_big() % 65521), 65521));
+  CHECK(lacuna::coefficient_in<lacuna::checked_int64>(integer(-42)) == lacuna::checked_int64(-42));
+  CHECK_THROWS_AS(lacuna::coefficient_in<lacuna::checked_int64>(n), lacuna::coefficient_overflow);
+  CHECK_THROWS_AS(lacuna::coefficient_in<lacuna::checked_int64>(integer(std::numeric_limits<std::int64_t>::min()) - 1),
+                  lacuna::coefficient_overflow);
 }

@@ -39,7 +39,7 @@ bool same_boundaries(const C& a, const lacuna::cell_list& b) {
     for (std::size_t i = 0; i < lacuna::cell_count(a, k); ++i) {
       std::vector<lacuna::incidence> x;
       for (const auto& t : lacuna::boundary(a, k, i)) x.push_back(lacuna::as_incidence(t));
-      std::vector<lacuna::incidence> y(b.boundary(k, i).begin(), b.boundary(k, i).end());
+      std::vector<lacuna::incidence> y(b.small_boundary(k, i).begin(), b.small_boundary(k, i).end());
       lacuna::detail::normalize_chain(x, "test");
       if (x != y) return false;
     }
@@ -103,8 +103,6 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
       {"cells_missing_star.cells", 3, "expected '*' after the coefficient 2, found 'q'"},
       {"cells_missing_face_name.cells", 2, "expected a cell name in the boundary of 'q', found the end of the line"},
       {"cells_zero_coefficient.cells", 2, "a coefficient must be positive, found 0 in the boundary of 'q'"},
-      {"cells_big_coefficient.cells", 2, "the coefficient 99999999999999999999 does not fit in a signed 64-bit integer"},
-      {"cells_sum_overflow.cells", 3, "the coefficients in the boundary of 'q' add up beyond a signed 64-bit integer"},
       {"cells_unknown_name.cells", 2,
        "unknown cell 'r' in the boundary of 'q' (a cell must be declared before it is used)"},
       {"cells_forward_reference.cells", 1,
@@ -127,10 +125,6 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
       CHECK(std::string(x.what()) == path + ":" + std::to_string(e.line) + ": " + e.message);
     }
   }
-  CHECK(error_of("0 p\n1 q : -9223372036854775809*p\n") ==
-        "test.cells:2: the coefficient -9223372036854775809 does not fit in a signed 64-bit integer");
-  CHECK(error_of("0 p\n1 q : 9223372036854775808*p\n") ==
-        "test.cells:2: the coefficient 9223372036854775808 does not fit in a signed 64-bit integer");
   CHECK(error_of("0p\n") == "test.cells:1: expected a space after the dimension 0, found 'p'");
   CHECK(error_of("0 p q\n") == "test.cells:1: unexpected 'q' after the 0-cell 'p'");
   CHECK(error_of("0 p\n1 q : 2 * * p\n") == "test.cells:2: expected a cell name in the boundary of 'q', found '*'");
@@ -139,7 +133,51 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
                        lacuna::parse_error);
 }
 
+TEST_CASE("coefficients of any size (FORMATS.md: \"a positive decimal integer of any size\")") {
+  using lacuna::integer;
+  const auto big = [](const char* digits) { return integer(integer::big_type(digits)); };
+  // just beyond int64 on either side: -2^63 - 1 and 2^63
+  const auto c = parse("0 p\n0 w\n1 q : -9223372036854775809*p\n1 r : 9223372036854775808*p - w\n");
+  CHECK(c.has_big_coefficients(1));
+  CHECK(!c.has_big_coefficients(0));
+  REQUIRE(c.boundary(1, 0).size() == 1);
+  CHECK(c.boundary(1, 0)[0] == lacuna::exact_incidence{0, big("-9223372036854775809")});
+  CHECK(c.boundary(1, 1)[0] == lacuna::exact_incidence{0, big("9223372036854775808")});
+  CHECK(c.boundary(1, 1)[1] == lacuna::incidence{1, -1});
+  CHECK_THROWS_AS(c.small_boundary(1, 0), std::overflow_error);
+  CHECK_THROWS_AS(lacuna::as_incidence(c.boundary(1, 0)[0]), std::overflow_error);  // never truncated
+  // the two data files that lacuna refused while its incidence numbers were int64
+  const std::string dir = std::string(LACUNA_TEST_DATA_DIR) + "/complex/";
+  const auto cancel = lacuna::io::read_cells(std::filesystem::path(dir + "cells_big_coefficient.cells"));
+  CHECK(cancel.boundary(1, 0).empty());  // 99999999999999999999*p - 99999999999999999999*p = 0
+  const auto sum = lacuna::io::read_cells(std::filesystem::path(dir + "cells_sum_overflow.cells"));
+  REQUIRE(sum.boundary(1, 0).size() == 2);  // (2^63 - 1)*p + p - w = 2^63*p - w, added up exactly
+  CHECK(sum.boundary(1, 0)[0] == lacuna::exact_incidence{0, big("9223372036854775808")});
+  CHECK(sum.boundary(1, 0)[1] == lacuna::incidence{1, -1});
+  // repeated names add up exactly, down to int64 again: 2^70*q - (2^70 - 3)*q = 3*q
+  const auto back = parse("0 p\n1 q : 0\n2 r : 1180591620717411303424*q - 1180591620717411303421*q\n");
+  CHECK(!back.has_big_coefficients(2));
+  CHECK(back.boundary(2, 0)[0] == lacuna::incidence{0, 3});
+  // a coefficient of 100 digits, with leading zeros (decimal, not octal): 10^99 + 7
+  const std::string hundred = "1" + std::string(98, '0') + "7";
+  const auto h = parse("0 p\n1 q : 000" + hundred + "*p - 000" + hundred + "*p\n1 s : 0" + hundred + "*p\n");
+  CHECK(h.boundary(1, 0).empty());
+  CHECK(h.boundary(1, 1)[0].coefficient == big(hundred.c_str()));
+  // ∂∂ ≠ 0 caused only by coefficients beyond int64 is still found: ∂r = 2^64*q with ∂q = p - w
+  CHECK(error_of("0 p\n0 w\n1 q : p - w\n2 r : 18446744073709551616*q\n") ==
+        "test.cells:4: the boundary of the boundary of 'r' is not zero (it has 'p' in it)");
+  // ... and one whose products cancel exactly is accepted: ∂r = 2^64*q - 2^64*q' with ∂q = ∂q'
+  CHECK(error_of("0 p\n0 w\n1 q : p - w\n1 q' : p - w\n2 r : 18446744073709551616*q - 18446744073709551616*q'\n") ==
+        "no error");
+  // 0 is still not a coefficient, however it is written
+  CHECK(error_of("0 p\n1 q : 00000000000000000000000000*p\n") ==
+        "test.cells:2: a coefficient must be positive, found 0 in the boundary of 'q'");
+}
+
 TEST_CASE("limits are checked before allocating") {
+  CHECK(error_of("0 p\n1 q : 123456*p\n", {.max_coefficient_digits = 5}) ==
+        "test.cells:2: a coefficient of 6 digits in the boundary of 'q' is above the limit of 5 digits (the limit of the reader)");
+  CHECK(error_of("0 p\n1 q : 12345*p\n", {.max_coefficient_digits = 5}) == "no error");
   CHECK(error_of("0 a\n0 b\n0 c\n", {.max_cells = 2}) == "test.cells:3: more than 2 cells (the limit of the reader)");
   CHECK(error_of("0 a\n0 b\n", {.max_cells = 2}) == "no error");
   CHECK(error_of("5 x : 0\n", {.max_dimension = 4}) == "test.cells:1: dimension 5 is above the limit of 4");
@@ -171,4 +209,21 @@ TEST_CASE("round trips: the standard complexes, a product, simplicial complexes"
     CHECK(same_boundaries(s, back));
     lacuna::validate(back);
   }
+}
+
+TEST_CASE("round trip of coefficients beyond int64") {
+  // ∂∂t = (2^65 + 1)*2^70 - 128*(2^128 + 2^63) = 0, so t is a valid 3-cell
+  const std::string text =
+      "0 p\n0 w\n1 q : 0\n1 m : -9223372036854775808*p + 9223372036854775808*w\n2 r : 1180591620717411303424*q\n"
+      "2 s : -340282366920938463463374607431768211456*q - 9223372036854775808*q\n"
+      "3 t : 36893488147419103233*r + 128*s\n";
+  const auto c = parse(text);
+  std::ostringstream out;
+  lacuna::io::write_cells(out, c);
+  // written exactly, in the writer's spacing: -2^63 and 2^63, 2^70, -(2^128 + 2^63) added up
+  CHECK(out.str() ==
+        "0 p\n0 w\n1 q : 0\n1 m : - 9223372036854775808*p + 9223372036854775808*w\n"
+        "2 r : 1180591620717411303424*q\n2 s : - 340282366920938463472597979468622987264*q\n"
+        "3 t : 36893488147419103233*r + 128*s\n");
+  CHECK(parse(out.str()) == c);
 }

@@ -59,7 +59,8 @@ struct sparse_matrix {
 };
 
 /// The k-th boundary matrix of c over R: (k-1)-cells by k-cells; incidences n become
-/// from_integer<R>(n) * unit.
+/// from_integer<R>(n) * unit, and those beyond int64 coefficient_in<R>(n, unit) (exact; for
+/// checked_int64 they throw coefficient_overflow). Repeated faces add up in R.
 template <commutative_ring R, cell_complex C>
 sparse_matrix<R> boundary_matrix(const C& c, int k, const R& unit = one<R>()) {
   const std::size_t cols = k >= 0 && k <= lacuna::top_dimension(c) ? lacuna::cell_count(c, k) : 0;
@@ -68,8 +69,12 @@ sparse_matrix<R> boundary_matrix(const C& c, int k, const R& unit = one<R>()) {
   if (k < 1) return m;
   for (std::size_t j = 0; j < cols; ++j)
     for (auto&& v : lacuna::boundary(c, k, j)) {
-      const incidence inc = as_incidence(v);
-      m.add(inc.face, j, from_integer<R>(inc.coefficient) * unit);
+      if constexpr (small_incidence_like<std::remove_cvref_t<decltype(v)>>) {
+        const incidence inc = as_incidence(v);
+        m.add(inc.face, j, from_integer<R>(inc.coefficient) * unit);
+      } else {
+        m.add(incidence_face(v), j, coefficient_in<R>(coefficient_as_integer(v), unit));
+      }
     }
   m.normalize();
   return m;

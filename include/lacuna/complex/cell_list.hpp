@@ -1,10 +1,16 @@
 // lacuna/complex/cell_list.hpp — Delta- and CW complexes given cell by cell, with arbitrary
-// integer incidence numbers (models lacuna::cell_complex).
+// integer incidence numbers of any size (models lacuna::cell_complex).
 //
 // Storage: per dimension, a CSR array of the boundaries (offsets, then (face, coefficient)
 // terms, one entry per face with a non-zero coefficient, faces increasing) and the cell
 // names. Cells are added in any order of dimension; a k-cell's faces must be (k-1)-cells
 // that exist when it is added.
+//
+// Coefficients: the terms of a dimension are stored as lacuna::incidence (int64) until a
+// coefficient of that dimension does not fit in 64 bits; from then on that dimension alone
+// stores lacuna::exact_incidence (lacuna::integer coefficients). boundary(k, i) is one view
+// type for both, whose terms are exact_incidence values (built from the int64 storage
+// without allocating); small_boundary(k, i) is the int64 span where the dimension has one.
 //
 // The standard complexes are static members: circle, torus, klein_bottle, projective_plane,
 // real_projective_space(n), lens_space(p, q), sphere(n).
@@ -13,13 +19,17 @@
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/detail/concat.hpp>
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/ring/integer.hpp>
 
 #include <algorithm>
+#include <cstddef>
 #include <cstdint>
 #include <initializer_list>
+#include <iterator>
 #include <limits>
 #include <numeric>
 #include <optional>
+#include <ranges>
 #include <span>
 #include <stdexcept>
 #include <string>
@@ -56,11 +66,98 @@ inline void normalize_chain(std::vector<incidence>& terms, const std::string& wh
   }
   terms.resize(o);
 }
+
+/// Sorts terms by face; if every sum of the coefficients of one face fits in int64, adds them
+/// up, drops zeros and returns true; otherwise leaves the (sorted) terms and returns false.
+inline bool normalize_chain_if_fits(std::vector<incidence>& terms) {
+  std::stable_sort(terms.begin(), terms.end(),
+                   [](const incidence& a, const incidence& b) { return a.face < b.face; });
+  bool merge = false;
+  for (std::size_t t = 0; t < terms.size();) {
+    std::int64_t sum = 0;
+    const std::size_t f = terms[t].face, t0 = t;
+    for (; t < terms.size() && terms[t].face == f; ++t)
+      if (__builtin_add_overflow(sum, terms[t].coefficient, &sum)) return false;
+    merge = merge || sum == 0 || t - t0 > 1;
+  }
+  if (merge) normalize_chain(terms, std::string());
+  return true;
+}
+
+/// Sorts terms by face, adds the coefficients of equal faces exactly, drops zeros.
+inline void normalize_chain(std::vector<exact_incidence>& terms) {
+  std::stable_sort(terms.begin(), terms.end(),
+                   [](const exact_incidence& a, const exact_incidence& b) { return a.face < b.face; });
+  std::size_t o = 0;
+  for (std::size_t t = 0; t < terms.size();) {
+    integer sum;
+    const std::size_t f = terms[t].face;
+    for (; t < terms.size() && terms[t].face == f; ++t) sum += terms[t].coefficient;
+    if (sum.sign() != 0) terms[o++] = exact_incidence{f, std::move(sum)};
+  }
+  terms.resize(o);
+}
 }  // namespace detail
 
 /// A complex given cell by cell: names and integer boundaries. Models lacuna::cell_complex.
 class cell_list {
  public:
+  /// The boundary of a cell: a random-access view of exact_incidence values, over the int64
+  /// or the exact storage of its dimension. Models std::ranges::random_access_range and
+  /// std::ranges::sized_range; the terms are values (prvalues), not references.
+  class boundary_view : public std::ranges::view_interface<boundary_view> {
+   public:
+    class iterator {
+     public:
+      using iterator_concept = std::random_access_iterator_tag;
+      using iterator_category = std::input_iterator_tag;
+      using value_type = exact_incidence;
+      using reference = exact_incidence;
+      using difference_type = std::ptrdiff_t;
+      iterator() = default;
+      iterator(const incidence* s, const exact_incidence* e, difference_type i) : s_(s), e_(e), i_(i) {}
+      exact_incidence operator*() const {
+        if (s_) [[likely]]
+          return {s_[i_].face, integer(s_[i_].coefficient)};
+        return e_[i_];
+      }
+      exact_incidence operator[](difference_type n) const { return *(*this + n); }
+      iterator& operator++() { return ++i_, *this; }
+      iterator operator++(int) { auto t = *this; ++i_; return t; }
+      iterator& operator--() { return --i_, *this; }
+      iterator operator--(int) { auto t = *this; --i_; return t; }
+      iterator& operator+=(difference_type n) { return i_ += n, *this; }
+      iterator& operator-=(difference_type n) { return i_ -= n, *this; }
+      friend iterator operator+(iterator a, difference_type n) { return a += n; }
+      friend iterator operator+(difference_type n, iterator a) { return a += n; }
+      friend iterator operator-(iterator a, difference_type n) { return a -= n; }
+      friend difference_type operator-(const iterator& a, const iterator& b) { return a.i_ - b.i_; }
+      friend bool operator==(const iterator& a, const iterator& b) { return a.i_ == b.i_; }
+      friend auto operator<=>(const iterator& a, const iterator& b) { return a.i_ <=> b.i_; }
+
+     private:
+      const incidence* s_ = nullptr;
+      const exact_incidence* e_ = nullptr;
+      difference_type i_ = 0;
+    };
+
+    boundary_view() = default;
+    explicit boundary_view(std::span<const incidence> s) : s_(s.data()), n_(s.size()) {}
+    explicit boundary_view(std::span<const exact_incidence> e) : e_(e.data()), n_(e.size()) {}
+    iterator begin() const { return {s_, e_, 0}; }
+    iterator end() const { return {s_, e_, static_cast<std::ptrdiff_t>(n_)}; }
+    std::size_t size() const { return n_; }
+    /// True when the terms are stored as int64 (then small_terms() holds them).
+    bool is_small() const { return s_ != nullptr || e_ == nullptr; }
+    /// The int64 terms. Precondition: is_small().
+    std::span<const incidence> small_terms() const { return {s_, s_ ? n_ : 0}; }
+
+   private:
+    const incidence* s_ = nullptr;
+    const exact_incidence* e_ = nullptr;
+    std::size_t n_ = 0;
+  };
+
   cell_list() = default;
 
   // ---- the cell_complex interface ------------------------------------------------------
@@ -75,41 +172,55 @@ class cell_list {
     if (k < 0 || static_cast<std::size_t>(k) >= dims_.size()) return 0;
     return dims_[static_cast<std::size_t>(k)].names.size();
   }
-  /// The boundary of the i-th k-cell: faces increasing, coefficients non-zero.
+  /// The boundary of the i-th k-cell: faces increasing, coefficients non-zero, exact.
   /// Precondition: i < cell_count(k).
-  std::span<const incidence> boundary(int k, std::size_t i) const {
+  boundary_view boundary(int k, std::size_t i) const {
     const auto& d = dims_[static_cast<std::size_t>(k)];
+    const std::size_t b = d.offsets[i], n = d.offsets[i + 1] - b;
+    if (!d.exact) [[likely]]
+      return boundary_view(std::span<const incidence>(d.terms.data() + b, n));
+    return boundary_view(std::span<const exact_incidence>(d.exact_terms.data() + b, n));
+  }
+  /// The boundary of the i-th k-cell with int64 coefficients, without conversion. Throws
+  /// std::overflow_error if dimension k holds a coefficient beyond int64 (has_big_coefficients).
+  std::span<const incidence> small_boundary(int k, std::size_t i) const {
+    const auto& d = dims_[static_cast<std::size_t>(k)];
+    if (d.exact)
+      throw std::overflow_error("cell_list: the " + std::to_string(k) +
+                                "-cells have incidence numbers beyond 64 bits; use boundary()");
     return {d.terms.data() + d.offsets[i], d.offsets[i + 1] - d.offsets[i]};
+  }
+  /// True if some k-cell has an incidence number that does not fit in std::int64_t.
+  bool has_big_coefficients(int k) const noexcept {
+    return k >= 0 && static_cast<std::size_t>(k) < dims_.size() && dims_[static_cast<std::size_t>(k)].exact;
   }
   /// The name of the i-th k-cell.
   const std::string& cell_name(int k, std::size_t i) const { return dims_.at(static_cast<std::size_t>(k)).names.at(i); }
 
   // ---- building ------------------------------------------------------------------------
-  /// Adds a k-cell with this name and boundary (terms with equal faces add up; zero terms
-  /// are dropped) and returns its index among the k-cells. An empty name becomes "e<k>_<i>".
-  /// Throws lacuna::invalid_complex if k < 0, a face is not an existing (k-1)-cell, a 0-cell
-  /// is given a non-zero boundary, or coefficients overflow int64. ∂∂ = 0 is not checked
-  /// here (see lacuna::validate).
+  /// Adds a k-cell with this name and boundary (terms with equal faces add up, exactly;
+  /// zero terms are dropped) and returns its index among the k-cells. An empty name becomes
+  /// "e<k>_<i>". Throws lacuna::invalid_complex if k < 0, a face is not an existing
+  /// (k-1)-cell, or a 0-cell is given a non-zero boundary. A sum beyond int64 is kept exactly
+  /// (the dimension switches to exact storage). ∂∂ = 0 is not checked here (see
+  /// lacuna::validate).
   std::size_t add_cell(int k, std::string name, std::vector<incidence> boundary_terms) {
-    if (k < 0) throw invalid_complex("cell_list: a cell of negative dimension " + std::to_string(k));
-    const auto uk = static_cast<std::size_t>(k);
-    if (dims_.size() <= uk) dims_.resize(uk + 1);
-    auto& d = dims_[uk];
-    const std::size_t index = d.names.size();
-    if (name.empty()) name = detail::concat("e", std::to_string(k), "_", std::to_string(index));
-    detail::normalize_chain(boundary_terms, "boundary of cell '" + name + "'");
-    if (k == 0 && !boundary_terms.empty())
-      throw invalid_complex("cell_list: the 0-cell '" + name + "' is given a non-zero boundary", 0, index);
-    for (const auto& t : boundary_terms)
-      if (t.face >= cell_count(k - 1))
-        throw invalid_complex("cell_list: the boundary of " + std::to_string(k) + "-cell '" + name +
-                                  "' names face " + std::to_string(t.face) + ", but there are only " +
-                                  std::to_string(cell_count(k - 1)) + " " + std::to_string(k - 1) + "-cells",
-                              k, index);
+    auto& d = prepare(k, name);
+    if (!detail::normalize_chain_if_fits(boundary_terms) || d.exact) {  // a sum beyond int64: exactly
+      std::vector<exact_incidence> exact;
+      exact.reserve(boundary_terms.size());
+      for (const auto& t : boundary_terms) exact.push_back({t.face, integer(t.coefficient)});
+      return add_exact(k, std::move(name), std::move(exact));
+    }
+    check_faces(k, name, boundary_terms);
     d.terms.insert(d.terms.end(), boundary_terms.begin(), boundary_terms.end());
-    d.offsets.push_back(d.terms.size());
-    d.names.push_back(std::move(name));
-    return index;
+    return finish(d, std::move(name));
+  }
+  /// The same with exact coefficients of any size. The terms are stored as int64 while every
+  /// coefficient of the dimension fits.
+  std::size_t add_cell(int k, std::string name, std::vector<exact_incidence> boundary_terms) {
+    prepare(k, name);
+    return add_exact(k, std::move(name), std::move(boundary_terms));
   }
   std::size_t add_cell(int k, std::string name, std::initializer_list<incidence> boundary_terms = {}) {
     return add_cell(k, std::move(name), std::vector<incidence>(boundary_terms));
@@ -120,7 +231,10 @@ class cell_list {
     if (dims_.size() <= uk) dims_.resize(uk + 1);
     dims_[uk].names.reserve(n);
     dims_[uk].offsets.reserve(n + 1);
-    dims_[uk].terms.reserve(terms);
+    if (dims_[uk].exact)
+      dims_[uk].exact_terms.reserve(terms);
+    else
+      dims_[uk].terms.reserve(terms);
   }
 
   /// The first cell with this name, as (dimension, index). Linear in the number of cells.
@@ -139,7 +253,13 @@ class cell_list {
     for (int k = 0; k <= top; ++k) {
       const auto& x = a.dims_[static_cast<std::size_t>(k)];
       const auto& y = b.dims_[static_cast<std::size_t>(k)];
-      if (x.names != y.names || x.offsets != y.offsets || x.terms != y.terms) return false;
+      if (x.names != y.names || x.offsets != y.offsets) return false;
+      if (!x.exact && !y.exact) {
+        if (x.terms != y.terms) return false;
+      } else {
+        for (std::size_t i = 0; i + 1 < x.offsets.size(); ++i)
+          if (!std::ranges::equal(a.boundary(k, i), b.boundary(k, i))) return false;
+      }
     }
     return true;
   }
@@ -230,10 +350,57 @@ class cell_list {
  private:
   struct dimension {
     std::vector<std::size_t> offsets{0};
-    std::vector<incidence> terms;
+    std::vector<incidence> terms;              // while !exact
+    std::vector<exact_incidence> exact_terms;  // once a coefficient does not fit in int64
     std::vector<std::string> names;
+    bool exact = false;
   };
   std::vector<dimension> dims_;
+
+  /// The dimension record of k (created if needed), and the default name of the new cell.
+  dimension& prepare(int k, std::string& name) {
+    if (k < 0) throw invalid_complex("cell_list: a cell of negative dimension " + std::to_string(k));
+    const auto uk = static_cast<std::size_t>(k);
+    if (dims_.size() <= uk) dims_.resize(uk + 1);
+    auto& d = dims_[uk];
+    if (name.empty()) name = detail::concat("e", std::to_string(k), "_", std::to_string(d.names.size()));
+    return d;
+  }
+  template <class Terms>
+  void check_faces(int k, const std::string& name, const Terms& terms) const {
+    const std::size_t index = cell_count(k);
+    if (k == 0 && !terms.empty())
+      throw invalid_complex("cell_list: the 0-cell '" + name + "' is given a non-zero boundary", 0, index);
+    for (const auto& t : terms)
+      if (t.face >= cell_count(k - 1))
+        throw invalid_complex("cell_list: the boundary of " + std::to_string(k) + "-cell '" + name +
+                                  "' names face " + std::to_string(t.face) + ", but there are only " +
+                                  std::to_string(cell_count(k - 1)) + " " + std::to_string(k - 1) + "-cells",
+                              k, index);
+  }
+  std::size_t finish(dimension& d, std::string name) {
+    d.offsets.push_back(d.exact ? d.exact_terms.size() : d.terms.size());
+    d.names.push_back(std::move(name));
+    return d.names.size() - 1;
+  }
+  std::size_t add_exact(int k, std::string name, std::vector<exact_incidence> terms) {
+    auto& d = dims_[static_cast<std::size_t>(k)];
+    detail::normalize_chain(terms);
+    check_faces(k, name, terms);
+    const bool fits = std::ranges::all_of(terms, [](const exact_incidence& t) { return t.coefficient.is_small(); });
+    if (fits && !d.exact) {
+      for (const auto& t : terms) d.terms.push_back({t.face, t.coefficient.small_value()});
+    } else {
+      if (!d.exact) {  // switch this dimension to exact storage
+        d.exact_terms.reserve(d.terms.size() + terms.size());
+        for (const auto& t : d.terms) d.exact_terms.push_back({t.face, integer(t.coefficient)});
+        std::vector<incidence>().swap(d.terms);
+        d.exact = true;
+      }
+      for (auto& t : terms) d.exact_terms.push_back(std::move(t));
+    }
+    return finish(d, std::move(name));
+  }
 };
 
 }  // namespace lacuna

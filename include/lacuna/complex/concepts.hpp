@@ -17,17 +17,33 @@
 //   2. a member function of C                          (lacuna's own complexes do this),
 //   3. a free function found by argument-dependent lookup in C's namespace (adapt a type you
 //      cannot edit: examples/half_edge_adapter.cpp).
+//
+// Incidence numbers are integers of any size. A boundary term's coefficient is either
+// convertible to std::int64_t (the fast path: lacuna::incidence, the built-in complexes) or to
+// lacuna::integer (exact: lacuna::exact_incidence, cell_list with coefficients beyond int64).
+// Read them with
+//   * coefficient_as_integer(v)   the exact value, for every incidence-like v;
+//   * as_incidence(v)             as int64; std::overflow_error if the value does not fit, so
+//                                 that code written for int64 never truncates silently;
+//   * coefficient_in<R>(n, unit)  the image of an integer in a ring R (from_integer<R> for a
+//                                 64-bit value, base-2^62 Horner beyond).
 #pragma once
+
+#include <lacuna/ring/concepts.hpp>
+#include <lacuna/ring/integer.hpp>
 
 #include <concepts>
 #include <cstddef>
 #include <cstdint>
 #include <iterator>
+#include <limits>
 #include <ranges>
+#include <stdexcept>
 #include <string>
 #include <tuple>
 #include <type_traits>
 #include <utility>
+#include <vector>
 
 namespace lacuna {
 
@@ -49,26 +65,147 @@ struct incidence {
 template <class C>
 struct complex_traits {};
 
-/// A value that names a face and a coefficient: lacuna::incidence, any struct with members
-/// `face` and `coefficient`, or a pair-like (std::pair<index, coefficient>, std::tuple).
-template <class V>
-concept incidence_like =
-    requires(const V& v) {
-      { v.face } -> std::convertible_to<std::size_t>;
-      { v.coefficient } -> std::convertible_to<std::int64_t>;
-    } ||
-    requires(const V& v) {
-      { std::get<0>(v) } -> std::convertible_to<std::size_t>;
-      { std::get<1>(v) } -> std::convertible_to<std::int64_t>;
-    };
+/// One term of a boundary with an exact incidence number of any size.
+struct exact_incidence {
+  std::size_t face;
+  integer coefficient;
+  friend bool operator==(const exact_incidence&, const exact_incidence&) = default;
+  friend bool operator==(const exact_incidence& a, const incidence& b) {
+    return a.face == b.face && a.coefficient == integer(b.coefficient);
+  }
+};
 
-/// Reads an incidence-like value as lacuna::incidence.
+namespace incidence_detail {
+template <class T>
+concept integer_coefficient = std::convertible_to<T, std::int64_t> || std::convertible_to<T, integer>;
+template <class V>
+concept member_incidence = requires(const V& v) {
+  { v.face } -> std::convertible_to<std::size_t>;
+  { v.coefficient } -> integer_coefficient;
+};
+template <class V>
+concept tuple_incidence = requires(const V& v) {
+  { std::get<0>(v) } -> std::convertible_to<std::size_t>;
+  { std::get<1>(v) } -> integer_coefficient;
+};
+template <class V>
+constexpr decltype(auto) coefficient_of(const V& v) {
+  if constexpr (member_incidence<V>)
+    return (v.coefficient);
+  else
+    return std::get<1>(v);
+}
+
+/// True when every value of T fits in std::int64_t (see small_incidence_like).
+template <class T>
+inline constexpr bool fits_int64_by_type = [] {
+  if constexpr (std::integral<T>)
+    return sizeof(T) < sizeof(std::int64_t) || (sizeof(T) == sizeof(std::int64_t) && std::is_signed_v<T>);
+  else
+    return std::convertible_to<T, std::int64_t> && !std::convertible_to<T, integer>;
+}();
+}  // namespace incidence_detail
+
+/// A value that names a face and a coefficient: lacuna::incidence, lacuna::exact_incidence,
+/// any struct with members `face` and `coefficient`, or a pair-like (std::pair<index,
+/// coefficient>, std::tuple). The coefficient converts to std::int64_t or to lacuna::integer.
+template <class V>
+concept incidence_like = incidence_detail::member_incidence<V> || incidence_detail::tuple_incidence<V>;
+
+/// The type of the coefficient of an incidence-like V, without reference and const.
+template <incidence_like V>
+using incidence_coefficient_t =
+    std::remove_cvref_t<decltype(incidence_detail::coefficient_of(std::declval<const V&>()))>;
+
+/// True when every coefficient of V fits in std::int64_t by its type (the fast path): the
+/// coefficient is an integral type of at most 64 bits that is not unsigned 64-bit, or a class
+/// convertible to std::int64_t and not to lacuna::integer.
+template <class V>
+concept small_incidence_like = incidence_like<V> && incidence_detail::fits_int64_by_type<incidence_coefficient_t<V>>;
+
+/// The face of an incidence-like value.
+template <incidence_like V>
+constexpr std::size_t incidence_face(const V& v) {
+  if constexpr (incidence_detail::member_incidence<V>)
+    return static_cast<std::size_t>(v.face);
+  else
+    return static_cast<std::size_t>(std::get<0>(v));
+}
+
+/// The exact coefficient of an incidence-like value, as lacuna::integer.
+template <incidence_like V>
+integer coefficient_as_integer(const V& v) {
+  using T = incidence_coefficient_t<V>;
+  const auto& c = incidence_detail::coefficient_of(v);
+  if constexpr (std::same_as<T, integer>)
+    return c;
+  else if constexpr (std::integral<T> && !std::same_as<T, bool> && sizeof(T) > sizeof(std::int64_t))
+    return integer(integer::big_type(c));  // __int128 and its kin
+  else if constexpr (std::integral<T> && !std::same_as<T, bool>)
+    return integer(c);  // exact for every built-in width up to 64 bits, unsigned too
+  else if constexpr (std::convertible_to<T, integer>)
+    return static_cast<integer>(c);
+  else
+    return integer(static_cast<std::int64_t>(c));
+}
+
+/// Reads an incidence-like value exactly, as lacuna::exact_incidence.
+template <incidence_like V>
+exact_incidence as_exact_incidence(const V& v) {
+  return {incidence_face(v), coefficient_as_integer(v)};
+}
+
+namespace incidence_detail {
+[[noreturn, gnu::cold]] inline void throw_does_not_fit(std::size_t face, const std::string& value) {
+  throw std::overflow_error("lacuna: the incidence number " + value + " (on face " + std::to_string(face) +
+                            ") does not fit in a signed 64-bit integer; read it with "
+                            "lacuna::coefficient_as_integer");
+}
+}  // namespace incidence_detail
+
+/// Reads an incidence-like value as lacuna::incidence (64-bit). Throws std::overflow_error if
+/// the coefficient does not fit in std::int64_t (read such values with coefficient_as_integer).
 template <incidence_like V>
 constexpr incidence as_incidence(const V& v) {
-  if constexpr (requires { v.face; v.coefficient; })
-    return {static_cast<std::size_t>(v.face), static_cast<std::int64_t>(v.coefficient)};
-  else
-    return {static_cast<std::size_t>(std::get<0>(v)), static_cast<std::int64_t>(std::get<1>(v))};
+  using T = incidence_coefficient_t<V>;
+  const std::size_t face = incidence_face(v);
+  if constexpr (small_incidence_like<V>) {
+    return {face, static_cast<std::int64_t>(incidence_detail::coefficient_of(v))};
+  } else if constexpr (std::unsigned_integral<T>) {
+    const auto c = incidence_detail::coefficient_of(v);
+    if (c > static_cast<T>(std::numeric_limits<std::int64_t>::max()))
+      incidence_detail::throw_does_not_fit(face, std::to_string(c));
+    return {face, static_cast<std::int64_t>(c)};
+  } else {
+    const integer c = coefficient_as_integer(v);
+    if (!c.is_small()) incidence_detail::throw_does_not_fit(face, c.to_string());
+    return {face, c.small_value()};
+  }
+}
+
+/// The image of the integer n in R: from_integer<R>(n) * unit for a 64-bit value; beyond, by
+/// Horner's rule in base 2^62 on |n| with from_integer on every digit, so it holds for Z, Q,
+/// Z/p and every ring that maps machine integers. For lacuna::checked_int64 a value beyond
+/// 64 bits overflows in the ring's own arithmetic (coefficient_overflow). `unit` is the one of
+/// R (it matters for rings whose modulus lives in the elements).
+template <class R>
+R coefficient_in(const integer& n, const R& unit = one<R>()) {
+  if (n.is_small()) [[likely]]
+    return from_integer<R>(n.small_value()) * unit;
+  constexpr unsigned bits = 62;
+  const integer::big_type mask = (integer::big_type(1) << bits) - 1;
+  integer::big_type m = n.to_big();
+  const bool negative = m.sign() < 0;
+  if (negative) m = -m;
+  std::vector<std::int64_t> digits;  // least significant first
+  while (m != 0) {
+    digits.push_back(static_cast<std::int64_t>(m & mask));
+    m >>= bits;
+  }
+  const R base = from_integer<R>(std::int64_t{1} << bits) * unit;
+  R acc = zero<R>() * unit;
+  for (std::size_t d = digits.size(); d-- > 0;) acc = acc * base + from_integer<R>(digits[d]) * unit;
+  return negative ? -acc : acc;
 }
 
 namespace complex_cpo_detail {

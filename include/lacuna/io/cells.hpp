@@ -6,11 +6,12 @@
 //
 // Lines "0 NAME" and "DIM NAME : CHAIN"; CHAIN is "0" or terms [+|-][COEFFICIENT*]NAME with
 // optional whitespace between tokens. Errors are lacuna::parse_error, "FILE:LINE: message",
-// for every rule of the format, and for two limits of lacuna's own:
-//   * a coefficient must fit the int64 incidence numbers of lacuna::cell_complex: the
-//     format allows any size, and a term whose signed value lies outside
-//     [-2^63, 2^63 - 1] is refused, as is a sum of coefficients of one face beyond int64;
-//   * options.max_cells and options.max_dimension, checked before anything is allocated.
+// for every rule of the format, and for limits of lacuna's own, checked before anything is
+// allocated: options.max_cells, options.max_dimension and options.max_coefficient_digits.
+// Coefficients are integers of any size, as the format says: those that fit in int64 are read
+// on the fast path, the others as lacuna::integer (cell_list then keeps that dimension
+// exactly); repeated names add up exactly, and ∂∂ = 0 is checked exactly. write_cells writes
+// every coefficient back exactly, so a cell list survives the round trip.
 // The writer names cells by lacuna::cell_name; a name that is not a valid NAME is rewritten
 // (each run of other characters becomes '_', a leading digit gets a '_' in front) with the
 // original in a comment; if the rewritten names collide, every cell is named e<k>_<i>.
@@ -19,6 +20,7 @@
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/ring/integer.hpp>
 
 #include <cstddef>
 #include <cstdint>
@@ -41,11 +43,13 @@ struct cells_read_options {
   std::size_t max_cells = std::size_t{1} << 31;
   /// The highest dimension a cell may have.
   int max_dimension = 1024;
+  /// The most decimal digits a coefficient may have (leading zeros included). Reading n digits
+  /// costs O(n^2) time, so this bounds the work a single term can ask for; 100000 digits (a
+  /// number of about 332000 bits) take well under a second.
+  std::size_t max_coefficient_digits = 100000;
 };
 
 namespace cells_detail {
-
-__extension__ typedef __int128 int128_t;
 
 inline bool is_space(char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\v' || c == '\f'; }
 inline bool is_digit(char c) { return c >= '0' && c <= '9'; }
@@ -109,6 +113,26 @@ inline bool parse_magnitude(std::string_view digits, std::uint64_t limit, std::u
   return true;
 }
 
+/// The value of a decimal string of any length (digits only, at least one), by chunks of 18
+/// digits: exact, and free of the prefix rules (0x, leading 0) of string constructors.
+inline integer parse_integer(std::string_view digits) {
+  std::uint64_t m = 0;
+  if (digits.size() <= 18 && parse_magnitude(digits, std::numeric_limits<std::uint64_t>::max(), m))
+    return integer(m);
+  integer::big_type v = 0;
+  const std::size_t head = digits.size() % 18 == 0 ? 18 : digits.size() % 18;
+  std::size_t pos = 0;
+  for (std::size_t len = head; pos < digits.size(); pos += len, len = 18) {
+    std::uint64_t chunk = 0, scale = 1;
+    for (std::size_t j = 0; j < len; ++j) {
+      chunk = chunk * 10 + static_cast<std::uint64_t>(digits[pos + j] - '0');
+      scale *= 10;
+    }
+    v = v * scale + chunk;
+  }
+  return integer(std::move(v));
+}
+
 }  // namespace cells_detail
 
 /// Reads a cell list from `in`; `file_name` is used in error messages only.
@@ -119,8 +143,8 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
   std::unordered_map<std::string, declared> names;
   std::string raw;
   std::size_t line_number = 0, total = 0;
-  std::vector<incidence> terms;
-  std::vector<std::string> face_names;  // parallel to terms, for messages
+  std::vector<exact_incidence> terms;
+  std::unordered_map<std::size_t, integer> dd;
   const auto fail = [&](const std::string& message) { throw parse_error(file_name, line_number, message); };
   while (std::getline(in, raw)) {
     ++line_number;
@@ -154,7 +178,6 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
       fail("more than " + std::to_string(options.max_cells) + " cells (the limit of the reader)");
     cur.skip();
     terms.clear();
-    face_names.clear();
     if (dim == 0) {
       if (!cur.done()) {
         if (cur.peek() == ':') fail("the 0-cell '" + name + "' cannot have a boundary: write '0 " + name + "'");
@@ -188,19 +211,21 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
           fail("expected '+' or '-' before the next term of the boundary of '" + name + "', found " + near(cur.rest()));
         }
         first = false;
-        std::int64_t coefficient = negative ? -1 : 1;
+        integer coefficient(negative ? -1 : 1);
         if (!cur.done() && is_digit(cur.peek())) {
           const auto digits = cur.take_digits();
-          std::uint64_t m = 0;
-          const std::uint64_t limit = negative ? std::uint64_t{1} << 63 : (std::uint64_t{1} << 63) - 1;
-          if (!parse_magnitude(digits, limit, m))
-            fail("the coefficient " + std::string(negative ? "-" : "") + std::string(digits) +
-                 " does not fit in a signed 64-bit integer");
-          if (m == 0) fail("a coefficient must be positive, found 0 in the boundary of '" + name + "'");
-          coefficient = negative ? static_cast<std::int64_t>(0 - m) : static_cast<std::int64_t>(m);
+          if (digits.size() > options.max_coefficient_digits)
+            fail("a coefficient of " + std::to_string(digits.size()) + " digits in the boundary of '" + name +
+                 "' is above the limit of " + std::to_string(options.max_coefficient_digits) +
+                 " digits (the limit of the reader)");
+          integer m = parse_integer(digits);
+          if (m.sign() == 0) fail("a coefficient must be positive, found 0 in the boundary of '" + name + "'");
+          coefficient = negative ? -m : std::move(m);
           cur.skip();
           if (cur.done() || cur.peek() != '*')
-            fail("expected '*' after the coefficient " + std::string(digits) + ", found " + near(cur.rest()));
+            fail("expected '*' after the coefficient " +
+                 (digits.size() <= 40 ? std::string(digits) : std::string(digits.substr(0, 20)) + "...") +
+                 ", found " + near(cur.rest()));
           ++cur.i;
           cur.skip();
         }
@@ -215,30 +240,26 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
           fail("the cell '" + face + "' has dimension " + std::to_string(it->second.dimension) +
                ", but the boundary of a " + std::to_string(dim) + "-cell is made of " + std::to_string(dim - 1) +
                "-cells");
-        terms.push_back({it->second.index, coefficient});
-        face_names.push_back(face);
+        terms.push_back({it->second.index, std::move(coefficient)});
       }
       if (zero_chain) terms.clear();
     }
-    // add up repeated faces (overflow-checked), then check ∂∂ = 0 in 128-bit arithmetic
-    try {
-      detail::normalize_chain(terms, "the coefficients in the boundary of '" + name + "' add up beyond 64 bits");
-    } catch (const invalid_complex&) {
-      fail("the coefficients in the boundary of '" + name + "' add up beyond a signed 64-bit integer");
-    }
+    // add up repeated faces exactly, then check ∂∂ = 0 exactly (lacuna::integer: 64-bit
+    // arithmetic inline while the numbers fit)
+    detail::normalize_chain(terms);
     if (dim >= 2) {
-      std::unordered_map<std::size_t, int128_t> dd;
+      dd.clear();
       for (const auto& t : terms)
-        for (const auto& u : out.boundary(dim - 1, t.face))
-          dd[u.face] += static_cast<int128_t>(t.coefficient) * u.coefficient;
+        for (const auto& u : out.boundary(dim - 1, t.face)) dd[u.face] += t.coefficient * u.coefficient;
       std::size_t worst = std::numeric_limits<std::size_t>::max();
       for (const auto& [f, v] : dd)
-        if (v != 0 && f < worst) worst = f;
+        if (v.sign() != 0 && f < worst) worst = f;
       if (worst != std::numeric_limits<std::size_t>::max())
         fail("the boundary of the boundary of '" + name + "' is not zero (it has '" + out.cell_name(dim - 2, worst) +
              "' in it)");
     }
-    const std::size_t index = out.add_cell(dim, name, terms);
+    const std::size_t index = out.add_cell(dim, name, std::move(terms));
+    terms.clear();
     names.emplace(name, declared{dim, index, line_number});
     ++total;
   }
@@ -298,21 +319,36 @@ void write_cells(std::ostream& out, const C& c) {
         out << " :";
         bool any = false;
         for (const auto& term : lacuna::boundary(c, k, i)) {
-          const incidence t = as_incidence(term);
-          if (t.coefficient == 0) continue;
-          if (t.face >= lacuna::cell_count(c, k - 1))
+          const std::size_t face = incidence_face(term);
+          bool negative = false;
+          std::uint64_t m = 0;      // the magnitude as unsigned, so that -2^63 is written too
+          std::string big_digits;  // the magnitude of a coefficient beyond int64
+          if constexpr (small_incidence_like<std::remove_cvref_t<decltype(term)>>) {
+            const std::int64_t v = as_incidence(term).coefficient;
+            if (v == 0) continue;
+            negative = v < 0;
+            m = negative ? 0 - static_cast<std::uint64_t>(v) : static_cast<std::uint64_t>(v);
+          } else {
+            const integer v = coefficient_as_integer(term);
+            if (v.sign() == 0) continue;
+            negative = v.sign() < 0;
+            if (v.is_small())
+              m = negative ? 0 - static_cast<std::uint64_t>(v.small_value()) : static_cast<std::uint64_t>(v.small_value());
+            else
+              big_digits = abs(v).to_string();
+          }
+          if (face >= lacuna::cell_count(c, k - 1))
             throw invalid_complex("write_cells: " + std::to_string(k) + "-cell " + std::to_string(i) + " ('" +
-                                      lacuna::cell_name(c, k, i) + "') has face " + std::to_string(t.face) +
+                                      lacuna::cell_name(c, k, i) + "') has face " + std::to_string(face) +
                                       " out of range",
                                   k, i);
-          const bool negative = t.coefficient < 0;
-          // the magnitude as unsigned, so that -2^63 is written too
-          const std::uint64_t m = negative ? 0 - static_cast<std::uint64_t>(t.coefficient)
-                                           : static_cast<std::uint64_t>(t.coefficient);
           out << ' ' << (negative ? "-" : (any ? "+" : ""));
           if (negative || any) out << ' ';
-          if (m != 1) out << m << '*';
-          out << names[static_cast<std::size_t>(k - 1)][t.face];
+          if (!big_digits.empty())
+            out << big_digits << '*';
+          else if (m != 1)
+            out << m << '*';
+          out << names[static_cast<std::size_t>(k - 1)][face];
           any = true;
         }
         if (!any) out << " 0";
