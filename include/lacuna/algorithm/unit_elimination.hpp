@@ -158,19 +158,14 @@ class unit_eliminator {
   void consider(int L, std::uint32_t i) {
     if (rc_.cell_state(L, i) != st::active) return;
     const auto n = active_count_[L][i];
-    if (n == 1 && opt_.coreductions) queue_.push_back({L, i});
+    if (n == 1 && opt_.coreductions) push_candidate(L, i);
     if (n == 0 && opt_.set_aside) empty_[L].push_back(i);
-    if (opt_.collapses && L + 1 < rc_.levels() && rc_.cofaces(L, i).size() == 1) queue_.push_back({L, i});
+    if (opt_.collapses && L + 1 < rc_.levels() && rc_.cofaces(L, i).size() == 1) push_candidate(L, i);
   }
 
   void loop(bool set_aside) {
     for (;;) {
-      while (head_ < queue_.size()) {
-        auto [L, i] = queue_[head_++];
-        try_zero_fill(L, i);
-      }
-      queue_.clear();
-      head_ = 0;
+      drain();
       if (set_aside && set_aside_one()) continue;
       if (opt_.markowitz && markowitz_batch()) continue;
       break;
@@ -202,6 +197,35 @@ class unit_eliminator {
         ++stats_.collapses;
       }
     }
+  }
+
+  // Order of the zero-fill candidates. Below the top level, first in, first out: a
+  // breadth-first reduction, whose gradient paths (and so the lifted generators of H_k,
+  // k < top) stay short. At the top level, where every top generator is a whole
+  // fundamental class anyway, last in, first out: the reduction walks through neighbouring
+  // cells, which lie close together in memory (on a 1024x1024 torus the top level ran 3x
+  // faster than breadth first).
+  void push_candidate(int L, std::uint32_t i) {
+    if (L + 1 == rc_.levels())
+      stack_.push_back(i);
+    else
+      queue_.push_back({L, i});
+  }
+  void drain() {
+    for (;;) {
+      if (head_ < queue_.size()) {
+        auto [L, i] = queue_[head_++];
+        try_zero_fill(L, i);
+      } else if (!stack_.empty()) {
+        const std::uint32_t i = stack_.back();
+        stack_.pop_back();
+        try_zero_fill(rc_.levels() - 1, i);
+      } else {
+        break;
+      }
+    }
+    queue_.clear();
+    head_ = 0;
   }
 
   bool set_aside_one() {
@@ -257,12 +281,7 @@ class unit_eliminator {
       ++stats_.markowitz;
       any = true;
       // Zero-fill pivots made possible by this one go first.
-      while (head_ < queue_.size()) {
-        auto [L, i] = queue_[head_++];
-        try_zero_fill(L, i);
-      }
-      queue_.clear();
-      head_ = 0;
+      drain();
     }
     return any;
   }
@@ -386,6 +405,7 @@ class unit_eliminator {
   std::vector<std::vector<std::uint32_t>> empty_;
   std::vector<std::pair<int, std::uint32_t>> queue_;
   std::size_t head_ = 0;
+  std::vector<std::uint32_t> stack_;
   std::vector<sparse_entry<R>> scratch_, pivot_;
   std::vector<std::uint32_t> ys_, xs_;
 };
