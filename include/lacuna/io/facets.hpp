@@ -153,7 +153,7 @@ void write_facets(std::ostream& out, const simplicial_complex<Label>& c) {
   std::vector<std::string> text;
   std::unordered_set<std::string> seen;
   for (std::uint32_t v = 0; v < c.vertex_count(); ++v) {
-    text.push_back(detail::label_to_string(c.label(v)));
+    text.push_back(lacuna::detail::label_to_string(c.label(v)));
     if (!facets_detail::writable_label(text.back()))
       throw invalid_complex("write_facets: the label of vertex " + std::to_string(v) + " ('" + text.back() +
                                 "') is empty or holds whitespace or '#'",
