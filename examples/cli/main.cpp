@@ -301,7 +301,8 @@ template <class C>
 void compute_and_report(const C& cx, const run_options& o, progress_line& progress) {
   progress.phase("computing homology");
   // Generators without coordinates: the tool never asks for classes of other cycles.
-  lacuna::homology_options ho{.generators = o.generators, .keep_basis = false};
+  // Both cores where the work splits: lacuna's own complexes are safe to read from two threads.
+  lacuna::homology_options ho{.generators = o.generators, .keep_basis = false, .threads = 2};
   std::string out;  // nothing reaches stdout until the whole answer is known
   switch (o.co.k) {
     case coefficients::integers:

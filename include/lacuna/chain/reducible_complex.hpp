@@ -22,6 +22,8 @@
 #include <lacuna/ring/concepts.hpp>
 
 #include <algorithm>
+#include <exception>
+#include <thread>
 #include <cstdint>
 #include <limits>
 #include <span>
@@ -45,6 +47,9 @@ struct reducible_build_options {
   /// Cells to leave out, for the quotient chain complex C(X)/C(A) (relative homology):
   /// excluded[k][i] true drops the i-th k-cell and every term in it. Empty: keep all.
   const std::vector<std::vector<bool>>* excluded = nullptr;
+  /// Threads for the build (1: the calling thread only). With 2 or more, the boundary()
+  /// of the complex is called from two threads at once.
+  unsigned threads = 1;
 };
 
 /// A mutable sparse chain complex. R models commutative_ring (the working coefficients).
@@ -163,9 +168,9 @@ class reducible_complex {
     // For each k >= 1, the k-th boundary in CSR (columns: k-cells), then its transpose.
     std::vector<std::vector<entry>> down_data(top + 1);
     std::vector<std::vector<std::uint64_t>> down_off(top + 1);
-    std::vector<sparse_entry<std::int64_t>> scratch;
-    std::vector<sparse_entry<integer>> exact;  // terms beyond int64, and every term of a cell summed exactly
-    for (int k = 1; k <= top; ++k) {
+    auto build_dimension = [&](int k) {
+      std::vector<sparse_entry<std::int64_t>> scratch;
+      std::vector<sparse_entry<integer>> exact;  // terms beyond int64, and every term of a cell summed exactly
       const std::size_t n = lacuna::cell_count(c, k);
       const std::size_t nf = lacuna::cell_count(c, k - 1);
       auto& data = down_data[k];
@@ -229,6 +234,36 @@ class reducible_complex {
         }
         off.push_back(data.size());
       }
+    };
+    // Dimensions are independent: with threads, the largest one runs beside the others
+    // (the result is the same; the complex's boundary() must then be safe to call from two
+    // threads at once, as it is for lacuna's own complexes).
+    if (opt.threads >= 2 && top >= 2) {
+      int big = 1;
+      std::size_t best = 0;
+      for (int k = 1; k <= top; ++k) {
+        const std::size_t w = kept[k] * static_cast<std::size_t>(k + 1);
+        if (w > best) best = w, big = k;
+      }
+      std::exception_ptr failure;
+      std::thread worker([&] {
+        try {
+          build_dimension(big);
+        } catch (...) {
+          failure = std::current_exception();
+        }
+      });
+      try {
+        for (int k = 1; k <= top; ++k)
+          if (k != big) build_dimension(k);
+      } catch (...) {
+        worker.join();
+        throw;
+      }
+      worker.join();
+      if (failure) std::rethrow_exception(failure);
+    } else {
+      for (int k = 1; k <= top; ++k) build_dimension(k);
     }
     for (int k = 0; k <= top; ++k) {
       // The transpose of the (k+1)-th boundary: for each k-cell, its cofaces with values.

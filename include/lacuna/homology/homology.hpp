@@ -28,6 +28,8 @@
 #include <lacuna/ring/integer.hpp>
 
 #include <cstdint>
+#include <exception>
+#include <thread>
 #include <memory>
 #include <optional>
 #include <stdexcept>
@@ -53,6 +55,10 @@ struct homology_options {
   /// Keep what coordinates() and is_boundary() need. Unset: kept exactly when generators
   /// are asked for. Set it to false with generators to save the memory (about a third).
   std::optional<bool> keep_basis{};
+  /// Threads to use where the work splits (indexing the dimensions, lifting generators of
+  /// different dimensions). Results do not depend on it. With 2 or more, the complex's
+  /// boundary() is called from two threads at once (safe for lacuna's own complexes).
+  unsigned threads = 1;
 };
 
 /// One homology group H_k = R^rank + R/t_1 + ... + R/t_m (t_1 | t_2 | ..., non-units).
@@ -260,13 +266,36 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   std::vector<level_basis<R>> lb;
   auto levels = finish_core<R>(rc, opt.generators, keep, lb);
   auto rlog = convert_log<R>(std::move(log));
-  if (opt.generators)
-    for (int L = 0; L < rc.levels(); ++L) {
+  if (opt.generators) {
+    auto lift_level = [&](int L) {
       auto lifted = lift_chains(rlog, L, rc.size(L), levels[L].generators);
       levels[L].generators = std::move(lifted);
       for (auto& ch : levels[L].generators)
         for (auto& e : ch) e.index = rc.original_index(L, e.index);
+    };
+    const int top_level = rc.levels() - 1;
+    if (opt.threads >= 2 && top_level >= 1) {
+      // Levels are independent: the top one (usually the largest lift) beside the others.
+      std::exception_ptr failure;
+      std::thread worker([&] {
+        try {
+          lift_level(top_level);
+        } catch (...) {
+          failure = std::current_exception();
+        }
+      });
+      try {
+        for (int L = 0; L < top_level; ++L) lift_level(L);
+      } catch (...) {
+        worker.join();
+        throw;
+      }
+      worker.join();
+      if (failure) std::rethrow_exception(failure);
+    } else {
+      for (int L = 0; L < rc.levels(); ++L) lift_level(L);
     }
+  }
   if (basis && keep) {
     auto hb = std::make_shared<homology_basis<R>>();
     hb->log = std::move(rlog);
@@ -452,7 +481,7 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
                             const std::vector<std::vector<bool>>* excluded, const R& unit) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (co && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
-  reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded};
+  reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded, .threads = opt.threads};
   homology_result<R> res;
   res.cohomology = co;
   res.reduced = opt.reduced;
