@@ -15,15 +15,25 @@
 #include <lacuna/complex/construct.hpp>
 
 #include <lacuna/chain/chain.hpp>
+#include <lacuna/chain/chain_map.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/slotted_lists.hpp>
+#include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
 
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/smith_normal_form.hpp>
+#include <lacuna/algorithm/field_reduction.hpp>
 
 #include <lacuna/homology/homology.hpp>
+#include <lacuna/homology/verify.hpp>
+#include <lacuna/homology/universal_coefficients.hpp>
+#include <lacuna/homology/induced_map.hpp>
+#include <lacuna/homology/exact_sequence.hpp>
+#include <lacuna/homology/euler_checks.hpp>
 
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/cells.hpp>
