@@ -5,6 +5,7 @@
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/complex/polygon_mesh.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
+#include <lacuna/homology/exact_sequence.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/io/cells.hpp>
 #include <lacuna/io/facets.hpp>
@@ -27,7 +28,9 @@
 #include <csignal>
 #include <cstdio>
 #include <filesystem>
+#include <fstream>
 #include <iostream>
+#include <map>
 #include <mutex>
 #include <optional>
 #include <sstream>
@@ -195,8 +198,12 @@ std::string group_text(std::size_t rank, const std::vector<std::string>& torsion
   return s;
 }
 
+/// marks[k][i]: the i-th k-cell of FILE is a cell of SUB.
+using marks_t = std::vector<std::vector<bool>>;
+
 struct run_options {
   std::string file;
+  std::string relative;  ///< SUB of --relative (or of the sequence subcommand); empty: none
   coefficients co;
   bool generators = false;
   bool json = false;
@@ -206,11 +213,20 @@ struct run_options {
 };
 
 template <class R, class C>
-void report(const C& cx, const lacuna::homology_result<R>& h, const run_options& o, std::string& out) {
+void report(const C& cx, const lacuna::homology_result<R>& h, const run_options& o, std::string& out,
+            const marks_t* marks = nullptr) {
   const int top = lacuna::top_dimension(cx);
   std::vector<std::size_t> cells;
-  for (int k = 0; k <= top; ++k) cells.push_back(lacuna::cell_count(cx, k));
-  const std::int64_t chi = lacuna::euler_characteristic(cx);
+  // Of a pair (X, A): the cells of X not in A, which span the relative chain complex.
+  for (int k = 0; k <= top; ++k) {
+    std::size_t n = lacuna::cell_count(cx, k);
+    if (marks)
+      for (bool b : (*marks)[static_cast<std::size_t>(k)]) n -= b ? 1 : 0;
+    cells.push_back(n);
+  }
+  std::int64_t chi = 0;
+  for (std::size_t k = 0; k < cells.size(); ++k)
+    chi += (k % 2 == 0 ? 1 : -1) * static_cast<std::int64_t>(cells[k]);
   auto torsion_texts = [](const lacuna::homology_group<R>& g) {
     std::vector<std::string> t;
     if constexpr (std::same_as<R, lacuna::integer>)
@@ -227,6 +243,10 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
   if (o.json) {
     out += "{\n  \"coefficients\": ";
     append_json_string(out, o.co.text);
+    if (!o.relative.empty()) {
+      out += ",\n  \"relative_to\": ";
+      append_json_string(out, o.relative);
+    }
     out += ",\n  \"cells\": [";
     for (std::size_t k = 0; k < cells.size(); ++k) {
       if (k) out += ", ";
@@ -270,7 +290,7 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
     out += "\n}\n";
     return;
   }
-  out += "homology of " + o.file + " over " + o.co.text + "\n";
+  out += "homology of " + o.file + (o.relative.empty() ? "" : " relative to " + o.relative) + " over " + o.co.text + "\n";
   out += "cells:";
   if (cells.empty()) out += " none (the empty complex)";
   for (std::size_t k = 0; k < cells.size(); ++k)
@@ -297,33 +317,141 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
   }
 }
 
+void write_out(const std::string& out) {
+  if (std::fwrite(out.data(), 1, out.size(), stdout) != out.size() || std::fflush(stdout) != 0)
+    throw std::runtime_error("cannot write the result to standard output");
+}
+
 template <class C>
-void compute_and_report(const C& cx, const run_options& o, progress_line& progress) {
+void compute_and_report(const C& cx, const run_options& o, progress_line& progress, const marks_t* marks = nullptr) {
   progress.phase("computing homology");
   // Generators without coordinates: the tool never asks for classes of other cycles.
   // Both cores where the work splits: lacuna's own complexes are safe to read from two threads.
   lacuna::homology_options ho{.generators = o.generators, .keep_basis = false, .threads = 2};
   std::string out;  // nothing reaches stdout until the whole answer is known
+  auto go = [&]<class R>(const R& unit) {
+    if (marks)
+      report(cx, lacuna::relative_homology<R>(cx, *marks, ho, lacuna::sparse_elimination{}, unit), o, out, marks);
+    else
+      report(cx, lacuna::homology<R>(cx, ho, lacuna::sparse_elimination{}, unit), o, out);
+  };
   switch (o.co.k) {
     case coefficients::integers:
-      report(cx, lacuna::homology<lacuna::integer>(cx, ho), o, out);
+      go(lacuna::one<lacuna::integer>());
       break;
     case coefficients::rationals:
-      report(cx, lacuna::homology<lacuna::rational>(cx, ho), o, out);
+      go(lacuna::one<lacuna::rational>());
       break;
     case coefficients::mod_p:
       if (o.co.p == 2)
-        report(cx, lacuna::homology<lacuna::z2>(cx, ho), o, out);
+        go(lacuna::one<lacuna::z2>());
       else
-        report(cx,
-               lacuna::homology<lacuna::mod_p_dynamic>(cx, ho, lacuna::sparse_elimination{},
-                                                       lacuna::mod_p_dynamic(1, o.co.p)),
-               o, out);
+        go(lacuna::mod_p_dynamic(1, o.co.p));
       break;
   }
   progress.stop();
-  if (std::fwrite(out.data(), 1, out.size(), stdout) != out.size() || std::fflush(stdout) != 0)
-    throw std::runtime_error("cannot write the result to standard output");
+  write_out(out);
+}
+
+
+// ---- subcomplexes named in a second file (--relative SUB, the sequence subcommand) -------
+
+/// The lines of SUB that declare something: (line number, the line without its comment).
+std::vector<std::pair<std::size_t, std::string>> content_lines(const std::string& sub) {
+  std::ifstream in(sub, std::ios::binary);
+  if (!in) throw usage_error(sub + ": cannot be read");
+  std::vector<std::pair<std::size_t, std::string>> out;
+  std::string line;
+  for (std::size_t no = 1; std::getline(in, line); ++no) {
+    if (auto h = line.find('#'); h != std::string::npos) line.resize(h);
+    if (!line.empty() && line.back() == '\r') line.pop_back();
+    if (line.find_first_not_of(" \t") == std::string::npos) continue;
+    out.emplace_back(no, line);
+  }
+  return out;
+}
+
+/// marks for SUB, a facet list, in X: every listed simplex must be a simplex of X (its faces
+/// then are too, and SUB is closed by construction).
+marks_t facets_marks(const lacuna::simplicial_complex<std::string>& X, const std::string& sub,
+                     const lacuna::simplicial_complex<std::string>& A) {
+  for (const auto& [no, line] : content_lines(sub)) {
+    std::istringstream words(line);
+    std::vector<std::string> labels;
+    for (std::string w; words >> w;) labels.push_back(w);
+    if (!X.find_labels(labels)) {
+      std::string name;
+      for (const auto& l : labels) name += (name.empty() ? "" : " ") + l;
+      throw usage_error(sub + ":" + std::to_string(no) + ": the simplex '" + name + "' is not a cell of the complex " +
+                        "of FILE");
+    }
+  }
+  marks_t m(static_cast<std::size_t>(std::max(X.top_dimension() + 1, 0)));
+  for (int k = 0; k <= X.top_dimension(); ++k) m[static_cast<std::size_t>(k)].assign(X.cell_count(k), false);
+  for (int k = 0; k <= A.top_dimension(); ++k)
+    for (std::size_t i = 0; i < A.cell_count(k); ++i) {
+      std::vector<std::string> labels;
+      for (auto v : A.vertices(k, i)) labels.push_back(A.label(v));
+      m[static_cast<std::size_t>(k)][*X.find_labels(labels)] = true;
+    }
+  return m;
+}
+
+/// marks for SUB, a cell list, in X: every cell of SUB is a cell of X of the same dimension
+/// and the same boundary, and every face of it in X is a cell of SUB.
+marks_t cells_marks(const lacuna::cell_list& X, const std::string& sub, const lacuna::cell_list& A) {
+  std::map<std::string, std::size_t> line_of;
+  for (const auto& [no, line] : content_lines(sub)) {
+    std::size_t p = line.find_first_not_of(" \t");
+    p = line.find_first_of(" \t", p);
+    if (p == std::string::npos) continue;
+    p = line.find_first_not_of(" \t", p);
+    if (p == std::string::npos) continue;
+    std::size_t e = p;
+    while (e < line.size() && (std::isalnum(static_cast<unsigned char>(line[e])) || line[e] == '_' || line[e] == '.' ||
+                               line[e] == '\''))
+      ++e;
+    line_of.emplace(line.substr(p, e - p), no);
+  }
+  auto where = [&](const std::string& name) {
+    const auto it = line_of.find(name);
+    return sub + (it == line_of.end() ? std::string() : ":" + std::to_string(it->second));
+  };
+  marks_t m(static_cast<std::size_t>(std::max(X.top_dimension() + 1, 0)));
+  for (int k = 0; k <= X.top_dimension(); ++k) m[static_cast<std::size_t>(k)].assign(X.cell_count(k), false);
+  std::vector<std::vector<std::size_t>> index_in_x(static_cast<std::size_t>(std::max(A.top_dimension() + 1, 0)));
+  for (int k = 0; k <= A.top_dimension(); ++k)
+    for (std::size_t i = 0; i < A.cell_count(k); ++i) {
+      const std::string& name = A.cell_name(k, i);
+      const auto f = X.find(name);
+      if (!f) throw usage_error(where(name) + ": the cell '" + name + "' is not a cell of FILE");
+      if (f->first != k)
+        throw usage_error(where(name) + ": the cell '" + name + "' has dimension " + std::to_string(k) +
+                          " here but " + std::to_string(f->first) + " in FILE");
+      m[static_cast<std::size_t>(k)][f->second] = true;
+      index_in_x[static_cast<std::size_t>(k)].push_back(f->second);
+    }
+  for (int k = 1; k <= A.top_dimension(); ++k)
+    for (std::size_t i = 0; i < A.cell_count(k); ++i) {
+      const std::string& name = A.cell_name(k, i);
+      const std::size_t j = index_in_x[static_cast<std::size_t>(k)][i];
+      std::map<std::size_t, lacuna::integer> in_x, in_a;
+      for (auto&& v : X.boundary(k, j)) {
+        const auto t = lacuna::as_exact_incidence(v);
+        if (!m[static_cast<std::size_t>(k - 1)][t.face])
+          throw usage_error(where(name) + ": the cell '" + name + "' is not in a subcomplex: its face '" +
+                            X.cell_name(k - 1, t.face) + "' in FILE is not a cell of SUB");
+        in_x[t.face] += t.coefficient;
+      }
+      for (auto&& v : A.boundary(k, i)) {
+        const auto t = lacuna::as_exact_incidence(v);
+        in_a[index_in_x[static_cast<std::size_t>(k - 1)][t.face]] += t.coefficient;
+      }
+      std::erase_if(in_x, [](const auto& kv) { return kv.second == lacuna::integer(0); });
+      std::erase_if(in_a, [](const auto& kv) { return kv.second == lacuna::integer(0); });
+      if (in_x != in_a) throw usage_error(where(name) + ": the cell '" + name + "' has another boundary in FILE");
+    }
+  return m;
 }
 
 std::string extension_of(const std::string& file) {
@@ -332,32 +460,59 @@ std::string extension_of(const std::string& file) {
   return ext;
 }
 
-void run_homology(const run_options& o) {
-  if (!std::filesystem::exists(o.file)) throw usage_error(o.file + ": no such file");
-  if (std::filesystem::is_directory(o.file)) throw usage_error(o.file + ": is a directory, not a file");
-  progress_line progress(!o.quiet);
+void check_input(const std::string& f) {
+  if (!std::filesystem::exists(f)) throw usage_error(f + ": no such file");
+  if (std::filesystem::is_directory(f)) throw usage_error(f + ": is a directory, not a file");
+}
+
+/// Reads FILE (and SUB, when o.relative is set) and hands them to fn(complex, marks or nullptr).
+template <class Fn>
+void with_input(const run_options& o, Fn&& fn) {
+  check_input(o.file);
   const std::string ext = extension_of(o.file);
   lacuna::io::read_limits limits;
   limits.max_cells = o.max_cells;
   lacuna::io::image_options image{.threshold = o.threshold, .limits = limits};
   if (o.threshold && ext != ".pbm" && ext != ".pgm" && ext != ".nrrd")
     throw usage_error("lacuna: --threshold applies to images and volumes (.pbm, .pgm, .nrrd), not to " + o.file);
-  if (ext == ".facets") {
-    compute_and_report(lacuna::io::read_facets(std::filesystem::path(o.file), {.max_cells = o.max_cells}), o, progress);
-  } else if (ext == ".cells") {
-    compute_and_report(lacuna::io::read_cells(std::filesystem::path(o.file), {.max_cells = o.max_cells}), o, progress);
-  } else if (ext == ".off") {
-    compute_and_report(lacuna::io::read_off(std::filesystem::path(o.file), limits), o, progress);
-  } else if (ext == ".obj") {
-    compute_and_report(lacuna::io::read_obj(std::filesystem::path(o.file), limits), o, progress);
-  } else if (ext == ".pbm" || ext == ".pgm") {
-    compute_and_report(lacuna::io::read_netpbm(std::filesystem::path(o.file), image), o, progress);
-  } else if (ext == ".nrrd") {
-    compute_and_report(lacuna::io::read_nrrd<3>(std::filesystem::path(o.file), image), o, progress);
-  } else {
+  const bool known = ext == ".facets" || ext == ".cells" || ext == ".off" || ext == ".obj" || ext == ".pbm" ||
+                     ext == ".pgm" || ext == ".nrrd";
+  if (!known)
     throw usage_error(o.file + ": unknown file type '" + ext +
                       "' (expected .facets, .cells, .off, .obj, .pbm, .pgm or .nrrd)");
+  if (!o.relative.empty()) {
+    if (ext != ".facets" && ext != ".cells")
+      throw usage_error("lacuna: a subcomplex (SUB) can be given for .facets and .cells files only, not for " + o.file);
+    check_input(o.relative);
+    if (extension_of(o.relative) != ext)
+      throw usage_error(o.relative + ": SUB must be in the format of FILE (a " + ext + " file)");
   }
+  if (ext == ".facets") {
+    const auto X = lacuna::io::read_facets(std::filesystem::path(o.file), {.max_cells = o.max_cells});
+    if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
+    const auto A = lacuna::io::read_facets(std::filesystem::path(o.relative), {.max_cells = o.max_cells});
+    const marks_t m = facets_marks(X, o.relative, A);
+    return fn(X, &m);
+  } else if (ext == ".cells") {
+    const auto X = lacuna::io::read_cells(std::filesystem::path(o.file), {.max_cells = o.max_cells});
+    if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
+    const auto A = lacuna::io::read_cells(std::filesystem::path(o.relative), {.max_cells = o.max_cells});
+    const marks_t m = cells_marks(X, o.relative, A);
+    return fn(X, &m);
+  } else if (ext == ".off") {
+    fn(lacuna::io::read_off(std::filesystem::path(o.file), limits), static_cast<const marks_t*>(nullptr));
+  } else if (ext == ".obj") {
+    fn(lacuna::io::read_obj(std::filesystem::path(o.file), limits), static_cast<const marks_t*>(nullptr));
+  } else if (ext == ".pbm" || ext == ".pgm") {
+    fn(lacuna::io::read_netpbm(std::filesystem::path(o.file), image), static_cast<const marks_t*>(nullptr));
+  } else {
+    fn(lacuna::io::read_nrrd<3>(std::filesystem::path(o.file), image), static_cast<const marks_t*>(nullptr));
+  }
+}
+
+void run_homology(const run_options& o) {
+  progress_line progress(!o.quiet);
+  with_input(o, [&](const auto& cx, const marks_t* marks) { compute_and_report(cx, o, progress, marks); });
 }
 
 /// An error message as one line: control characters (a newline in a file name, say) are
@@ -385,6 +540,8 @@ int main(int argc, char** argv) {
       ->check(CLI::Validator(  // CLI11 would read -1 as 2^64 - 1
           [](std::string& v) { return v.find('-') == std::string::npos ? std::string() : "must not be negative"; },
           "N"));
+  hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
+      ->type_name("SUB");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   try {
     try {
