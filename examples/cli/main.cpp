@@ -515,6 +515,188 @@ void run_homology(const run_options& o) {
   with_input(o, [&](const auto& cx, const marks_t* marks) { compute_and_report(cx, o, progress, marks); });
 }
 
+
+// ---- the long exact sequence of a pair (lacuna sequence SUB FILE) -------------------------
+
+/// An element of R as text: integers in decimal, Q as a or a/b, Z/p as 0 .. p-1.
+template <class R>
+std::string entry_text(const R& x, const coefficients& co) {
+  if constexpr (std::same_as<R, lacuna::rational>)
+    return x.value().str();
+  else if constexpr (std::same_as<R, lacuna::mod_p_dynamic>)
+    return text_of(x, co.p);
+  else
+    return text_of(x);
+}
+
+/// An element of R as JSON: a number, or over Q a string "a/b" when it is not an integer.
+template <class R>
+std::string entry_json(const R& x, const coefficients& co) {
+  std::string t = entry_text(x, co);
+  if (t.find('/') == std::string::npos) return t;
+  std::string out;
+  append_json_string(out, t);
+  return out;
+}
+
+template <class R, class C>
+void report_sequence(const C& X, const lacuna::pair_sequence<R>& p, const run_options& o, std::string& out) {
+  const auto verdict = p.check();
+  struct place {
+    std::string name;  // H_n(A), H_n(X), H_n(X,A)
+    std::string space;
+    int n;
+    const lacuna::homology_result<R>* h;
+    bool in_a;
+  };
+  struct arrow {
+    std::string name;
+    int n;
+    const lacuna::induced_homomorphism<R>* m;
+  };
+  std::vector<place> places;
+  std::vector<arrow> arrows;  // arrows[i] : places[i] -> places[i+1]
+  for (int n = p.top; n >= 0; --n) {
+    const std::string k = std::to_string(n);
+    const auto un = static_cast<std::size_t>(n);
+    places.push_back({"H_" + k + "(A)", "A", n, &p.hA, true});
+    arrows.push_back({"i_*", n, &p.i_star[un]});
+    places.push_back({"H_" + k + "(X)", "X", n, &p.hX, false});
+    arrows.push_back({"j_*", n, &p.j_star[un]});
+    places.push_back({"H_" + k + "(X,A)", "X,A", n, &p.hXA, false});
+    if (n > 0) arrows.push_back({"∂_*", n, &p.connecting[un]});
+  }
+  const lacuna::homology_group<R> none{};  // H_n of a complex whose top dimension is below n
+  auto group_of = [&](const place& pl) -> const lacuna::homology_group<R>& {
+    return pl.n <= pl.h->top_dimension() ? (*pl.h)[pl.n] : none;
+  };
+  auto torsion_texts = [&](const lacuna::homology_group<R>& g) {
+    std::vector<std::string> t;
+    for (const auto& x : g.torsion) t.push_back(entry_text(x, o.co));
+    return t;
+  };
+  auto name_of = [&](const place& pl, int k, std::size_t cell) {
+    return pl.in_a ? p.A.complex.cell_name(k, cell) : lacuna::cell_name(X, k, cell);
+  };
+  if (o.json) {
+    out += "{\n  \"coefficients\": ";
+    append_json_string(out, o.co.text);
+    out += ",\n  \"space\": ";
+    append_json_string(out, o.file);
+    out += ",\n  \"subcomplex\": ";
+    append_json_string(out, o.relative);
+    out += ",\n  \"groups\": [";
+    for (std::size_t g = 0; g < places.size(); ++g) {
+      const auto& pl = places[g];
+      const auto& hg = group_of(pl);
+      out += g ? ",\n    {" : "\n    {";
+      out += "\"name\": ";
+      append_json_string(out, pl.name);
+      out += ", \"space\": ";
+      append_json_string(out, pl.space);
+      out += ", \"dimension\": " + std::to_string(pl.n) + ", \"rank\": " + std::to_string(hg.rank) + ", \"torsion\": [";
+      const auto tt = torsion_texts(hg);
+      for (std::size_t i = 0; i < tt.size(); ++i) out += (i ? ", " : "") + tt[i];
+      out += "], \"generators\": [";
+      for (std::size_t i = 0; i < hg.generators.size(); ++i) {
+        const auto& ch = hg.generators[i];
+        out += i ? ", [" : "[";
+        for (std::size_t j = 0; j < ch.terms.size(); ++j) {
+          out += j ? ", [" : "[";
+          out += entry_json(ch.terms[j].coefficient, o.co) + ", ";
+          append_json_string(out, name_of(pl, ch.dimension, ch.terms[j].cell));
+          out += "]";
+        }
+        out += "]";
+      }
+      out += "]}";
+    }
+    out += "\n  ],\n  \"maps\": [";
+    for (std::size_t a = 0; a < arrows.size(); ++a) {
+      const auto& m = arrows[a].m->matrix;
+      out += a ? ",\n    {" : "\n    {";
+      out += "\"name\": ";
+      append_json_string(out, arrows[a].name);
+      out += ", \"dimension\": " + std::to_string(arrows[a].n) + ", \"from\": " + std::to_string(a) +
+             ", \"to\": " + std::to_string(a + 1) + ", \"matrix\": [";
+      for (std::size_t i = 0; i < m.rows(); ++i) {
+        out += i ? ", [" : "[";
+        for (std::size_t j = 0; j < m.cols(); ++j) out += (j ? ", " : "") + entry_json(m(i, j), o.co);
+        out += "]";
+      }
+      out += "]}";
+    }
+    out += "\n  ],\n  \"exact\": ";
+    out += verdict.exact ? "true" : "false";
+    out += ",\n  \"failures\": [";
+    bool first = true;
+    for (const auto& pl : verdict.places)
+      if (!pl.exact) {
+        out += first ? "" : ", ";
+        first = false;
+        append_json_string(out, pl.message);
+      }
+    out += "]\n}\n";
+    return;
+  }
+  out += "long exact sequence of the pair (X, A) = (" + o.file + ", " + o.relative + ") over " + o.co.text + "\n";
+  for (std::size_t g = 0; g < places.size(); ++g) {
+    const auto& pl = places[g];
+    const auto& hg = group_of(pl);
+    out += pl.name + " = " + group_text(hg.rank, torsion_texts(hg), o.co) + "\n";
+    for (std::size_t i = 0; i < hg.generators.size(); ++i) {
+      const auto& ch = hg.generators[i];
+      out += "  g" + std::to_string(i + 1) + " = ";
+      for (std::size_t j = 0; j < ch.terms.size(); ++j) {
+        std::string c = entry_text(ch.terms[j].coefficient, o.co);
+        const bool neg = !c.empty() && c[0] == '-';
+        if (neg) c = c.substr(1);
+        out += j == 0 ? (neg ? "-" : "") : (neg ? " - " : " + ");
+        if (c != "1") out += c + "*";
+        out += "[" + name_of(pl, ch.dimension, ch.terms[j].cell) + "]";
+      }
+      out += "\n";
+    }
+    if (g < arrows.size()) {
+      const auto& m = arrows[g].m->matrix;
+      out += "    " + arrows[g].name + ": " + pl.name + " -> " + places[g + 1].name + " = [";
+      for (std::size_t i = 0; i < m.rows(); ++i) {
+        out += i ? "; " : "";
+        for (std::size_t j = 0; j < m.cols(); ++j) out += (j ? " " : "") + entry_text(m(i, j), o.co);
+      }
+      out += "]\n";
+    }
+  }
+  if (verdict.exact) {
+    out += "exact at every place\n";
+  } else {
+    for (const auto& pl : verdict.places)
+      if (!pl.exact) out += pl.message + "\n";
+  }
+}
+
+void run_sequence(const run_options& o) {
+  if (o.relative.empty()) throw usage_error("lacuna: sequence: SUB must be a file name");
+  progress_line progress(!o.quiet);
+  with_input(o, [&](const auto& cx, const marks_t* marks) {
+    progress.phase("computing the long exact sequence");
+    std::string out;
+    auto go = [&]<class R>(const R& unit) { report_sequence(cx, lacuna::long_exact_sequence<R>(cx, *marks, unit), o, out); };
+    switch (o.co.k) {
+      case coefficients::integers: go(lacuna::one<lacuna::integer>()); break;
+      case coefficients::rationals: go(lacuna::one<lacuna::rational>()); break;
+      case coefficients::mod_p:
+        if (o.co.p == 2)
+          go(lacuna::one<lacuna::z2>());
+        else
+          go(lacuna::mod_p_dynamic(1, o.co.p));
+        break;
+    }
+    progress.stop();
+    write_out(out);
+  });
+}
+
 /// An error message as one line: control characters (a newline in a file name, say) are
 /// shown as '?', so that the message stays the single line FORMATS.md promises.
 std::string one_line(std::string s) {
@@ -543,6 +725,18 @@ int main(int argc, char** argv) {
   hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
       ->type_name("SUB");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
+  run_options so;
+  std::string seq_coeff_text = "Z";
+  auto* seq = app.add_subcommand("sequence", "the long exact sequence of the pair (FILE, SUB): groups, maps, exactness");
+  seq->add_option("--coefficients", seq_coeff_text, "Z (default), Q, or Z/p for a prime p");
+  seq->add_flag("--json", so.json, "one JSON object (docs/maps-and-sequences.md)");
+  seq->add_flag("--quiet", so.quiet, "no progress on stderr");
+  seq->add_option("--max-cells", so.max_cells, "refuse inputs announcing more cells than this")
+      ->check(CLI::Validator(
+          [](std::string& v) { return v.find('-') == std::string::npos ? std::string() : "must not be negative"; },
+          "N"));
+  seq->add_option("SUB", so.relative, "the subcomplex, in FILE's format (.facets or .cells)")->required();
+  seq->add_option("FILE", so.file, "the complex: .facets or .cells")->required();
   try {
     try {
       app.parse(argc, argv);
@@ -559,6 +753,12 @@ int main(int argc, char** argv) {
     }
     o.co = parse_coefficients(coeff_text);
     if (hom->parsed()) run_homology(o);
+    if (seq->parsed()) {
+      o.file = so.file;  // for messages
+      so.co = parse_coefficients(seq_coeff_text);
+      so.generators = true;
+      run_sequence(so);
+    }
     return 0;
   } catch (const usage_error& e) {
     std::cerr << one_line(e.what()) << "\n";
