@@ -373,7 +373,7 @@ std::vector<std::pair<std::size_t, std::string>> content_lines(const std::string
 
 /// marks for SUB, a facet list, in X: every listed simplex must be a simplex of X (its faces
 /// then are too, and SUB is closed by construction).
-marks_t facets_marks(const lacuna::simplicial_complex<std::string>& X, const std::string& sub,
+marks_t facets_marks(const lacuna::simplicial_complex<std::string>& X, const std::string& file, const std::string& sub,
                      const lacuna::simplicial_complex<std::string>& A) {
   for (const auto& [no, line] : content_lines(sub)) {
     std::istringstream words(line);
@@ -382,8 +382,7 @@ marks_t facets_marks(const lacuna::simplicial_complex<std::string>& X, const std
     if (!X.find_labels(labels)) {
       std::string name;
       for (const auto& l : labels) name += (name.empty() ? "" : " ") + l;
-      throw usage_error(sub + ":" + std::to_string(no) + ": the simplex '" + name + "' is not a cell of the complex " +
-                        "of FILE");
+      throw usage_error(sub + ":" + std::to_string(no) + ": the simplex '" + name + "' is not a simplex of " + file);
     }
   }
   marks_t m(static_cast<std::size_t>(std::max(X.top_dimension() + 1, 0)));
@@ -399,7 +398,7 @@ marks_t facets_marks(const lacuna::simplicial_complex<std::string>& X, const std
 
 /// marks for SUB, a cell list, in X: every cell of SUB is a cell of X of the same dimension
 /// and the same boundary, and every face of it in X is a cell of SUB.
-marks_t cells_marks(const lacuna::cell_list& X, const std::string& sub, const lacuna::cell_list& A) {
+marks_t cells_marks(const lacuna::cell_list& X, const std::string& file, const std::string& sub, const lacuna::cell_list& A) {
   std::map<std::string, std::size_t> line_of;
   for (const auto& [no, line] : content_lines(sub)) {
     std::size_t p = line.find_first_not_of(" \t");
@@ -424,10 +423,10 @@ marks_t cells_marks(const lacuna::cell_list& X, const std::string& sub, const la
     for (std::size_t i = 0; i < A.cell_count(k); ++i) {
       const std::string& name = A.cell_name(k, i);
       const auto f = X.find(name);
-      if (!f) throw usage_error(where(name) + ": the cell '" + name + "' is not a cell of FILE");
+      if (!f) throw usage_error(where(name) + ": the cell '" + name + "' is not a cell of " + file);
       if (f->first != k)
         throw usage_error(where(name) + ": the cell '" + name + "' has dimension " + std::to_string(k) +
-                          " here but " + std::to_string(f->first) + " in FILE");
+                          " here but " + std::to_string(f->first) + " in " + file);
       m[static_cast<std::size_t>(k)][f->second] = true;
       index_in_x[static_cast<std::size_t>(k)].push_back(f->second);
     }
@@ -440,7 +439,7 @@ marks_t cells_marks(const lacuna::cell_list& X, const std::string& sub, const la
         const auto t = lacuna::as_exact_incidence(v);
         if (!m[static_cast<std::size_t>(k - 1)][t.face])
           throw usage_error(where(name) + ": the cell '" + name + "' is not in a subcomplex: its face '" +
-                            X.cell_name(k - 1, t.face) + "' in FILE is not a cell of SUB");
+                            X.cell_name(k - 1, t.face) + "' in " + file + " is not a cell of " + sub);
         in_x[t.face] += t.coefficient;
       }
       for (auto&& v : A.boundary(k, i)) {
@@ -449,7 +448,7 @@ marks_t cells_marks(const lacuna::cell_list& X, const std::string& sub, const la
       }
       std::erase_if(in_x, [](const auto& kv) { return kv.second == lacuna::integer(0); });
       std::erase_if(in_a, [](const auto& kv) { return kv.second == lacuna::integer(0); });
-      if (in_x != in_a) throw usage_error(where(name) + ": the cell '" + name + "' has another boundary in FILE");
+      if (in_x != in_a) throw usage_error(where(name) + ": the cell '" + name + "' has another boundary in " + file);
     }
   return m;
 }
@@ -491,13 +490,13 @@ void with_input(const run_options& o, Fn&& fn) {
     const auto X = lacuna::io::read_facets(std::filesystem::path(o.file), {.max_cells = o.max_cells});
     if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
     const auto A = lacuna::io::read_facets(std::filesystem::path(o.relative), {.max_cells = o.max_cells});
-    const marks_t m = facets_marks(X, o.relative, A);
+    const marks_t m = facets_marks(X, o.file, o.relative, A);
     return fn(X, &m);
   } else if (ext == ".cells") {
     const auto X = lacuna::io::read_cells(std::filesystem::path(o.file), {.max_cells = o.max_cells});
     if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
     const auto A = lacuna::io::read_cells(std::filesystem::path(o.relative), {.max_cells = o.max_cells});
-    const marks_t m = cells_marks(X, o.relative, A);
+    const marks_t m = cells_marks(X, o.file, o.relative, A);
     return fn(X, &m);
   } else if (ext == ".off") {
     fn(lacuna::io::read_off(std::filesystem::path(o.file), limits), static_cast<const marks_t*>(nullptr));
