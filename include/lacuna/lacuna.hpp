@@ -34,6 +34,7 @@
 #include <lacuna/homology/induced_map.hpp>
 #include <lacuna/homology/exact_sequence.hpp>
 #include <lacuna/homology/euler_checks.hpp>
+#include <lacuna/homology/mayer_vietoris.hpp>
 
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/cells.hpp>
