@@ -105,7 +105,10 @@ class cell_list {
   /// The boundary of a cell: a random-access view of exact_incidence values, over the int64
   /// or the exact storage of its dimension. Models std::ranges::random_access_range and
   /// std::ranges::sized_range; the terms are values (prvalues), not references.
-  class boundary_view : public std::ranges::view_interface<boundary_view> {
+  // (No std::ranges::view_interface base: clang 14 with libstdc++ 12 cannot check its
+  // constraints on a nested class; the members it would add are written out below, and the
+  // view_base tag makes it a std::ranges::view.)
+  class boundary_view : public std::ranges::view_base {
    public:
     class iterator {
      public:
@@ -147,6 +150,10 @@ class cell_list {
     iterator begin() const { return {s_, e_, 0}; }
     iterator end() const { return {s_, e_, static_cast<std::ptrdiff_t>(n_)}; }
     std::size_t size() const { return n_; }
+    bool empty() const { return n_ == 0; }
+    exact_incidence operator[](std::size_t i) const { return begin()[static_cast<std::ptrdiff_t>(i)]; }
+    exact_incidence front() const { return (*this)[0]; }
+    exact_incidence back() const { return (*this)[n_ - 1]; }
     /// True when the terms are stored as int64 (then small_terms() holds them).
     bool is_small() const { return s_ != nullptr || e_ == nullptr; }
     /// The int64 terms. Precondition: is_small().

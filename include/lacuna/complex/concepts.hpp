@@ -166,7 +166,7 @@ namespace incidence_detail {
 /// Reads an incidence-like value as lacuna::incidence (64-bit). Throws std::overflow_error if
 /// the coefficient does not fit in std::int64_t (read such values with coefficient_as_integer).
 template <incidence_like V>
-constexpr incidence as_incidence(const V& v) {
+incidence as_incidence(const V& v) {
   using T = incidence_coefficient_t<V>;
   const std::size_t face = incidence_face(v);
   if constexpr (small_incidence_like<V>) {

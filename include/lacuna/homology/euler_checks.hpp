@@ -87,7 +87,9 @@ euler_report euler_checks(const C& X, const euler_check_options& options = {}) {
     add("χ(X) = χ(A) + χ(X, A)", chiQ, chiA + chiXA);
   }
   if (options.cover) {
-    const auto& [a, b] = *options.cover;
+    // (Not a structured binding: clang 14 cannot capture one in a lambda.)
+    const auto& a = options.cover->first;
+    const auto& b = options.cover->second;
     const std::int64_t chiU = detail::chi_rational(X, [&](int k, std::size_t i) { return detail::mark(a, k, i) || detail::mark(b, k, i); });
     const std::int64_t chiA = detail::chi_rational(X, [&](int k, std::size_t i) { return detail::mark(a, k, i); });
     const std::int64_t chiB = detail::chi_rational(X, [&](int k, std::size_t i) { return detail::mark(b, k, i); });

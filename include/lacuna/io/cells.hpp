@@ -70,7 +70,7 @@ inline std::string near(std::string_view rest) {
   std::size_t n = 0;
   while (n < rest.size() && !is_space(rest[n]) && n < 20) ++n;
   if (n == 0) return "the end of the line";
-  return detail::concat("'", rest.substr(0, n), "'");
+  return lacuna::detail::concat("'", rest.substr(0, n), "'");
 }
 
 struct cursor {
@@ -246,7 +246,7 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
     }
     // add up repeated faces exactly, then check ∂∂ = 0 exactly (lacuna::integer: 64-bit
     // arithmetic inline while the numbers fit)
-    detail::normalize_chain(terms);
+    lacuna::detail::normalize_chain(terms);
     if (dim >= 2) {
       dd.clear();
       for (const auto& t : terms)
@@ -310,7 +310,7 @@ void write_cells(std::ostream& out, const C& c) {
       for (std::size_t i = 0; i < names[static_cast<std::size_t>(k)].size(); ++i) {
         auto& o = originals[static_cast<std::size_t>(k)][i];
         if (o.empty()) o = names[static_cast<std::size_t>(k)][i];
-        names[static_cast<std::size_t>(k)][i] = detail::concat("e", std::to_string(k), "_", std::to_string(i));
+        names[static_cast<std::size_t>(k)][i] = lacuna::detail::concat("e", std::to_string(k), "_", std::to_string(i));
       }
   for (int k = 0; k <= top; ++k)
     for (std::size_t i = 0; i < lacuna::cell_count(c, k); ++i) {
