@@ -16,14 +16,13 @@
 // dimension top - L, and the boundary of a cell is its coboundary.
 #pragma once
 
+#include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/ring/concepts.hpp>
 
 #include <algorithm>
-#include <exception>
-#include <thread>
 #include <cstdint>
 #include <limits>
 #include <span>
@@ -245,23 +244,11 @@ class reducible_complex {
         const std::size_t w = kept[k] * static_cast<std::size_t>(k + 1);
         if (w > best) best = w, big = k;
       }
-      std::exception_ptr failure;
-      std::thread worker([&] {
-        try {
-          build_dimension(big);
-        } catch (...) {
-          failure = std::current_exception();
-        }
-      });
-      try {
-        for (int k = 1; k <= top; ++k)
-          if (k != big) build_dimension(k);
-      } catch (...) {
-        worker.join();
-        throw;
-      }
-      worker.join();
-      if (failure) std::rethrow_exception(failure);
+      detail::side_by_side([&] { build_dimension(big); },
+                           [&] {
+                             for (int k = 1; k <= top; ++k)
+                               if (k != big) build_dimension(k);
+                           });
     } else {
       for (int k = 1; k <= top; ++k) build_dimension(k);
     }

@@ -22,14 +22,13 @@
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
 #include <lacuna/ring/integer.hpp>
 
 #include <cstdint>
-#include <exception>
-#include <thread>
 #include <memory>
 #include <optional>
 #include <stdexcept>
@@ -276,22 +275,10 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     const int top_level = rc.levels() - 1;
     if (opt.threads >= 2 && top_level >= 1) {
       // Levels are independent: the top one (usually the largest lift) beside the others.
-      std::exception_ptr failure;
-      std::thread worker([&] {
-        try {
-          lift_level(top_level);
-        } catch (...) {
-          failure = std::current_exception();
-        }
-      });
-      try {
-        for (int L = 0; L < top_level; ++L) lift_level(L);
-      } catch (...) {
-        worker.join();
-        throw;
-      }
-      worker.join();
-      if (failure) std::rethrow_exception(failure);
+      detail::side_by_side([&] { lift_level(top_level); },
+                           [&] {
+                             for (int L = 0; L < top_level; ++L) lift_level(L);
+                           });
     } else {
       for (int L = 0; L < rc.levels(); ++L) lift_level(L);
     }
