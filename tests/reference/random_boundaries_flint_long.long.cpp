@@ -4,4 +4,4 @@
 #include "random_flint_checks.hpp"
 
 TEST_CASE("random complexes against FLINT, many (seed 902)") { random_flint::suite(902, 80, 4, 8); }
-TEST_CASE("random complexes against FLINT, larger (seed 903)") { random_flint::suite(903, 10, 7, 10); }
+TEST_CASE("random complexes against FLINT, larger (seed 903)") { random_flint::suite(903, 8, 5, 9); }
