@@ -209,8 +209,16 @@ struct run_options {
   bool json = false;
   bool quiet = false;
   std::optional<std::int64_t> threshold;
-  std::uint64_t max_cells = std::uint64_t{1} << 32;
+  std::optional<std::uint64_t> max_cells;           ///< unset: each reader's own default
+  std::optional<std::uint64_t> max_facet_vertices;  ///< .facets: labels per line; unset: the reader's
 };
+
+lacuna::io::facets_read_options facets_options(const run_options& o) {
+  lacuna::io::facets_read_options f;
+  if (o.max_cells) f.max_cells = static_cast<std::size_t>(*o.max_cells);
+  if (o.max_facet_vertices) f.max_facet_vertices = static_cast<std::size_t>(*o.max_facet_vertices);
+  return f;
+}
 
 template <class R, class C>
 void report(const C& cx, const lacuna::homology_result<R>& h, const run_options& o, std::string& out,
@@ -470,7 +478,9 @@ void with_input(const run_options& o, Fn&& fn) {
   check_input(o.file);
   const std::string ext = extension_of(o.file);
   lacuna::io::read_limits limits;
-  limits.max_cells = o.max_cells;
+  if (o.max_cells) limits.max_cells = *o.max_cells;
+  lacuna::io::cells_read_options cells_options;
+  if (o.max_cells) cells_options.max_cells = static_cast<std::size_t>(*o.max_cells);
   lacuna::io::image_options image{.threshold = o.threshold, .limits = limits};
   if (o.threshold && ext != ".pbm" && ext != ".pgm" && ext != ".nrrd")
     throw usage_error("lacuna: --threshold applies to images and volumes (.pbm, .pgm, .nrrd), not to " + o.file);
@@ -487,15 +497,15 @@ void with_input(const run_options& o, Fn&& fn) {
       throw usage_error(o.relative + ": SUB must be in the format of FILE (a " + ext + " file)");
   }
   if (ext == ".facets") {
-    const auto X = lacuna::io::read_facets(std::filesystem::path(o.file), {.max_cells = o.max_cells});
+    const auto X = lacuna::io::read_facets(std::filesystem::path(o.file), facets_options(o));
     if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
-    const auto A = lacuna::io::read_facets(std::filesystem::path(o.relative), {.max_cells = o.max_cells});
+    const auto A = lacuna::io::read_facets(std::filesystem::path(o.relative), facets_options(o));
     const marks_t m = facets_marks(X, o.file, o.relative, A);
     return fn(X, &m);
   } else if (ext == ".cells") {
-    const auto X = lacuna::io::read_cells(std::filesystem::path(o.file), {.max_cells = o.max_cells});
+    const auto X = lacuna::io::read_cells(std::filesystem::path(o.file), cells_options);
     if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
-    const auto A = lacuna::io::read_cells(std::filesystem::path(o.relative), {.max_cells = o.max_cells});
+    const auto A = lacuna::io::read_cells(std::filesystem::path(o.relative), cells_options);
     const marks_t m = cells_marks(X, o.file, o.relative, A);
     return fn(X, &m);
   } else if (ext == ".off") {
@@ -708,6 +718,12 @@ std::string one_line(std::string s) {
 
 int main(int argc, char** argv) {
   CLI::App app{"lacuna: exact homology of cell complexes from files"};
+  // a count: CLI11 would read -1 as 2^64 - 1, and "" as no value at all
+  const CLI::Validator count_validator(
+      [](std::string& v) {
+        return !v.empty() && v.find('-') == std::string::npos ? std::string() : "must be a non-negative integer";
+      },
+      "N");
   app.require_subcommand(1);
   run_options o;
   std::string coeff_text = "Z";
@@ -717,10 +733,11 @@ int main(int argc, char** argv) {
   hom->add_flag("--json", o.json, "one JSON object (shared/FORMATS.md)");
   hom->add_flag("--quiet", o.quiet, "no progress on stderr");
   hom->add_option("--threshold", o.threshold, "images and volumes: foreground is a value >= T");
+  hom->add_option("--max-facet-vertices", o.max_facet_vertices,
+                  ".facets: refuse a line of more labels than this (default 20)")
+      ->check(count_validator);
   hom->add_option("--max-cells", o.max_cells, "refuse inputs announcing more cells than this")
-      ->check(CLI::Validator(  // CLI11 would read -1 as 2^64 - 1
-          [](std::string& v) { return v.find('-') == std::string::npos ? std::string() : "must not be negative"; },
-          "N"));
+      ->check(count_validator);
   hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
       ->type_name("SUB");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
@@ -730,10 +747,11 @@ int main(int argc, char** argv) {
   seq->add_option("--coefficients", seq_coeff_text, "Z (default), Q, or Z/p for a prime p");
   seq->add_flag("--json", so.json, "one JSON object (docs/maps-and-sequences.md)");
   seq->add_flag("--quiet", so.quiet, "no progress on stderr");
+  seq->add_option("--max-facet-vertices", so.max_facet_vertices,
+                  ".facets: refuse a line of more labels than this (default 20)")
+      ->check(count_validator);
   seq->add_option("--max-cells", so.max_cells, "refuse inputs announcing more cells than this")
-      ->check(CLI::Validator(
-          [](std::string& v) { return v.find('-') == std::string::npos ? std::string() : "must not be negative"; },
-          "N"));
+      ->check(count_validator);
   seq->add_option("SUB", so.relative, "the subcomplex, in FILE's format (.facets or .cells)")->required();
   seq->add_option("FILE", so.file, "the complex: .facets or .cells")->required();
   try {

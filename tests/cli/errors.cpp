@@ -1,5 +1,6 @@
 // The error contract of shared/FORMATS.md, for every error class: exit status 2, nothing on
 // stdout, exactly one line on stderr, "FILE:LINE: what is wrong" where a line is known.
+#include "json_checks.hpp"
 #include "run.hpp"
 
 #include <regex>
@@ -154,6 +155,22 @@ TEST_CASE("errors: damaged images, volumes and meshes") {
   // not an image at all
   f = dir.write("text.pgm", "hello\n");
   expect_located(expect_error(run({"homology", f})), f, 1);
+}
+
+TEST_CASE("errors: a short .facets line that implies too many simplices") {
+  temp_dir dir;
+  // 21 labels on line 2: 2^21 - 1 faces, over the default of 20 labels per line
+  std::string labels;
+  for (int i = 0; i < 21; ++i) labels += std::string(1, static_cast<char>('a' + i)) + " ";
+  const auto f = dir.write("wide.facets", "# one wide simplex\n" + labels + "\n");
+  expect_located(expect_error(run({"homology", f})), f, 2);
+  // raising the limit lets it through: the 20-simplex is contractible, b0 = 1
+  const auto r = run({"homology", "--quiet", "--json", "--max-facet-vertices", "21", f});
+  const auto j = parse_result(r);
+  REQUIRE(groups_of(j).size() == 21);
+  CHECK(groups_of(j)[0] == group{1, {}});
+  CHECK(cells_of(j)[20] == 1);  // C(21, 21): the one 20-simplex
+  expect_error(run({"homology", "--max-facet-vertices", "-3", f}));
 }
 
 TEST_CASE("errors: --max-cells exceeded") {

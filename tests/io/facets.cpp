@@ -66,7 +66,7 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
       {"facets_bad_utf8.facets", 2, "a label is not valid UTF-8"},
       {"facets_truncated_utf8.facets", 1, "a label is not valid UTF-8"},
       {"facets_too_large.facets", 2,
-       "a simplex with 40 vertices has 2^40 - 1 faces, more than the limit of 2147483648 cells"},
+       "a simplex with 40 vertices (2^40 - 1 faces) is more than the limit of 20 vertices per line"},
   };
   for (const auto& e : cases) {
     CAPTURE(e.file);
@@ -84,9 +84,39 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
   CHECK(error_of("a b\n\xe0\x80\x80 c\n") == "test.facets:2: a label is not valid UTF-8");  // overlong form
   CHECK(error_of("a \xed\xa0\x80\n") == "test.facets:1: a label is not valid UTF-8");       // a surrogate
   CHECK(error_of("a b c d e\n", {.max_cells = 16}) ==
-        "test.facets:1: a simplex with 5 vertices has 2^5 - 1 faces, more than the limit of 16 cells");
-  CHECK(error_of("a b c d\nd e f g\n", {.max_cells = 20}) == "test.facets: simplicial complex: more than 20 simplices");
+        "test.facets:1: the facets up to this line imply up to 31 simplices, more than the limit of 16 cells");
+  CHECK(error_of("a b c d\nd e f g\n", {.max_cells = 20}) ==
+        "test.facets:2: the facets up to this line imply up to 30 simplices, more than the limit of 20 cells");
   CHECK(error_of("a b c d\n", {.max_cells = 15}) == "no error");  // exactly at the limit
+  // the sum counts duplicates: it bounds the reader's work, not only the complex (15 simplices)
+  CHECK(error_of("a b c d\nb c d a\n", {.max_cells = 20}) ==
+        "test.facets:2: the facets up to this line imply up to 30 simplices, more than the limit of 20 cells");
+  CHECK(error_of("a b c d\nb c d a\n", {.max_cells = 30}) == "no error");
+}
+
+TEST_CASE("a short hostile line is refused by the default limits before anything is built") {
+  // 28 one-letter labels: 56 bytes that imply 2^28 - 1 simplices (about 3 GB once built)
+  std::string line;
+  for (int i = 0; i < 28; ++i) line += std::string(1, static_cast<char>('A' + i % 26)) + (i >= 26 ? "x " : " ");
+  CHECK(error_of(line + "\n") == "test.facets:1: a simplex with 28 vertices (2^28 - 1 faces) is more than the limit of 20 "
+                                 "vertices per line");
+  // twenty vertices per line are accepted by default; more when the caller raises the limit
+  std::string twenty, twenty_one;
+  for (int i = 0; i < 21; ++i) (i < 20 ? twenty : twenty_one) += lacuna::detail::concat("v", std::to_string(i), " ");
+  twenty_one = twenty + twenty_one;
+  CHECK(error_of(twenty + "\n") == "no error");
+  CHECK(error_of(twenty_one + "\n") ==
+        "test.facets:1: a simplex with 21 vertices (2^21 - 1 faces) is more than the limit of 20 vertices per line");
+  CHECK(error_of(twenty_one + "\n", {.max_facet_vertices = 21}) == "no error");
+  // the default sum limit, 2^28: 257 lines of 20 fresh vertices imply 257 (2^20 - 1) > 2^28
+  // simplices; the reader stops at line 257 having built nothing
+  std::string many;
+  for (int l = 0; l < 257; ++l) {
+    for (int i = 0; i < 20; ++i) many += lacuna::detail::concat("w", std::to_string(l), "_", std::to_string(i), " ");
+    many += "\n";
+  }
+  CHECK(error_of(many) == "test.facets:257: the facets up to this line imply up to 269483775 simplices, more than "
+                          "the limit of 268435456 cells");
   const std::string missing = std::string(LACUNA_TEST_DATA_DIR) + "/complex/no_such_file.facets";
   CHECK_THROWS_WITH_AS(lacuna::io::read_facets(std::filesystem::path(missing)), (missing + ": cannot open the file").c_str(),
                        lacuna::parse_error);

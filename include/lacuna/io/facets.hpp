@@ -9,8 +9,11 @@
 // appearance. Errors are lacuna::parse_error, "FILE:LINE: message":
 //   * a label repeated within one line;
 //   * bytes that are not UTF-8;
-//   * a line whose closure alone exceeds options.max_cells (2^n - 1 faces for n labels),
-//     and a complex of more than max_cells simplices in all (reported with line 0).
+//   * a line of more than options.max_facet_vertices labels;
+//   * facets whose closures, counted line by line before duplicates merge (2^n - 1 faces for
+//     n labels), add up to more than options.max_cells (reported at the line that crosses
+//     it). This sum bounds the reader's work and memory, so a short hostile file (one line
+//     of 28 one-letter labels implies 2^28 simplices) is refused before anything is built.
 // The writer writes the maximal simplices in lexicographic order of vertex ids, adding a
 // line with a single vertex where that is needed to keep the numbering, so that reading the
 // output back gives the same complex (same numbering, same orientation).
@@ -35,8 +38,11 @@ namespace lacuna::io {
 
 /// Limits a reader applies before it allocates.
 struct facets_read_options {
-  /// The most simplices the complex may have (its closure included).
-  std::size_t max_cells = std::size_t{1} << 31;
+  /// The most simplices the facets may imply, summed line by line before duplicates merge
+  /// (so also a bound on the complex). 2^28 simplices take about 3 GB once built.
+  std::size_t max_cells = std::size_t{1} << 28;
+  /// The most labels one line may hold: a simplex of n vertices brings 2^n - 1 faces.
+  std::size_t max_facet_vertices = 20;
 };
 
 namespace facets_detail {
@@ -99,6 +105,7 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
   std::string line;
   std::vector<std::string> labels;
   std::size_t line_number = 0;
+  std::uint64_t implied = 0;  // the closures' sizes so far, duplicates counted
   while (std::getline(in, line)) {
     ++line_number;
     if (const auto hash = line.find('#'); hash != std::string::npos) line.erase(hash);
@@ -114,10 +121,18 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
       if (!facets_detail::valid_utf8(l)) throw parse_error(file_name, line_number, "a label is not valid UTF-8");
     // 2^n - 1 faces for n labels: refuse before the builder allocates them
     const std::size_t n = labels.size();
-    if (n >= 63 || ((std::uint64_t{1} << n) - 1) > options.max_cells)
+    if (n > options.max_facet_vertices)
       throw parse_error(file_name, line_number,
-                        "a simplex with " + std::to_string(n) + " vertices has 2^" + std::to_string(n) +
-                            " - 1 faces, more than the limit of " + std::to_string(options.max_cells) + " cells");
+                        "a simplex with " + std::to_string(n) + " vertices (2^" + std::to_string(n) +
+                            " - 1 faces) is more than the limit of " + std::to_string(options.max_facet_vertices) +
+                            " vertices per line");
+    const std::uint64_t faces = n >= 63 ? ~std::uint64_t{0} : (std::uint64_t{1} << n) - 1;
+    if (faces > options.max_cells || implied > options.max_cells - faces)
+      throw parse_error(file_name, line_number,
+                        "the facets up to this line imply up to " +
+                            (faces > ~std::uint64_t{0} - implied ? std::string("2^64") : std::to_string(implied + faces)) +
+                            " simplices, more than the limit of " + std::to_string(options.max_cells) + " cells");
+    implied += faces;
     for (std::size_t i = 0; i < n; ++i)
       for (std::size_t j = i + 1; j < n; ++j)
         if (labels[i] == labels[j])
