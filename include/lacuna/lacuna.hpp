@@ -21,6 +21,7 @@
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/run_control.hpp>
 
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>

@@ -12,9 +12,11 @@
 #pragma once
 
 #include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/run_control.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
 
+#include <algorithm>
 #include <cstddef>
 #include <optional>
 #include <vector>
@@ -35,6 +37,8 @@ struct smith_decomposition {
 /// Options of dense_smith_form.
 struct dense_smith_options {
   bool transforms = false;  ///< keep U, U^-1, V, V^-1
+  /// Stop request and progress (phase "Smith form of the core", units: pivots); may be null.
+  const run_control* control = nullptr;
 };
 
 /// The Smith normal form of A. R models euclidean_domain. O(m n min(m,n)) ring operations
@@ -68,8 +72,10 @@ smith_decomposition<R> dense_smith_form(dense_matrix<R> A, dense_smith_options o
     if (tr) out.V.add_col(dst, s, src), out.V_inv.add_row(src, -s, dst);
   };
 
+  detail::progress_ticker ticker(options.control, "Smith form of the core", std::min(m, n));
   std::size_t t = 0;
   for (; t < m && t < n; ++t) {
+    ticker();
     // The pivot: least Euclidean size in the remaining submatrix.
     std::optional<std::pair<std::size_t, std::size_t>> best;
     for (std::size_t i = t; i < m; ++i)
@@ -126,6 +132,7 @@ smith_decomposition<R> dense_smith_form(dense_matrix<R> A, dense_smith_options o
     out.diagonal.push_back(A(t, t));
   }
   out.rank = out.diagonal.size();
+  ticker.finish();
   return out;
 }
 

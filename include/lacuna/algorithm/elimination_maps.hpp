@@ -11,6 +11,7 @@
 #pragma once
 
 #include <lacuna/algorithm/unit_elimination.hpp>
+#include <lacuna/chain/run_control.hpp>
 
 #include <cstdint>
 #include <limits>
@@ -27,10 +28,12 @@ using level_chain = std::vector<sparse_entry<R>>;
 /// chains of the original complex, all at once: g applied to each. level_size is the number
 /// of cells of that level in the original complex. Cost: proportional to the log of that
 /// level times the number of chains meeting each step, not to the number of chains times
-/// the log. Each result is sorted by index.
+/// the log. Each result is sorted by index. A control's stop request is checked every 4096
+/// steps (safe from any thread; its progress callback is not called).
 template <class R>
 std::vector<level_chain<R>> lift_chains(const elimination_log<R>& log, int level, std::size_t level_size,
-                                        const std::vector<level_chain<R>>& chains) {
+                                        const std::vector<level_chain<R>>& chains,
+                                        const run_control* control = nullptr) {
   constexpr std::uint32_t none = std::numeric_limits<std::uint32_t>::max();
   struct node {
     std::uint32_t chain;
@@ -46,7 +49,9 @@ std::vector<level_chain<R>> lift_chains(const elimination_log<R>& log, int level
     }
   std::vector<R> acc(chains.size(), zero<R>());
   std::vector<std::uint32_t> touched;
+  std::size_t seen = 0;
   for (auto s = log.steps.rbegin(); s != log.steps.rend(); ++s) {
+    if (control && (++seen & 4095) == 0) control->check();
     if (s->level != level) continue;
     touched.clear();
     for (std::size_t k = s->affected_begin; k < s->affected_end; ++k) {

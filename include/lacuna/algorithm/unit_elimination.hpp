@@ -24,6 +24,7 @@
 
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/run_control.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
 
@@ -44,6 +45,8 @@ struct elimination_options {
   bool record = false;       ///< keep the log (needed for generators and chain maps)
   bool record_pivots = true; ///< with the log: also each pivot's boundary (needed to push chains)
   bool second_pass = true;   ///< after set-aside, reduce the critical cells once more (Markowitz)
+  /// Stop request and progress (phase "eliminating unit pivots", units: cells); may be null.
+  const run_control* control = nullptr;
 };
 
 /// One eliminated pivot: a at `level`, b at level-1, c = <da, b> a unit.
@@ -103,7 +106,7 @@ class unit_eliminator {
 
  public:
   unit_eliminator(reducible_complex<R>& rc, const elimination_options& opt, elimination_log<R>* log)
-      : rc_(rc), opt_(opt), log_(log) {}
+      : rc_(rc), opt_(opt), log_(log), ticker_(opt.control, "eliminating unit pivots", total_cells(rc)) {}
 
   elimination_statistics run() {
     const int nl = rc_.levels();
@@ -130,6 +133,7 @@ class unit_eliminator {
       loop(false);
     }
     rebuild_cofaces();
+    ticker_.finish();
     return stats_;
   }
 
@@ -147,6 +151,11 @@ class unit_eliminator {
           for (const auto& e : rc_.boundary(L, i)) rc_.add_coface(L - 1, e.index, i);
   }
   bool critical(int L, std::uint32_t i) const { return rc_.cell_state(L, i) == st::critical; }
+  static std::uint64_t total_cells(const reducible_complex<R>& rc) {
+    std::uint64_t n = 0;
+    for (int L = 0; L < rc.levels(); ++L) n += rc.size(L);
+    return n;
+  }
 
   void recount(int L, std::uint32_t i) {
     std::uint32_t n = 0;
@@ -256,6 +265,7 @@ class unit_eliminator {
       std::uint32_t a, b;
     };
     std::vector<cand> cands;
+    if (opt_.control) opt_.control->check();
     for (int L = 1; L < rc_.levels(); ++L)
       for (std::uint32_t a = 0; a < rc_.size(L); ++a) {
         if (rc_.cell_state(L, a) != st::active) continue;
@@ -300,6 +310,7 @@ class unit_eliminator {
 
   // Eliminates the pivot (a at level L, b at level L-1), c = <da, b>, inv = c^-1.
   void eliminate(int L, std::uint32_t a, std::uint32_t b, const R& c, const R& inv) {
+    ticker_(2);
     // Copies: the boundary and coface storage may move while other cells change.
     const auto da_span = rc_.boundary(L, a);
     pivot_.assign(da_span.begin(), da_span.end());
@@ -408,6 +419,7 @@ class unit_eliminator {
   std::vector<std::uint32_t> stack_;
   std::vector<sparse_entry<R>> scratch_, pivot_;
   std::vector<std::uint32_t> ys_, xs_;
+  progress_ticker ticker_;
 };
 
 }  // namespace detail

@@ -16,6 +16,7 @@
 // dimension top - L, and the boundary of a cell is its coboundary.
 #pragma once
 
+#include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/complex/concepts.hpp>
@@ -49,6 +50,8 @@ struct reducible_build_options {
   /// Threads for the build (1: the calling thread only). With 2 or more, the boundary()
   /// of the complex is called from two threads at once.
   unsigned threads = 1;
+  /// Stop request (checked every 4096 cells, from either thread); may be null.
+  const run_control* control = nullptr;
 };
 
 /// A mutable sparse chain complex. R models commutative_ring (the working coefficients).
@@ -177,6 +180,7 @@ class reducible_complex {
       off.reserve(kept[k] + 1);
       off.push_back(0);
       for (std::size_t i = 0; i < n; ++i) {
+        if (opt.control && (i & 4095) == 0) opt.control->check();
         const std::int64_t li = local[k].empty() ? static_cast<std::int64_t>(i) : local[k][i];
         if (li < 0) continue;
         scratch.clear();

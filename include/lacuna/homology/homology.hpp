@@ -22,6 +22,7 @@
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/ring/concepts.hpp>
@@ -58,6 +59,11 @@ struct homology_options {
   /// different dimensions). Results do not depend on it. With 2 or more, the complex's
   /// boundary() is called from two threads at once (safe for lacuna's own complexes).
   unsigned threads = 1;
+  /// A stop request and a progress callback (lacuna/chain/run_control.hpp): a stopped
+  /// computation throws lacuna::computation_stopped and returns nothing. Phases reported:
+  /// "building the chain complex", "eliminating unit pivots", "Smith form of the core",
+  /// "lifting generators".
+  run_control control{};
 };
 
 /// One homology group H_k = R^rank + R/t_1 + ... + R/t_m (t_1 | t_2 | ..., non-units).
@@ -143,7 +149,7 @@ dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<le
 
 template <class R, class W>
 std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool want_generators, bool keep,
-                                         std::vector<level_basis<R>>& lb) {
+                                         std::vector<level_basis<R>>& lb, const run_control* control = nullptr) {
   const int nl = rc.levels();
   lb.assign(nl, {});
   for (int L = 0; L < nl; ++L) {
@@ -166,7 +172,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
   if (!want_generators && !keep) {
     // Ranks and invariant factors of each core boundary matrix suffice.
     std::vector<smith_decomposition<R>> snf(nl + 1);
-    for (int L = 1; L < nl; ++L) snf[L] = dense_smith_form(core_matrix<R>(rc, lb, L));
+    for (int L = 1; L < nl; ++L) snf[L] = dense_smith_form(core_matrix<R>(rc, lb, L), {.control = control});
     for (int L = 0; L < nl; ++L) {
       const std::size_t rL = L >= 1 ? snf[L].rank : 0;
       const std::size_t rN = L + 1 < nl ? snf[L + 1].rank : 0;
@@ -182,7 +188,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
     const std::size_t n = b.core.size();
     smith_decomposition<R> s1;
     if (L >= 1) {
-      s1 = dense_smith_form(core_matrix<R>(rc, lb, L), {.transforms = true});
+      s1 = dense_smith_form(core_matrix<R>(rc, lb, L), {.transforms = true, .control = control});
     } else {
       s1.rank = 0;
       s1.V = s1.V_inv = dense_matrix<R>::identity(n);
@@ -195,7 +201,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
       for (std::size_t i = 0; i < kdim; ++i)
         for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.r + i, j);
     }
-    auto s2 = dense_smith_form(M, {.transforms = true});
+    auto s2 = dense_smith_form(M, {.transforms = true, .control = control});
     b.factors = s2.diagonal;
     b.V_inv = s1.V_inv;
     b.U_M = s2.U;
@@ -248,11 +254,15 @@ template <class R, class W, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
                                             reducible_build_options build, std::shared_ptr<homology_basis<R>>* basis,
                                             const R& unit) {
+  const run_control* control = &opt.control;
+  build.control = control;
+  control->report("building the chain complex", 0, 1);
   reducible_complex<W> rc;
   if constexpr (std::same_as<R, W>)
     rc = reducible_complex<W>::build(c, build, unit);
   else
     rc = reducible_complex<W>::build(c, build);
+  control->report("building the chain complex", 1, 1);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
@@ -260,14 +270,16 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     auto eo = alg.elimination;
     eo.record = want_log;
     eo.record_pivots = keep;
+    eo.control = control;
     eliminate_unit_pivots(rc, eo, want_log ? &log : nullptr);
   }
   std::vector<level_basis<R>> lb;
-  auto levels = finish_core<R>(rc, opt.generators, keep, lb);
+  auto levels = finish_core<R>(rc, opt.generators, keep, lb, control);
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators) {
+    control->report("lifting generators", 0, 1);
     auto lift_level = [&](int L) {
-      auto lifted = lift_chains(rlog, L, rc.size(L), levels[L].generators);
+      auto lifted = lift_chains(rlog, L, rc.size(L), levels[L].generators, control);
       levels[L].generators = std::move(lifted);
       for (auto& ch : levels[L].generators)
         for (auto& e : ch) e.index = rc.original_index(L, e.index);
@@ -282,6 +294,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     } else {
       for (int L = 0; L < rc.levels(); ++L) lift_level(L);
     }
+    control->report("lifting generators", 1, 1);
   }
   if (basis && keep) {
     auto hb = std::make_shared<homology_basis<R>>();
