@@ -20,6 +20,7 @@
 #include <lacuna/ring/z2.hpp>
 
 #include <CLI/CLI.hpp>
+#include <pthread.h>
 #include <unistd.h>
 
 #include <atomic>
@@ -34,6 +35,7 @@
 #include <mutex>
 #include <optional>
 #include <sstream>
+#include <stop_token>
 #include <string>
 #include <thread>
 #include <variant>
@@ -78,14 +80,25 @@ coefficients parse_coefficients(const std::string& s) {
 // ---- progress on a terminal ------------------------------------------------------------
 
 /// Prints the current phase on stderr, once a second, after the first second, when stderr
-/// is a terminal and --quiet is not given.
+/// is a terminal and --quiet is not given; with the library's progress reports, the part of
+/// the phase that is done ("lacuna: eliminating unit pivots, 40% (3 s)").
 class progress_line {
  public:
   explicit progress_line(bool enabled) : enabled_(enabled && ::isatty(2)) {
     if (enabled_) worker_ = std::thread([this] { loop(); });
   }
   ~progress_line() { stop(); }
-  void phase(const char* p) { phase_.store(p); }
+  void phase(const char* p) {
+    std::lock_guard<std::mutex> lock(m_);
+    text_ = p;
+  }
+  /// A lacuna::run_control progress callback.
+  void report(const lacuna::progress_report& r) {
+    if (!enabled_) return;
+    std::lock_guard<std::mutex> lock(m_);
+    text_.assign(r.phase);
+    if (r.total > 1) text_ += ", " + std::to_string(r.done * 100 / r.total) + "%";
+  }
   void stop() {
     if (!enabled_) return;
     {
@@ -105,19 +118,83 @@ class progress_line {
     while (!cv_.wait_for(lock, std::chrono::milliseconds(250), [this] { return done_; })) {
       const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
       if (s < 1.0) continue;
-      std::fprintf(stderr, "\r\033[Klacuna: %s (%.0f s)", phase_.load(), s);
+      std::fprintf(stderr, "\r\033[Klacuna: %s (%.0f s)", text_.c_str(), s);
       std::fflush(stderr);
       printed_ = true;
     }
   }
   bool enabled_;
-  std::atomic<const char*> phase_{"reading"};
+  std::string text_ = "reading";
   std::thread worker_;
   std::mutex m_;
   std::condition_variable cv_;
   bool done_ = false;
   bool printed_ = false;
 };
+
+// ---- interruption ------------------------------------------------------------------------
+
+/// SIGINT (Ctrl-C) and SIGTERM are blocked in every thread and taken by one watcher thread
+/// with sigwait, so no code runs in a signal handler. The first signal requests a stop: the
+/// computation throws lacuna::computation_stopped at its next check and the tool exits with
+/// status 130, one line on stderr and nothing on stdout. Should the main thread not get there
+/// within two seconds (it may be reading a large file, which does not look at the request),
+/// or on a second signal, the watcher ends the process itself the same way, unless the
+/// result is already being written (a result is printed whole or not at all).
+class interrupt_watch {
+ public:
+  static constexpr const char* message = "lacuna: interrupted; no result was printed\n";
+  interrupt_watch() {
+    sigemptyset(&set_);
+    sigaddset(&set_, SIGINT);
+    sigaddset(&set_, SIGTERM);
+    pthread_sigmask(SIG_BLOCK, &set_, nullptr);  // before any other thread starts
+    std::thread([this] { watch(); }).detach();
+  }
+  std::stop_token token() const { return source_.get_token(); }
+  /// Before the result goes out: false when an interrupt came first.
+  bool begin_output() {
+    if (source_.stop_requested()) return false;
+    int expected = working;
+    return state_.compare_exchange_strong(expected, writing);
+  }
+  /// The main thread's way out after an interrupt: prints the message and gives 130 (or
+  /// waits for the watcher, which is already ending the process).
+  int stopped() {
+    int expected = working;
+    if (!state_.compare_exchange_strong(expected, ending))
+      for (;;) pause();
+    say();
+    return 130;
+  }
+
+ private:
+  enum { working, writing, ending };
+  static void say() {
+    const ssize_t n = ::write(2, message, std::char_traits<char>::length(message));
+    (void)n;
+  }
+  void watch() {
+    int sig = 0;
+    if (sigwait(&set_, &sig) != 0) return;
+    source_.request_stop();
+    const timespec grace{2, 0};
+    sigtimedwait(&set_, nullptr, &grace);  // a second signal, or two seconds
+    int expected = working;
+    if (state_.compare_exchange_strong(expected, ending)) {
+      say();
+      std::_Exit(130);
+    }
+  }
+  sigset_t set_{};
+  std::stop_source source_;
+  std::atomic<int> state_{working};
+};
+
+interrupt_watch* interrupts = nullptr;  // set by main for the subcommands that compute
+
+/// Writes the result unless an interrupt came first (then throws computation_stopped).
+void write_result(const std::string& out);
 
 // ---- output -----------------------------------------------------------------------------
 
@@ -325,6 +402,12 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
   }
 }
 
+void write_out(const std::string& out);
+void write_result(const std::string& out) {
+  if (interrupts && !interrupts->begin_output()) throw lacuna::computation_stopped();
+  write_out(out);
+}
+
 void write_out(const std::string& out) {
   if (std::fwrite(out.data(), 1, out.size(), stdout) != out.size() || std::fflush(stdout) != 0)
     throw std::runtime_error("cannot write the result to standard output");
@@ -336,6 +419,8 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
   // Generators without coordinates: the tool never asks for classes of other cycles.
   // Both cores where the work splits: lacuna's own complexes are safe to read from two threads.
   lacuna::homology_options ho{.generators = o.generators, .keep_basis = false, .threads = 2};
+  if (interrupts) ho.control.stop = interrupts->token();
+  ho.control.progress = [&progress](const lacuna::progress_report& r) { progress.report(r); };
   std::string out;  // nothing reaches stdout until the whole answer is known
   auto go = [&]<class R>(const R& unit) {
     if (marks)
@@ -358,7 +443,7 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
       break;
   }
   progress.stop();
-  write_out(out);
+  write_result(out);
 }
 
 
@@ -702,7 +787,7 @@ void run_sequence(const run_options& o) {
         break;
     }
     progress.stop();
-    write_out(out);
+    write_result(out);
   });
 }
 
@@ -769,6 +854,7 @@ int main(int argc, char** argv) {
       throw usage_error("lacuna: " + msg + " (lacuna --help)");
     }
     o.co = parse_coefficients(coeff_text);
+    if (!interrupts) interrupts = new interrupt_watch;  // one per process, never deleted: its thread may outlive main
     if (hom->parsed()) run_homology(o);
     if (seq->parsed()) {
       o.file = so.file;  // for messages
@@ -777,6 +863,8 @@ int main(int argc, char** argv) {
       run_sequence(so);
     }
     return 0;
+  } catch (const lacuna::computation_stopped&) {
+    return interrupts ? interrupts->stopped() : 130;
   } catch (const usage_error& e) {
     std::cerr << one_line(e.what()) << "\n";
   } catch (const lacuna::parse_error& e) {

@@ -15,7 +15,9 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <csignal>
 #include <cerrno>
+#include <chrono>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
@@ -55,9 +57,17 @@ struct result {
   }
 };
 
+/// A signal to send the tool once, `after_ms` milliseconds after it started.
+struct send_signal {
+  int signal;
+  int after_ms;
+};
+
 /// Runs the tool with `args`. When `stderr_fd` is given, the tool's stderr is that descriptor
-/// (a pseudo-terminal, say) and result::err stays empty.
-inline result run(const std::vector<std::string>& args, std::optional<int> stderr_fd = std::nullopt) {
+/// (a pseudo-terminal, say) and result::err stays empty. With `sig`, that signal is sent to
+/// the tool once, at the time it names (if the tool is still running).
+inline result run(const std::vector<std::string>& args, std::optional<int> stderr_fd = std::nullopt,
+                  std::optional<send_signal> sig = std::nullopt) {
   if (!std::filesystem::exists(tool()))
     throw std::runtime_error(tool().string() + " does not exist: build the target lacuna_cli first");
   int out_pipe[2], err_pipe[2];
@@ -88,11 +98,26 @@ inline result run(const std::vector<std::string>& args, std::optional<int> stder
   std::string* sinks[2] = {&r.out, &r.err};
   int open_count = 2;
   char buf[65536];
+  const auto started = std::chrono::steady_clock::now();
+  bool signalled = false;
   while (open_count > 0) {
-    if (::poll(fds, 2, -1) < 0) {
+    int timeout = -1;
+    if (sig && !signalled) {
+      const auto elapsed =
+          std::chrono::duration_cast<std::chrono::milliseconds>(std::chrono::steady_clock::now() - started).count();
+      if (elapsed >= sig->after_ms) {
+        ::kill(pid, sig->signal);
+        signalled = true;
+      } else {
+        timeout = static_cast<int>(sig->after_ms - elapsed);
+      }
+    }
+    const int ready = ::poll(fds, 2, timeout);
+    if (ready < 0) {
       if (errno == EINTR) continue;
       break;
     }
+    if (ready == 0) continue;
     for (int i = 0; i < 2; ++i) {
       if (fds[i].fd < 0 || fds[i].revents == 0) continue;
       const ssize_t n = ::read(fds[i].fd, buf, sizeof buf);
