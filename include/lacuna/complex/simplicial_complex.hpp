@@ -71,10 +71,28 @@ std::string label_to_string(const L& l) {
   }
 }
 
+/// Hashes std::string and std::string_view alike, so that a string-labelled complex can be
+/// searched with a view (no temporary string per lookup). Deliberately not noexcept: then
+/// libstdc++'s unordered_map keeps each node's hash code, so a lookup compares codes before
+/// texts and a rehash does not hash every label again (with 10^6 labels the reader spent a
+/// third of its time re-hashing keys while walking buckets).
+struct string_label_hash {
+  using is_transparent = void;
+  std::size_t operator()(std::string_view s) const { return std::hash<std::string_view>{}(s); }
+};
+
 template <class L>
-using label_index_t =
-    std::conditional_t<requires(const L& l) { { std::hash<L>{}(l) } -> std::convertible_to<std::size_t>; },
-                       std::unordered_map<L, std::uint32_t>, std::map<L, std::uint32_t>>;
+struct label_index {
+  using type =
+      std::conditional_t<requires(const L& l) { { std::hash<L>{}(l) } -> std::convertible_to<std::size_t>; },
+                         std::unordered_map<L, std::uint32_t>, std::map<L, std::uint32_t>>;
+};
+template <>
+struct label_index<std::string> {
+  using type = std::unordered_map<std::string, std::uint32_t, string_label_hash, std::equal_to<>>;
+};
+template <class L>
+using label_index_t = typename label_index<L>::type;
 
 // Sorts the records of `width` ids in `flat` lexicographically and removes repeats.
 template <std::size_t W>
@@ -384,15 +402,13 @@ template <simplex_label Label>
 class simplicial_complex<Label>::builder {
  public:
   /// The id of the vertex with this label, adding it (as an isolated vertex) if new.
-  vertex_id vertex(const Label& l) {
-    const auto it = sc_.index_.find(l);
-    if (it != sc_.index_.end()) return it->second;
-    if (sc_.labels_.size() >= std::numeric_limits<vertex_id>::max())
-      throw invalid_complex("simplicial complex: more than 2^32 - 1 vertices");
-    const auto id = static_cast<vertex_id>(sc_.labels_.size());
-    sc_.labels_.push_back(l);
-    sc_.index_.emplace(l, id);
-    return id;
+  vertex_id vertex(const Label& l) { return find_or_add(l); }
+  /// The id of the vertex labelled by the text `l` (string labels only), adding it if new;
+  /// no string is made when the label is known.
+  vertex_id vertex_of_text(std::string_view l)
+    requires std::same_as<Label, std::string>
+  {
+    return find_or_add(l);
   }
   /// Adds the simplex with these labels (and so all its faces).
   template <std::ranges::input_range R>
@@ -401,7 +417,8 @@ class simplicial_complex<Label>::builder {
     ids_.clear();
     for (const auto& l : labels) ids_.push_back(vertex(Label(l)));
     ++facet_number_;
-    std::vector<vertex_id> sorted = ids_;
+    auto& sorted = sorted_;
+    sorted = ids_;
     std::sort(sorted.begin(), sorted.end());
     const auto rep = std::adjacent_find(sorted.begin(), sorted.end());
     if (rep != sorted.end())
@@ -416,7 +433,8 @@ class simplicial_complex<Label>::builder {
   /// Adds the simplex with these vertex ids (each < the number of vertices so far, distinct).
   builder& add_facet_ids(std::span<const vertex_id> ids) {
     ++facet_number_;
-    std::vector<vertex_id> sorted(ids.begin(), ids.end());
+    auto& sorted = sorted_;
+    sorted.assign(ids.begin(), ids.end());
     std::sort(sorted.begin(), sorted.end());
     if (std::adjacent_find(sorted.begin(), sorted.end()) != sorted.end())
       throw invalid_complex("simplicial complex: a vertex id repeated within facet number " +
@@ -434,6 +452,14 @@ class simplicial_complex<Label>::builder {
   }
   /// The number of vertices so far.
   std::size_t vertex_count() const noexcept { return sc_.labels_.size(); }
+  /// Room for n vertices in all, so that adding them does not rehash the label index.
+  builder& reserve_vertices(std::size_t n) {
+    sc_.labels_.reserve(n);
+    if constexpr (requires { sc_.index_.reserve(n); }) sc_.index_.reserve(n);
+    return *this;
+  }
+  /// The label of vertex v (v < vertex_count()).
+  const Label& label(vertex_id v) const { return sc_.labels_[v]; }
 
   /// The closure of everything added. Throws lacuna::invalid_complex if it would exceed
   /// max_cells. Complexity O(N log N) in the number N of simplices of the closure.
@@ -468,6 +494,18 @@ class simplicial_complex<Label>::builder {
   }
 
  private:
+  // l: a Label, or a view the index can be searched with (string labels).
+  template <class Text>
+  vertex_id find_or_add(const Text& l) {
+    const auto it = sc_.index_.find(l);
+    if (it != sc_.index_.end()) return it->second;
+    if (sc_.labels_.size() >= std::numeric_limits<vertex_id>::max())
+      throw invalid_complex("simplicial complex: more than 2^32 - 1 vertices");
+    const auto id = static_cast<vertex_id>(sc_.labels_.size());
+    sc_.labels_.emplace_back(l);
+    sc_.index_.emplace(sc_.labels_.back(), id);
+    return id;
+  }
   void add_sorted(const std::vector<vertex_id>& sorted) {
     if (sorted.size() <= 1) return;  // vertices are registered by vertex()
     const std::size_t k = sorted.size() - 1;
@@ -477,7 +515,7 @@ class simplicial_complex<Label>::builder {
   }
 
   simplicial_complex sc_;
-  std::vector<vertex_id> ids_;
+  std::vector<vertex_id> ids_, sorted_;
   std::size_t facet_number_ = 0;
   std::size_t max_cells_ = std::numeric_limits<std::size_t>::max();
 };

@@ -21,13 +21,16 @@
 
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
+#include <lacuna/io/read_limits.hpp>
 
 #include <algorithm>
 #include <cstddef>
 #include <cstdint>
 #include <filesystem>
 #include <fstream>
+#include <functional>
 #include <istream>
+#include <limits>
 #include <ostream>
 #include <string>
 #include <string_view>
@@ -98,27 +101,47 @@ inline bool writable_label(std::string_view s) {
 
 /// Reads a facet list from `in`; `file_name` is used in error messages only.
 /// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+/// The stream is read in blocks of 1 MiB and each line is split in place: labels are looked
+/// up as views, and a string is made only for a vertex seen for the first time.
 inline simplicial_complex<std::string> read_facets(std::istream& in, const std::string& file_name,
                                                    const facets_read_options& options = {}) {
-  simplicial_complex<std::string>::builder b;
+  using builder = simplicial_complex<std::string>::builder;
+  builder b;
   b.max_cells(options.max_cells);
-  std::string line;
-  std::vector<std::string> labels;
+  // A line of a new vertex takes at least 2 bytes, typical files 30 to 60 bytes per vertex:
+  // room for one vertex per 32 bytes (at most 2^24 up front) spares most rehashing.
+  if (const auto left = detail::remaining_bytes(in))
+    b.reserve_vertices(static_cast<std::size_t>(std::min<std::uint64_t>(*left / 32, std::uint64_t{1} << 24)));
+  std::vector<std::string_view> labels;
+  std::vector<simplicial_complex<std::string>::vertex_id> ids;
   std::size_t line_number = 0;
   std::uint64_t implied = 0;  // the closures' sizes so far, duplicates counted
-  while (std::getline(in, line)) {
+  // Neighbouring lines share most of their vertices: a small direct-mapped cache of recent
+  // labels (slot by hash, checked against the label's text) spares most lookups in the big
+  // hash table, whose entries are scattered in memory.
+  constexpr std::size_t cache_slots = std::size_t{1} << 16;
+  constexpr auto no_vertex = std::numeric_limits<simplicial_complex<std::string>::vertex_id>::max();
+  std::vector<simplicial_complex<std::string>::vertex_id> recent(cache_slots, no_vertex);
+  const auto vertex_of = [&](std::string_view l) {
+    auto& slot = recent[std::hash<std::string_view>{}(l) & (cache_slots - 1)];
+    if (slot != no_vertex && b.label(slot) == l) return slot;
+    return slot = b.vertex_of_text(l);
+  };
+  auto process = [&](std::string_view line) {
     ++line_number;
-    if (const auto hash = line.find('#'); hash != std::string::npos) line.erase(hash);
+    if (const auto hash = line.find('#'); hash != std::string_view::npos) line = line.substr(0, hash);
     labels.clear();
+    bool high = false;  // a byte >= 0x80: the labels need the UTF-8 check
     for (std::size_t i = 0; i < line.size();) {
       while (i < line.size() && facets_detail::is_space(line[i])) ++i;
       const std::size_t start = i;
-      while (i < line.size() && !facets_detail::is_space(line[i])) ++i;
-      if (i > start) labels.emplace_back(line, start, i - start);
+      while (i < line.size() && !facets_detail::is_space(line[i])) high |= static_cast<unsigned char>(line[i++]) >= 0x80;
+      if (i > start) labels.push_back(line.substr(start, i - start));
     }
-    if (labels.empty()) continue;
-    for (const auto& l : labels)
-      if (!facets_detail::valid_utf8(l)) throw parse_error(file_name, line_number, "a label is not valid UTF-8");
+    if (labels.empty()) return;
+    if (high)
+      for (const auto l : labels)
+        if (!facets_detail::valid_utf8(l)) throw parse_error(file_name, line_number, "a label is not valid UTF-8");
     // 2^n - 1 faces for n labels: refuse before the builder allocates them
     const std::size_t n = labels.size();
     if (n > options.max_facet_vertices)
@@ -136,14 +159,38 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
     for (std::size_t i = 0; i < n; ++i)
       for (std::size_t j = i + 1; j < n; ++j)
         if (labels[i] == labels[j])
-          throw parse_error(file_name, line_number, "the label '" + labels[i] + "' is repeated within one simplex");
+          throw parse_error(file_name, line_number,
+                            "the label '" + std::string(labels[i]) + "' is repeated within one simplex");
+    ids.clear();
     try {
-      b.add_facet(labels);
+      for (const auto l : labels) ids.push_back(vertex_of(l));
+      b.add_facet_ids(ids);
     } catch (const invalid_complex& e) {
       throw parse_error(file_name, line_number, e.what());
     }
+  };
+  constexpr std::size_t block = std::size_t{1} << 20;
+  std::string buffer(block, '\0');
+  std::string carry;  // the start of a line that continues in the next block
+  for (;;) {
+    in.read(buffer.data(), static_cast<std::streamsize>(block));
+    const auto got = static_cast<std::size_t>(in.gcount());
+    if (got == 0) break;
+    const std::string_view data(buffer.data(), got);
+    std::size_t start = 0;
+    for (std::size_t nl; (nl = data.find('\n', start)) != std::string_view::npos; start = nl + 1) {
+      if (carry.empty()) {
+        process(data.substr(start, nl - start));
+      } else {
+        carry.append(data.substr(start, nl - start));
+        process(carry);
+        carry.clear();
+      }
+    }
+    carry.append(data.substr(start));
   }
   if (in.bad()) throw parse_error(file_name, line_number, "read error");
+  if (!carry.empty()) process(carry);  // a last line without '\n'
   try {
     return std::move(b).finalize();
   } catch (const invalid_complex& e) {
