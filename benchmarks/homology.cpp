@@ -1,6 +1,9 @@
 // The whole homology engine (lacuna::homology, sparse_elimination) on k x k tori up to
 // k = 1024 (6.3 million cells) and on a 128^3 random cubical volume: over the integers with
-// and without generators, and over Z/2. The complexes are built outside the timed loop.
+// and without generators, and over Z/2. The complexes are built outside the timed loop,
+// except in torus_file_*: there the timed loop reads the .facets file (written once, in the
+// temporary directory) and computes with the options of the command-line tool (generators,
+// no coordinate basis, two threads), the whole job of `lacuna homology --generators`.
 //   build/bin/bench_homology --benchmark_filter=torus
 #include "bench_support.hpp"
 
@@ -8,7 +11,11 @@
 #include <lacuna/ring/integer.hpp>
 #include <lacuna/ring/z2.hpp>
 
+#include <lacuna/io/facets.hpp>
+
 #include <benchmark/benchmark.h>
+
+#include <filesystem>
 
 namespace {
 
@@ -28,6 +35,28 @@ void run(benchmark::State& state, const C& c, bool generators) {
 
 int K(const benchmark::State& s) { return static_cast<int>(s.range(0)); }
 
+void torus_file_read(benchmark::State& s) {
+  const auto file = lacuna_bench::torus_facets_file(K(s));
+  for (auto _ : s) {
+    auto c = lacuna::io::read_facets(file);
+    benchmark::DoNotOptimize(c);
+  }
+  std::filesystem::remove(file);
+}
+
+void torus_file_integer_generators(benchmark::State& s) {
+  const auto file = lacuna_bench::torus_facets_file(K(s));
+  std::size_t b1 = 0;
+  for (auto _ : s) {
+    const auto c = lacuna::io::read_facets(file);
+    auto h = lacuna::homology<lacuna::integer>(c, {.generators = true, .keep_basis = false, .threads = 2});
+    b1 = h.groups[1].rank;
+    benchmark::DoNotOptimize(h);
+  }
+  s.counters["b1"] = static_cast<double>(b1);
+  std::filesystem::remove(file);
+}
+
 void torus_integer(benchmark::State& s) { run<lacuna::integer>(s, lacuna_bench::torus(K(s)), false); }
 void torus_integer_generators(benchmark::State& s) { run<lacuna::integer>(s, lacuna_bench::torus(K(s)), true); }
 void torus_z2(benchmark::State& s) { run<lacuna::z2>(s, lacuna_bench::torus(K(s)), false); }
@@ -43,6 +72,8 @@ BENCHMARK(torus_integer_generators) SMALL;
 BENCHMARK(torus_integer_generators) BIG;
 BENCHMARK(torus_z2) SMALL;
 BENCHMARK(torus_z2) BIG;
+BENCHMARK(torus_file_read)->Arg(256)->Arg(1024)->Iterations(1)->Unit(benchmark::kMillisecond);
+BENCHMARK(torus_file_integer_generators)->Arg(256)->Arg(1024)->Iterations(1)->Unit(benchmark::kMillisecond);
 BENCHMARK(volume_integer)->Arg(32)->Unit(benchmark::kMillisecond);
 BENCHMARK(volume_integer)->Arg(128)->Iterations(1)->Unit(benchmark::kMillisecond);
 BENCHMARK(volume_integer_generators)->Arg(32)->Unit(benchmark::kMillisecond);

@@ -1,0 +1,115 @@
+// Peak memory of the .facets reader and of the homology engine on a 10^6-cell and a 10^7-cell
+// input (k x k torus triangulations, 6 k^2 cells: k = 408 gives 998784 cells, k = 1291 gives
+// 10000086), reported per cell as Google Benchmark counters:
+//   peak_MB         the rise of the resident set's high-water mark during one run, in MiB;
+//   bytes_per_cell  the same per cell of the complex.
+// The high-water mark (VmHWM of /proc/self/status) is reset before each run by writing 5 to
+// /proc/self/clear_refs (Linux 4.0 and later), after malloc_trim(0) has handed freed memory
+// back, so each figure is that run's own peak above what was resident before it: for the
+// reader, the complex it builds plus its working memory (the file's text is not counted, it
+// is read from disk); for the engine, everything homology() allocates (the complex is not
+// counted, it exists before). One iteration each: the figures are memory, not time.
+#include "bench_support.hpp"
+
+#include <lacuna/homology/homology.hpp>
+#include <lacuna/io/facets.hpp>
+#include <lacuna/ring/integer.hpp>
+#include <lacuna/ring/z2.hpp>
+
+#include <benchmark/benchmark.h>
+#include <malloc.h>
+
+#include <cstdio>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <memory>
+#include <string>
+#include <unistd.h>
+
+namespace {
+
+/// A field of /proc/self/status in KiB (VmRSS, VmHWM); -1 if it cannot be read.
+long status_kib(const std::string& key) {
+  std::ifstream f("/proc/self/status");
+  std::string line;
+  while (std::getline(f, line))
+    if (line.rfind(key + ":", 0) == 0) return std::strtol(line.c_str() + key.size() + 1, nullptr, 10);
+  return -1;
+}
+
+/// Starts a measurement: frees what malloc keeps, resets the high-water mark, returns VmRSS.
+long begin_peak() {
+  malloc_trim(0);
+  std::ofstream("/proc/self/clear_refs") << "5";
+  return status_kib("VmRSS");
+}
+
+void report(benchmark::State& state, long rss_before_kib, double cells) {
+  const long peak = status_kib("VmHWM");
+  const double rise = static_cast<double>(peak - rss_before_kib) * 1024.0;
+  state.counters["peak_MB"] = rise / (1024.0 * 1024.0);
+  state.counters["bytes_per_cell"] = rise / cells;
+  state.counters["cells"] = cells;
+}
+
+const lacuna::simplicial_complex<std::string>& torus_complex(int k) {
+  static std::map<int, std::unique_ptr<lacuna::simplicial_complex<std::string>>> cache;
+  auto& slot = cache[k];
+  if (!slot) slot = std::make_unique<lacuna::simplicial_complex<std::string>>(lacuna::io::read_facets(lacuna_bench::torus_facets_file(k)));
+  return *slot;
+}
+
+double cells_of(int k) { return 6.0 * k * k; }
+
+void BM_read_facets(benchmark::State& state) {
+  const int k = static_cast<int>(state.range(0));
+  const auto file = lacuna_bench::torus_facets_file(k);
+  for (auto _ : state) {
+    const long before = begin_peak();
+    auto c = lacuna::io::read_facets(file);
+    benchmark::DoNotOptimize(c);
+    report(state, before, cells_of(k));
+  }
+}
+
+template <class R>
+void BM_homology(benchmark::State& state) {
+  const int k = static_cast<int>(state.range(0));
+  const bool generators = state.range(1) != 0;
+  const auto& c = torus_complex(k);
+  for (auto _ : state) {
+    const long before = begin_peak();
+    auto h = lacuna::homology<R>(c, {.generators = generators, .keep_basis = false, .threads = 2});
+    benchmark::DoNotOptimize(h);
+    report(state, before, cells_of(k));
+  }
+}
+
+}  // namespace
+
+BENCHMARK(BM_read_facets)->Arg(408)->Arg(1291)->Iterations(1)->Unit(benchmark::kMillisecond);
+BENCHMARK(BM_homology<lacuna::integer>)
+    ->Args({408, 0})
+    ->Args({408, 1})
+    ->Args({1291, 0})
+    ->Args({1291, 1})
+    ->ArgNames({"k", "generators"})
+    ->Iterations(1)
+    ->Unit(benchmark::kMillisecond);
+BENCHMARK(BM_homology<lacuna::z2>)
+    ->Args({408, 0})
+    ->Args({1291, 0})
+    ->ArgNames({"k", "generators"})
+    ->Iterations(1)
+    ->Unit(benchmark::kMillisecond);
+
+int main(int argc, char** argv) {
+  benchmark::Initialize(&argc, argv);
+  if (benchmark::ReportUnrecognizedArguments(argc, argv)) return 1;
+  benchmark::RunSpecifiedBenchmarks();
+  benchmark::Shutdown();
+  lacuna_bench::remove_torus_facets_files();
+  return 0;
+}
