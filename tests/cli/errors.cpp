@@ -164,12 +164,13 @@ TEST_CASE("errors: a short .facets line that implies too many simplices") {
   for (int i = 0; i < 21; ++i) labels += std::string(1, static_cast<char>('a' + i)) + " ";
   const auto f = dir.write("wide.facets", "# one wide simplex\n" + labels + "\n");
   expect_located(expect_error(run({"homology", f})), f, 2);
-  // raising the limit lets it through: the 20-simplex is contractible, b0 = 1
-  const auto r = run({"homology", "--quiet", "--json", "--max-facet-vertices", "21", f});
-  const auto j = parse_result(r);
-  REQUIRE(groups_of(j).size() == 21);
-  CHECK(groups_of(j)[0] == group{1, {}});
-  CHECK(cells_of(j)[20] == 1);  // C(21, 21): the one 20-simplex
+  // the option moves the limit both ways: a 5-vertex line is refused under 4, read under 5
+  // (the 4-simplex is contractible: b0 = 1, nothing else)
+  const auto g = dir.write("five.facets", "a b c d e\n");
+  expect_located(expect_error(run({"homology", "--max-facet-vertices", "4", g})), g, 1);
+  const auto j = parse_result(run({"homology", "--quiet", "--json", "--max-facet-vertices", "5", g}));
+  CHECK(groups_of(j) == std::vector<group>{{1, {}}, {0, {}}, {0, {}}, {0, {}}, {0, {}}});
+  CHECK(cells_of(j) == std::vector<std::uint64_t>{5, 10, 10, 5, 1});  // binomial coefficients C(5, k+1)
   expect_error(run({"homology", "--max-facet-vertices", "-3", f}));
 }
 

@@ -104,10 +104,18 @@ TEST_CASE("a short hostile line is refused by the default limits before anything
   std::string twenty, twenty_one;
   for (int i = 0; i < 21; ++i) (i < 20 ? twenty : twenty_one) += lacuna::detail::concat("v", std::to_string(i), " ");
   twenty_one = twenty + twenty_one;
-  CHECK(error_of(twenty + "\n") == "no error");
+  // (a small max_cells stops each line at the next check, so no 10^6-simplex closure is built:
+  // the message shows that the line got past the per-line limit)
+  CHECK(error_of(twenty + "\n", {.max_cells = 100}) ==
+        "test.facets:1: the facets up to this line imply up to 1048575 simplices, more than the limit of 100 cells");
   CHECK(error_of(twenty_one + "\n") ==
         "test.facets:1: a simplex with 21 vertices (2^21 - 1 faces) is more than the limit of 20 vertices per line");
-  CHECK(error_of(twenty_one + "\n", {.max_facet_vertices = 21}) == "no error");
+  CHECK(error_of(twenty_one + "\n", {.max_cells = 100, .max_facet_vertices = 21}) ==
+        "test.facets:1: the facets up to this line imply up to 2097151 simplices, more than the limit of 100 cells");
+  // and a line at the limit is read: 5 labels under max_facet_vertices = 5, the 4-simplex
+  CHECK(error_of("a b c d e\n", {.max_facet_vertices = 5}) == "no error");
+  CHECK(error_of("a b c d e f\n", {.max_facet_vertices = 5}) ==
+        "test.facets:1: a simplex with 6 vertices (2^6 - 1 faces) is more than the limit of 5 vertices per line");
   // the default sum limit, 2^28: 257 lines of 20 fresh vertices imply 257 (2^20 - 1) > 2^28
   // simplices; the reader stops at line 257 having built nothing
   std::string many;
