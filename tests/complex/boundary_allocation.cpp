@@ -2,6 +2,7 @@
 // buffer and faces are found by binary search): counted with a replaced global operator new.
 #include <doctest/doctest.h>
 
+#include "count_allocations.hpp"
 #include "support.hpp"
 
 #include <lacuna/complex/cell_list.hpp>
@@ -11,21 +12,7 @@
 #include <cstdlib>
 #include <new>
 
-// GCC 12 inlines the replaced operator delete into std::allocator and then mistakes the
-// malloc/free pair for a mismatch (-Wmismatched-new-delete); the pair is matched by design.
-#pragma GCC diagnostic ignored "-Wmismatched-new-delete"
-
-namespace {
-std::atomic<std::size_t> allocations{0};
-}  // namespace
-
-void* operator new(std::size_t n) {
-  ++allocations;
-  if (void* p = std::malloc(n ? n : 1)) return p;
-  throw std::bad_alloc();
-}
-void operator delete(void* p) noexcept { std::free(p); }
-void operator delete(void* p, std::size_t) noexcept { std::free(p); }
+using lacuna_test::allocations;
 
 TEST_CASE("boundaries of simplices of dimension < 8 do not allocate; of cell lists neither") {
   const auto s = test_support::simplex_boundary_sphere(8);  // simplices up to dimension 7
