@@ -101,7 +101,7 @@ inline bool writable_label(std::string_view s) {
 
 /// Reads a facet list from `in`; `file_name` is used in error messages only.
 /// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
-/// The stream is read in blocks of 1 MiB and each line is split in place: labels are looked
+/// The stream is read in blocks of up to 1 MiB and each line is split in place: labels are looked
 /// up as views, and a string is made only for a vertex seen for the first time.
 inline simplicial_complex<std::string> read_facets(std::istream& in, const std::string& file_name,
                                                    const facets_read_options& options = {}) {
@@ -109,9 +109,10 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
   builder b;
   b.max_cells(options.max_cells);
   // A line of a new vertex takes at least 2 bytes, typical files 30 to 60 bytes per vertex:
-  // room for one vertex per 32 bytes (at most 2^24 up front) spares most rehashing.
-  if (const auto left = detail::remaining_bytes(in))
-    b.reserve_vertices(static_cast<std::size_t>(std::min<std::uint64_t>(*left / 32, std::uint64_t{1} << 24)));
+  // room for one vertex per 32 bytes (at most 2^24 up front) spares most rehashing. The read
+  // buffer and the label cache below are sized by the file too, so a small file costs little.
+  const auto left = detail::remaining_bytes(in);
+  if (left) b.reserve_vertices(static_cast<std::size_t>(std::min<std::uint64_t>(*left / 32, std::uint64_t{1} << 24)));
   std::vector<std::string_view> labels;
   std::vector<simplicial_complex<std::string>::vertex_id> ids;
   std::size_t line_number = 0;
@@ -119,7 +120,8 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
   // Neighbouring lines share most of their vertices: a small direct-mapped cache of recent
   // labels (slot by hash, checked against the label's text) spares most lookups in the big
   // hash table, whose entries are scattered in memory.
-  constexpr std::size_t cache_slots = std::size_t{1} << 16;
+  std::size_t cache_slots = 64;  // a power of two, about one slot per 8 bytes, at most 2^16
+  while (cache_slots < (std::size_t{1} << 16) && (!left || cache_slots * 8 < *left)) cache_slots <<= 1;
   constexpr auto no_vertex = std::numeric_limits<simplicial_complex<std::string>::vertex_id>::max();
   std::vector<simplicial_complex<std::string>::vertex_id> recent(cache_slots, no_vertex);
   const auto vertex_of = [&](std::string_view l) {
@@ -169,7 +171,9 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
       throw parse_error(file_name, line_number, e.what());
     }
   };
-  constexpr std::size_t block = std::size_t{1} << 20;
+  const std::size_t block =
+      left ? static_cast<std::size_t>(std::clamp<std::uint64_t>(*left + 1, 4096, std::uint64_t{1} << 20))
+           : std::size_t{1} << 20;
   std::string buffer(block, '\0');
   std::string carry;  // the start of a line that continues in the next block
   for (;;) {
