@@ -102,18 +102,24 @@ void remove_bench_file(const std::filesystem::path& p) {
   std::filesystem::remove(p, ec);
 }
 
+/// Reads `file` with `read` in the timed loop, reports its peak per cell, removes the file.
+template <class Read>
+void measure_reader(benchmark::State& state, const std::filesystem::path& file, Read read) {
+  for (auto _ : state) {
+    const long before = begin_peak();
+    auto c = read(file);
+    report(state, before, cell_total(c));
+    benchmark::DoNotOptimize(c);
+  }
+  remove_bench_file(file);
+}
+
 // The torus as a cell list (.cells, written by write_cells): the same 6 k^2 cells.
 void BM_read_cells(benchmark::State& state) {
   const int k = static_cast<int>(state.range(0));
   const auto file = bench_file(std::string("lacuna_bench_torus_") + std::to_string(k) + ".cells",
                                [&](std::ostream& out) { lacuna::io::write_cells(out, torus_complex(k)); });
-  for (auto _ : state) {
-    const long before = begin_peak();
-    auto c = lacuna::io::read_cells(file);
-    report(state, before, cell_total(c));
-    benchmark::DoNotOptimize(c);
-  }
-  remove_bench_file(file);
+  measure_reader(state, file, [](const std::filesystem::path& f) { return lacuna::io::read_cells(f); });
 }
 
 // The torus as an OFF triangle mesh: k^2 vertices, 2 k^2 triangles, 6 k^2 cells.
@@ -130,13 +136,7 @@ void BM_read_off(benchmark::State& state) {
         out << "3 " << v(i, j) << ' ' << v(i, j + 1) << ' ' << v(i + 1, j + 1) << '\n';
       }
   });
-  for (auto _ : state) {
-    const long before = begin_peak();
-    auto c = lacuna::io::read_off(file);
-    report(state, before, cell_total(c));
-    benchmark::DoNotOptimize(c);
-  }
-  remove_bench_file(file);
+  measure_reader(state, file, [](const std::filesystem::path& f) { return lacuna::io::read_off(f); });
 }
 
 // An n^3 raw uint8 NRRD volume, each voxel foreground with probability 1/2 (seed 7 + n).
@@ -147,13 +147,7 @@ void BM_read_nrrd(benchmark::State& state) {
     std::mt19937_64 gen(7 + n);
     for (std::size_t i = 0; i < n * n * n; ++i) out.put(static_cast<char>(gen() & 1U));
   });
-  for (auto _ : state) {
-    const long before = begin_peak();
-    auto c = lacuna::io::read_nrrd<3>(file);
-    report(state, before, cell_total(c));
-    benchmark::DoNotOptimize(c);
-  }
-  remove_bench_file(file);
+  measure_reader(state, file, [](const std::filesystem::path& f) { return lacuna::io::read_nrrd<3>(f); });
 }
 
 template <class R>
