@@ -193,9 +193,6 @@ class interrupt_watch {
 
 interrupt_watch* interrupts = nullptr;  // set by main for the subcommands that compute
 
-/// Writes the result unless an interrupt came first (then throws computation_stopped).
-void write_result(const std::string& out);
-
 // ---- output -----------------------------------------------------------------------------
 
 /// Appends s as a JSON string literal.
@@ -402,15 +399,15 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
   }
 }
 
-void write_out(const std::string& out);
-void write_result(const std::string& out) {
-  if (interrupts && !interrupts->begin_output()) throw lacuna::computation_stopped();
-  write_out(out);
-}
-
 void write_out(const std::string& out) {
   if (std::fwrite(out.data(), 1, out.size(), stdout) != out.size() || std::fflush(stdout) != 0)
     throw std::runtime_error("cannot write the result to standard output");
+}
+
+/// Writes the result unless an interrupt came first (then throws computation_stopped).
+void write_result(const std::string& out) {
+  if (interrupts && !interrupts->begin_output()) throw lacuna::computation_stopped();
+  write_out(out);
 }
 
 template <class C>
