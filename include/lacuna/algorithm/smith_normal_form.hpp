@@ -22,11 +22,56 @@
 
 namespace lacuna {
 
+/// The reduction that runs before the algebra, a policy value of sparse_elimination. All of
+/// them give the same groups (tests/homology/reductions.cpp); they differ in speed, memory
+/// and the shape of the generators (benchmarks/reductions.cpp compares them).
+enum class pre_reduction {
+  /// The default: coreductions and collapses as `elimination` says (Mrozek & Batko 2009).
+  coreductions_and_collapses,
+  /// None: unit pivots chosen by Markowitz count only (no coreductions, collapses, set-aside).
+  none,
+  /// Collapses of free faces only (a face with a single coface and a unit incidence).
+  collapses,
+  /// Coreductions only (a cell with a single face and a unit incidence), with set-aside.
+  coreductions,
+  /// A discrete Morse matching first (Forman 1998): the algebra runs on the Morse complex,
+  /// whose boundary comes from gradient paths (Sköldberg 2006), and generators are mapped
+  /// back through its chain maps. Cubical complexes of images and volumes (dimension <= 4)
+  /// use the implicit lower-star matching of lacuna/algorithm/cubical_morse.hpp, every other
+  /// complex the coreduction matching of lacuna/algorithm/morse_reduction.hpp. Cohomology
+  /// with generators and relative homology run without it (same groups); a Morse incidence
+  /// beyond 64 bits also falls back to the run without it.
+  morse,
+};
+
 /// The variant that eliminates unit pivots sparsely, then finishes a dense core (default).
 /// Its elimination options apply to homology; for a single matrix, set-aside does not
-/// apply (a matrix has no cells to set aside) and is switched off.
+/// apply (a matrix has no cells to set aside) and is switched off. `reduction` other than
+/// the default overrides the three switches coreductions, collapses and set_aside.
 struct sparse_elimination {
   elimination_options elimination{};
+  pre_reduction reduction = pre_reduction::coreductions_and_collapses;
+
+  /// The elimination options with `reduction` applied.
+  elimination_options effective_elimination() const {
+    elimination_options e = elimination;
+    switch (reduction) {
+      case pre_reduction::none:
+        e.coreductions = e.collapses = e.set_aside = false;
+        break;
+      case pre_reduction::collapses:
+        e.coreductions = e.set_aside = false;
+        e.collapses = true;
+        break;
+      case pre_reduction::coreductions:
+        e.collapses = false;
+        e.coreductions = e.set_aside = true;
+        break;
+      default:
+        break;
+    }
+    return e;
+  }
 };
 /// The reference variant: dense Smith forms of whole matrices. For small inputs only.
 struct dense_elimination {};
@@ -53,7 +98,7 @@ namespace detail {
 template <euclidean_domain R, class W, class Convert>
 smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimination& alg, Convert convert) {
   auto rc = reducible_complex<W>::from_matrix(A, convert);
-  auto opt = alg.elimination;
+  auto opt = alg.effective_elimination();
   opt.set_aside = false;
   opt.record = false;
   const auto stats = eliminate_unit_pivots(rc, opt);

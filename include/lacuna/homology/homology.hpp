@@ -14,6 +14,7 @@
 // number grew.
 #pragma once
 
+#include <lacuna/algorithm/cubical_morse.hpp>
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
@@ -25,11 +26,13 @@
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/complex/concepts.hpp>
+#include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
 #include <lacuna/ring/integer.hpp>
 
 #include <cstdint>
+#include <functional>
 #include <memory>
 #include <optional>
 #include <stdexcept>
@@ -267,7 +270,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
   if constexpr (std::same_as<Algorithm, sparse_elimination>) {
-    auto eo = alg.elimination;
+    auto eo = alg.effective_elimination();
     eo.record = want_log;
     eo.record_pivots = keep;
     eo.control = control;
@@ -351,6 +354,39 @@ class homology_result {
   /// Cost: one pass over the elimination log, and dense products on the core.
   std::vector<R> coordinates(const chain<R>& cycle) const {
     if (!basis_) throw std::logic_error("lacuna: homology computed without keep_basis or generators");
+    if (project_) return coordinates_on_levels(project_(cycle));
+    return coordinates_on_levels(cycle);
+  }
+  /// True when the cycle is a boundary: all its coordinates vanish (precondition as above).
+  bool is_boundary(const chain<R>& cycle) const {
+    for (const auto& x : coordinates(cycle))
+      if (!(x == zero<R>())) return false;
+    return true;
+  }
+
+  /// coordinates(cycle), after checking on `complex` (the one this result was computed from)
+  /// that the chain is a cycle (for cohomology: a cocycle; for a pair: a relative cycle).
+  /// Throws std::invalid_argument otherwise. Extra cost: one pass over the boundaries.
+  template <cell_complex C>
+  std::vector<R> coordinates(const C& complex, const chain<R>& cycle) const {
+    check_cycle(complex, cycle);
+    return coordinates(cycle);
+  }
+  template <cell_complex C>
+  bool is_boundary(const C& complex, const chain<R>& cycle) const {
+    check_cycle(complex, cycle);
+    return is_boundary(cycle);
+  }
+
+  std::shared_ptr<detail::homology_basis<R>> basis_;  // internal
+  int level_offset_ = 0;                               // internal: level = dim - offset (or top - dim)
+  int top_ = -1;
+  /// internal: with a Morse pre-reduction, the chain map from the original complex to the
+  /// complex the basis belongs to.
+  std::function<chain<R>(const chain<R>&)> project_;
+
+ private:
+  std::vector<R> coordinates_on_levels(const chain<R>& cycle) const {
     const int L = level_of(cycle.dimension);
     if (L < 0 || L >= static_cast<int>(basis_->levels.size()))
       throw std::invalid_argument("lacuna: no cells of dimension " + std::to_string(cycle.dimension));
@@ -397,32 +433,6 @@ class homology_result {
       if (!detail::ring_is_unit(b.factors[i])) out.push_back(detail::canonical_residue(w[i], b.factors[i]));
     return out;
   }
-  /// True when the cycle is a boundary: all its coordinates vanish (precondition as above).
-  bool is_boundary(const chain<R>& cycle) const {
-    for (const auto& x : coordinates(cycle))
-      if (!(x == zero<R>())) return false;
-    return true;
-  }
-
-  /// coordinates(cycle), after checking on `complex` (the one this result was computed from)
-  /// that the chain is a cycle (for cohomology: a cocycle; for a pair: a relative cycle).
-  /// Throws std::invalid_argument otherwise. Extra cost: one pass over the boundaries.
-  template <cell_complex C>
-  std::vector<R> coordinates(const C& complex, const chain<R>& cycle) const {
-    check_cycle(complex, cycle);
-    return coordinates(cycle);
-  }
-  template <cell_complex C>
-  bool is_boundary(const C& complex, const chain<R>& cycle) const {
-    check_cycle(complex, cycle);
-    return is_boundary(cycle);
-  }
-
-  std::shared_ptr<detail::homology_basis<R>> basis_;  // internal
-  int level_offset_ = 0;                               // internal: level = dim - offset (or top - dim)
-  int top_ = -1;
-
- private:
   int level_of(int dim) const { return cohomology ? top_ - dim : dim - level_offset_; }
   bool excluded(int dim, std::size_t cell) const {
     const int L = level_of(dim);
@@ -509,6 +519,53 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
 }
 }  // namespace detail
 
+namespace detail {
+
+template <class C>
+struct implicit_morse : std::false_type {};
+template <std::size_t D>
+struct implicit_morse<cubical_complex<D>> : std::bool_constant<(D <= 4)> {};
+
+/// The algebra on a Morse complex m of c (pre_reduction::morse): generators are lifted to
+/// c, and with a basis, coordinates() first projects a cycle of c to m.
+template <euclidean_domain R, class M, class Lift, class Project>
+homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const sparse_elimination& alg, bool co,
+                                    const R& unit, Lift lift, Project project) {
+  homology_result<R> res = assemble<R>(m, opt, alg, co, nullptr, unit);
+  for (auto& g : res.groups)
+    for (auto& z : g.generators) z = lift(z);
+  if (res.basis_) res.project_ = std::move(project);
+  return res;
+}
+
+/// pre_reduction::morse; nullopt when it does not apply (relative homology, cohomology with
+/// generators, a Morse incidence beyond 64 bits): the caller then runs without it.
+template <euclidean_domain R, cell_complex C>
+std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, sparse_elimination alg, bool co,
+                                                 const R& unit) {
+  if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
+  if (co && (opt.generators || *opt.keep_basis)) return std::nullopt;
+  alg.reduction = pre_reduction::coreductions_and_collapses;
+  try {
+    if constexpr (implicit_morse<C>::value) {
+      constexpr std::size_t D = C::dimension;
+      auto m = std::make_shared<const cubical_morse_complex<D>>(
+          cubical_morse_reduce(c, {.threads = opt.threads, .control = &opt.control}));
+      std::shared_ptr<const C> original;
+      if (*opt.keep_basis) original = std::make_shared<const C>(c);  // coordinates() may outlive c
+      return on_morse_complex<R>(
+          *m, opt, alg, co, unit, [&](const chain<R>& z) { return m->lift(c, z, unit); },
+          [m, original, unit](const chain<R>& x) { return m->project(*original, x, unit); });
+    } else {
+      return std::nullopt;
+    }
+  } catch (const coefficient_overflow&) {
+    return std::nullopt;
+  }
+}
+
+}  // namespace detail
+
 /// The homology of c over R (R models euclidean_domain; fields give dimensions, the
 /// integers give ranks and torsion). Algorithm: sparse_elimination{} (default) or
 /// dense_elimination{} (the small-matrix reference). See homology_options. `unit` is the one
@@ -516,6 +573,9 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> homology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
                             const R& unit = one<R>()) {
+  if constexpr (std::same_as<Algorithm, sparse_elimination>)
+    if (algorithm.reduction == pre_reduction::morse)
+      if (auto r = detail::morse_homology<R>(c, options, algorithm, false, unit)) return std::move(*r);
   return detail::assemble<R>(c, options, algorithm, false, nullptr, unit);
 }
 
@@ -535,6 +595,9 @@ homology_result<R> relative_homology(const C& c, const std::vector<std::vector<b
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> cohomology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
                               const R& unit = one<R>()) {
+  if constexpr (std::same_as<Algorithm, sparse_elimination>)
+    if (algorithm.reduction == pre_reduction::morse)
+      if (auto r = detail::morse_homology<R>(c, options, algorithm, true, unit)) return std::move(*r);
   return detail::assemble<R>(c, options, algorithm, true, nullptr, unit);
 }
 
