@@ -5,7 +5,11 @@
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
 
+#include <benchmark/benchmark.h>
+#include <malloc.h>
 #include <unistd.h>
+
+#include <cstdlib>
 
 #include <cstdint>
 #include <filesystem>
@@ -18,6 +22,36 @@
 #include <vector>
 
 namespace lacuna_bench {
+
+// ---- peak memory ------------------------------------------------------------------------
+// The high-water mark (VmHWM of /proc/self/status) is reset before a run by writing 5 to
+// /proc/self/clear_refs (Linux 4.0 and later), after malloc_trim(0) has handed freed memory
+// back, so the figure is that run's own peak above what was resident before it.
+
+/// A field of /proc/self/status in KiB (VmRSS, VmHWM); -1 if it cannot be read.
+inline long status_kib(const std::string& key) {
+  std::ifstream f("/proc/self/status");
+  std::string line;
+  while (std::getline(f, line))
+    if (line.rfind(key + ":", 0) == 0) return std::strtol(line.c_str() + key.size() + 1, nullptr, 10);
+  return -1;
+}
+
+/// Starts a measurement: frees what malloc keeps, resets the high-water mark, returns VmRSS.
+inline long begin_peak() {
+  malloc_trim(0);
+  std::ofstream("/proc/self/clear_refs") << "5";
+  return status_kib("VmRSS");
+}
+
+/// Counters peak_MB (the rise of the high-water mark), bytes_per_cell and cells.
+inline void report_peak(benchmark::State& state, long rss_before_kib, double cells) {
+  const long peak = status_kib("VmHWM");
+  const double rise = static_cast<double>(peak - rss_before_kib) * 1024.0;
+  state.counters["peak_MB"] = rise / (1024.0 * 1024.0);
+  state.counters["bytes_per_cell"] = rise / cells;
+  state.counters["cells"] = cells;
+}
 
 /// The k x k torus (the layout of examples/torus_facets.cpp: 2k^2 triangles, 3k^2 edges).
 inline const lacuna::simplicial_complex<int>& torus(int k) {

@@ -21,7 +21,6 @@
 #include <lacuna/ring/z2.hpp>
 
 #include <benchmark/benchmark.h>
-#include <malloc.h>
 
 #include <cstdio>
 #include <cstdlib>
@@ -35,29 +34,8 @@
 
 namespace {
 
-/// A field of /proc/self/status in KiB (VmRSS, VmHWM); -1 if it cannot be read.
-long status_kib(const std::string& key) {
-  std::ifstream f("/proc/self/status");
-  std::string line;
-  while (std::getline(f, line))
-    if (line.rfind(key + ":", 0) == 0) return std::strtol(line.c_str() + key.size() + 1, nullptr, 10);
-  return -1;
-}
-
-/// Starts a measurement: frees what malloc keeps, resets the high-water mark, returns VmRSS.
-long begin_peak() {
-  malloc_trim(0);
-  std::ofstream("/proc/self/clear_refs") << "5";
-  return status_kib("VmRSS");
-}
-
-void report(benchmark::State& state, long rss_before_kib, double cells) {
-  const long peak = status_kib("VmHWM");
-  const double rise = static_cast<double>(peak - rss_before_kib) * 1024.0;
-  state.counters["peak_MB"] = rise / (1024.0 * 1024.0);
-  state.counters["bytes_per_cell"] = rise / cells;
-  state.counters["cells"] = cells;
-}
+using lacuna_bench::begin_peak;
+using lacuna_bench::report_peak;
 
 const lacuna::simplicial_complex<std::string>& torus_complex(int k) {
   static std::map<int, std::unique_ptr<lacuna::simplicial_complex<std::string>>> cache;
@@ -75,7 +53,7 @@ void BM_read_facets(benchmark::State& state) {
     const long before = begin_peak();
     auto c = lacuna::io::read_facets(file);
     benchmark::DoNotOptimize(c);
-    report(state, before, cells_of(k));
+    report_peak(state, before, cells_of(k));
   }
 }
 
@@ -108,7 +86,7 @@ void measure_reader(benchmark::State& state, const std::filesystem::path& file, 
   for (auto _ : state) {
     const long before = begin_peak();
     auto c = read(file);
-    report(state, before, cell_total(c));
+    report_peak(state, before, cell_total(c));
     benchmark::DoNotOptimize(c);
   }
   remove_bench_file(file);
@@ -159,7 +137,7 @@ void BM_homology(benchmark::State& state) {
     const long before = begin_peak();
     auto h = lacuna::homology<R>(c, {.generators = generators, .keep_basis = false, .threads = 2});
     benchmark::DoNotOptimize(h);
-    report(state, before, cells_of(k));
+    report_peak(state, before, cells_of(k));
   }
 }
 

@@ -60,6 +60,14 @@ const auto over_integers = [](const auto& c) {
   }
   return h.betti_numbers();
 };
+// The same through the implicit Morse complex of the volume (lacuna/algorithm/cubical_morse.hpp).
+const lacuna::sparse_elimination morse{.reduction = lacuna::pre_reduction::morse};
+const auto morse_over_z2 = [](const auto& c) { return lacuna::homology<lacuna::z2>(c, {}, morse).betti_numbers(); };
+const auto morse_over_integers = [](const auto& c) {
+  const auto h = lacuna::homology<lacuna::integer>(c, {.threads = 2}, morse);
+  for (const auto& g : h.groups) CHECK(g.torsion.empty());
+  return h.betti_numbers();
+};
 
 // Compares compute(complex) with the Betti numbers from duality, and lacuna's chi with the
 // counted one. The empty complex (no foreground) has no groups at all; it is compared as zeros.
@@ -86,6 +94,8 @@ duality_numbers check_all_computations(const Shape& shape) {
   const duality_numbers d = lacuna_volumes::duality_betti(shape);
   check_against_duality(shape, over_z2, d);
   check_against_duality(shape, over_integers, d);
+  check_against_duality(shape, morse_over_z2, d);
+  check_against_duality(shape, morse_over_integers, d);
   return d;
 }
 
