@@ -285,7 +285,25 @@ struct run_options {
   std::optional<std::int64_t> threshold;
   std::optional<std::uint64_t> max_cells;           ///< unset: each reader's own default
   std::optional<std::uint64_t> max_facet_vertices;  ///< .facets: labels per line; unset: the reader's
+  std::string reduction = "auto";  ///< --reduction: auto, none, collapses, coreductions, both, morse
 };
+
+/// The pre-reduction of --reduction. auto: the Morse complex for images and volumes (implicit,
+/// a few bytes per cell), coreductions and collapses for every other input.
+template <class C>
+lacuna::sparse_elimination algorithm_for(const run_options& o) {
+  using lacuna::pre_reduction;
+  lacuna::sparse_elimination a;
+  if (o.reduction == "none")
+    a.reduction = pre_reduction::none;
+  else if (o.reduction == "collapses")
+    a.reduction = pre_reduction::collapses;
+  else if (o.reduction == "coreductions")
+    a.reduction = pre_reduction::coreductions;
+  else if (o.reduction == "morse" || (o.reduction == "auto" && lacuna::detail::implicit_morse<C>::value))
+    a.reduction = pre_reduction::morse;
+  return a;
+}
 
 lacuna::io::facets_read_options facets_options(const run_options& o) {
   lacuna::io::facets_read_options f;
@@ -421,9 +439,9 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
   std::string out;  // nothing reaches stdout until the whole answer is known
   auto go = [&]<class R>(const R& unit) {
     if (marks)
-      report(cx, lacuna::relative_homology<R>(cx, *marks, ho, lacuna::sparse_elimination{}, unit), o, out, marks);
+      report(cx, lacuna::relative_homology<R>(cx, *marks, ho, algorithm_for<C>(o), unit), o, out, marks);
     else
-      report(cx, lacuna::homology<R>(cx, ho, lacuna::sparse_elimination{}, unit), o, out);
+      report(cx, lacuna::homology<R>(cx, ho, algorithm_for<C>(o), unit), o, out);
   };
   switch (o.co.k) {
     case coefficients::integers:
@@ -820,6 +838,10 @@ int main(int argc, char** argv) {
       ->check(count_validator);
   hom->add_option("--max-cells", o.max_cells, "refuse inputs announcing more cells than this")
       ->check(count_validator);
+  hom->add_option("--reduction", o.reduction,
+                  "before the algebra: auto (default: morse for images and volumes, both otherwise), "
+                  "none, collapses, coreductions, both, morse")
+      ->check(CLI::IsMember({"auto", "none", "collapses", "coreductions", "both", "morse"}));
   hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
       ->type_name("SUB");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
