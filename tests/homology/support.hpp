@@ -61,7 +61,7 @@ inline lacuna::sparse_elimination markowitz_only() {
 }
 
 /// Computes homology (or cohomology) of c over R with every variant — sparse default, sparse
-/// Markowitz only, dense (when the complex has at most dense_limit cells; the same limit for
+/// Markowitz only, each pre_reduction (none, collapses, coreductions, morse), dense (when the complex has at most dense_limit cells; the same limit for
 /// verify_generators' dense cross-check) — with generators;
 /// checks that the groups agree and that every result's generators pass verify_generators.
 /// Returns the groups of the default variant.
@@ -86,6 +86,21 @@ std::vector<group> all_variants(const C& c, bool co = false, bool reduced = fals
     const auto rep = lacuna::verify_generators(c, h1, {.dense_cell_limit = dense_limit});
     INFO("markowitz only: ", rep.first_failure);
     CHECK(rep.ok);
+  }
+  // Every pre_reduction (lacuna/algorithm/smith_normal_form.hpp): the same groups, and
+  // generators — for morse lifted from the Morse complex — that pass verification.
+  for (auto red : {lacuna::pre_reduction::none, lacuna::pre_reduction::collapses, lacuna::pre_reduction::coreductions,
+                   lacuna::pre_reduction::morse}) {
+    const auto h = run(lacuna::sparse_elimination{.reduction = red});
+    INFO("default: ", show(g0), " pre_reduction ", static_cast<int>(red), ": ", show(groups_of(h)));
+    CHECK(groups_of(h) == g0);
+    const auto rep = lacuna::verify_generators(c, h, {.dense_cell_limit = dense_limit});
+    INFO("pre_reduction ", static_cast<int>(red), ": ", rep.first_failure);
+    CHECK(rep.ok);
+    // without generators (for cohomology this is the only Morse route)
+    const auto p = co ? lacuna::cohomology<R>(c, {.reduced = reduced}, lacuna::sparse_elimination{.reduction = red})
+                      : lacuna::homology<R>(c, {.reduced = reduced}, lacuna::sparse_elimination{.reduction = red});
+    CHECK(groups_of(p) == g0);
   }
   if (lacuna::total_cell_count(c) <= dense_limit) {
     const auto h2 = run(lacuna::dense_elimination{});

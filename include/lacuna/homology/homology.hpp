@@ -17,6 +17,7 @@
 #include <lacuna/algorithm/cubical_morse.hpp>
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/chain.hpp>
@@ -557,7 +558,11 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
           *m, opt, alg, co, unit, [&](const chain<R>& z) { return m->lift(c, z, unit); },
           [m, original, unit](const chain<R>& x) { return m->project(*original, x, unit); });
     } else {
-      return std::nullopt;
+      auto m = std::make_shared<const morse_complex>(morse_reduce(c, {.control = &opt.control}));
+      const run_control* control = &opt.control;
+      return on_morse_complex<R>(
+          *m, opt, alg, co, unit, [&](const chain<R>& z) { return m->lift(z, unit, control); },
+          [m, unit](const chain<R>& x) { return m->project(x, unit); });
     }
   } catch (const coefficient_overflow&) {
     return std::nullopt;
