@@ -300,7 +300,7 @@ lacuna::sparse_elimination algorithm_for(const run_options& o) {
     a.reduction = pre_reduction::collapses;
   else if (o.reduction == "coreductions")
     a.reduction = pre_reduction::coreductions;
-  else if (o.reduction == "morse" || (o.reduction == "auto" && lacuna::detail::implicit_morse<C>::value))
+  else if (o.reduction == "morse" || (o.reduction == "auto" && lacuna::has_implicit_morse_complex<C>))
     a.reduction = pre_reduction::morse;
   return a;
 }

@@ -23,9 +23,9 @@
 // f∘g = id, and g∘f is chain homotopic to the identity, so a generator of the Morse complex's
 // homology lifts to a generator of the original's (tests/cubical/cubical_morse.cpp checks both).
 //
-// Memory: the voxels as one bit each (padded by one voxel on every side), one 32-bit root per
-// vertex (where each vertex flows to), and the critical cells with their boundaries — no
-// per-cell objects. Work: one pass over the vertices, then one path search per critical cell of
+// Memory: one byte per vertex (its voxel configuration; the padded voxel bitmap it is read from
+// is freed once it is filled), one 32-bit root per vertex while dimension 1 is done (where
+// each vertex flows to), and the critical cells with their boundaries — no per-cell objects. Work: one pass over the vertices, then one path search per critical cell of
 // dimension >= 2. With threads = 2 both passes split in two halves; the result is identical.
 #pragma once
 
@@ -65,7 +65,6 @@ struct lower_star_table {
     std::array<std::uint8_t, cells> axis{};     // the axis added (with_coface) or removed (with_face)
     std::array<std::uint8_t, cells> rank{};     // the order of assignment
     std::array<std::uint8_t, cells> at_rank{};  // rank -> cell
-    std::array<std::uint8_t, D + 1> critical_count{};
     std::uint8_t size = 0;  // cells of the lower star present (ranks 0..size-1)
   };
   std::vector<entry> entries;
@@ -129,7 +128,6 @@ struct lower_star_table {
       for (unsigned e : order)
         if (((present >> e) & 1u) && !((assigned >> e) & 1u) && faces_assigned_except(e, -1)) {
           assign(e, critical, 0);
-          ++t.critical_count[static_cast<std::size_t>(std::popcount(e))];
           break;
         }
     }
@@ -681,6 +679,12 @@ class cubical_morse_complex {
     }
   }
 };
+
+/// True for the complexes cubical_morse_reduce serves: cubical_complex<D>, 1 <= D <= 4.
+template <class C>
+inline constexpr bool has_implicit_morse_complex = false;
+template <std::size_t D>
+inline constexpr bool has_implicit_morse_complex<cubical_complex<D>> = (D <= 4);
 
 /// The Morse complex of the cubical complex of a binary image or volume (see the file comment).
 template <std::size_t D>

@@ -522,11 +522,6 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
 
 namespace detail {
 
-template <class C>
-struct implicit_morse : std::false_type {};
-template <std::size_t D>
-struct implicit_morse<cubical_complex<D>> : std::bool_constant<(D <= 4)> {};
-
 /// The algebra on a Morse complex m of c (pre_reduction::morse): generators are lifted to
 /// c, and with a basis, coordinates() first projects a cycle of c to m.
 template <euclidean_domain R, class M, class Lift, class Project>
@@ -548,7 +543,7 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
   if (co && (opt.generators || *opt.keep_basis)) return std::nullopt;
   alg.reduction = pre_reduction::coreductions_and_collapses;
   try {
-    if constexpr (implicit_morse<C>::value) {
+    if constexpr (has_implicit_morse_complex<C>) {
       constexpr std::size_t D = C::dimension;
       auto m = std::make_shared<const cubical_morse_complex<D>>(
           cubical_morse_reduce(c, {.threads = opt.threads, .control = &opt.control}));
