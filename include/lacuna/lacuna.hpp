@@ -28,6 +28,9 @@
 #include <lacuna/algorithm/elimination_maps.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/field_reduction.hpp>
+#include <lacuna/algorithm/morse_reduction.hpp>
+#include <lacuna/algorithm/cubical_morse.hpp>
+#include <lacuna/algorithm/dominated_vertices.hpp>
 
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/homology/verify.hpp>
@@ -36,6 +39,7 @@
 #include <lacuna/homology/exact_sequence.hpp>
 #include <lacuna/homology/euler_checks.hpp>
 #include <lacuna/homology/mayer_vietoris.hpp>
+#include <lacuna/homology/clique_homology.hpp>
 
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/cells.hpp>

@@ -5,6 +5,10 @@
 // number (each clique is visited exactly once; no subset of a non-clique is ever formed), and
 // only the cliques that cannot be extended within the dimension bound are handed to the
 // builder as facets. Time O(sum over cliques of degree), memory as the complex.
+//
+// clique_counts() walks the same enumeration without storing a simplex: the number of
+// simplices per dimension in memory O(graph). lacuna/homology/clique_homology.hpp uses it
+// for the clique complex it never builds.
 #pragma once
 
 #include <lacuna/complex/errors.hpp>
@@ -21,22 +25,64 @@
 namespace lacuna {
 
 namespace detail {
-inline void extend_cliques(std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& candidates,
-                           const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size,
-                           std::vector<std::vector<std::uint32_t>>& facets_out) {
-  if (candidates.empty() || clique.size() == max_size) {
-    facets_out.push_back(clique);
-    return;
-  }
+/// Visits every clique that extends `clique` by vertices of `candidates` (the common
+/// neighbours of higher number), `clique` itself first, each once, up to max_size vertices:
+/// visit(clique, maximal), maximal when nothing of higher number extends it within the bound.
+template <class Visit>
+void extend_cliques(std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& candidates,
+                    const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size, Visit& visit) {
+  const bool maximal = candidates.empty() || clique.size() == max_size;
+  visit(std::as_const(clique), maximal);
+  if (maximal) return;
   std::vector<std::uint32_t> next;
   for (const std::uint32_t c : candidates) {
     next.clear();
     const auto& h = higher[c];
     std::set_intersection(candidates.begin(), candidates.end(), h.begin(), h.end(), std::back_inserter(next));
     clique.push_back(c);
-    extend_cliques(clique, next, higher, max_size, facets_out);
+    extend_cliques(clique, next, higher, max_size, visit);
     clique.pop_back();
   }
+}
+
+/// Every clique of at most max_size vertices of the graph whose neighbours of higher number
+/// are `higher` (sorted lists), once each, by vertex: visit(clique, maximal) as above.
+template <class Visit>
+void for_each_clique(const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size, Visit&& visit) {
+  std::vector<std::uint32_t> clique;
+  for (std::uint32_t v = 0; v < higher.size(); ++v) {
+    clique.assign(1, v);
+    extend_cliques(clique, higher[v], higher, max_size, visit);
+  }
+}
+
+/// Numbers the vertices of a graph in `b` (the given vertices first, then edge endpoints in
+/// order of first appearance) and returns, per vertex, its neighbours of higher number,
+/// sorted and without repeats. Throws invalid_complex for an edge from a vertex to itself.
+template <simplex_label Label, std::ranges::input_range Edges>
+std::vector<std::vector<std::uint32_t>> index_graph(const std::vector<Label>& vertices, const Edges& edges,
+                                                    typename simplicial_complex<Label>::builder& b,
+                                                    const char* who) {
+  for (const auto& v : vertices) b.vertex(v);
+  std::vector<std::pair<std::uint32_t, std::uint32_t>> e;
+  std::size_t number = 0;
+  for (const auto& edge : edges) {
+    ++number;
+    const Label& x = std::get<0>(edge);
+    const Label& y = std::get<1>(edge);
+    const auto u = b.vertex(x), v = b.vertex(y);
+    if (u == v)
+      throw invalid_complex(std::string(who) + ": edge number " + std::to_string(number) + " joins vertex '" +
+                            detail::label_to_string(x) + "' to itself");
+    e.emplace_back(std::min(u, v), std::max(u, v));
+  }
+  std::vector<std::vector<std::uint32_t>> higher(b.vertex_count());
+  for (const auto& [u, v] : e) higher[u].push_back(v);
+  for (auto& h : higher) {
+    std::sort(h.begin(), h.end());
+    h.erase(std::unique(h.begin(), h.end()), h.end());
+  }
+  return higher;
 }
 }  // namespace detail
 
@@ -49,34 +95,11 @@ template <simplex_label Label, std::ranges::input_range Edges>
 simplicial_complex<Label> clique_complex(const std::vector<Label>& vertices, const Edges& edges, int max_dimension) {
   if (max_dimension < 0) throw std::invalid_argument("clique_complex: negative dimension bound");
   typename simplicial_complex<Label>::builder b;
-  for (const auto& v : vertices) b.vertex(v);
-  std::vector<std::pair<std::uint32_t, std::uint32_t>> e;
-  std::size_t number = 0;
-  for (const auto& edge : edges) {
-    ++number;
-    const Label& x = std::get<0>(edge);
-    const Label& y = std::get<1>(edge);
-    const auto u = b.vertex(x), v = b.vertex(y);
-    if (u == v)
-      throw invalid_complex("clique_complex: edge number " + std::to_string(number) + " joins vertex '" +
-                            detail::label_to_string(x) + "' to itself");
-    e.emplace_back(std::min(u, v), std::max(u, v));
-  }
-  std::vector<std::vector<std::uint32_t>> higher(b.vertex_count());
-  for (const auto& [u, v] : e) higher[u].push_back(v);
-  for (auto& h : higher) {
-    std::sort(h.begin(), h.end());
-    h.erase(std::unique(h.begin(), h.end()), h.end());
-  }
-  std::vector<std::vector<std::uint32_t>> facets;
-  std::vector<std::uint32_t> clique;
-  const auto max_size = static_cast<std::size_t>(max_dimension) + 1;
-  for (std::uint32_t v = 0; v < higher.size(); ++v) {
-    clique.assign(1, v);
-    detail::extend_cliques(clique, higher[v], higher, max_size, facets);
-    for (const auto& f : facets) b.add_facet_ids(f);
-    facets.clear();
-  }
+  const auto higher = detail::index_graph(vertices, edges, b, "clique_complex");
+  detail::for_each_clique(higher, static_cast<std::size_t>(max_dimension) + 1,
+                          [&](const std::vector<std::uint32_t>& clique, bool maximal) {
+                            if (maximal) b.add_facet_ids(clique);
+                          });
   return std::move(b).finalize();
 }
 
@@ -84,6 +107,23 @@ simplicial_complex<Label> clique_complex(const std::vector<Label>& vertices, con
 template <simplex_label Label>
 simplicial_complex<Label> clique_complex(const std::vector<std::pair<Label, Label>>& edges, int max_dimension) {
   return clique_complex(std::vector<Label>{}, edges, max_dimension);
+}
+
+/// The number of k-simplices of clique_complex(vertices, edges, max_dimension), k = 0..top
+/// (the vector is as long as the complex has dimensions), counted without building it:
+/// memory O(vertices + edges). Errors as for clique_complex.
+template <simplex_label Label, std::ranges::input_range Edges>
+std::vector<std::size_t> clique_counts(const std::vector<Label>& vertices, const Edges& edges, int max_dimension) {
+  if (max_dimension < 0) throw std::invalid_argument("clique_counts: negative dimension bound");
+  typename simplicial_complex<Label>::builder b;
+  const auto higher = detail::index_graph(vertices, edges, b, "clique_counts");
+  std::vector<std::size_t> counts;
+  detail::for_each_clique(higher, static_cast<std::size_t>(max_dimension) + 1,
+                          [&](const std::vector<std::uint32_t>& clique, bool) {
+                            if (counts.size() < clique.size()) counts.resize(clique.size(), 0);
+                            ++counts[clique.size() - 1];
+                          });
+  return counts;
 }
 
 }  // namespace lacuna
