@@ -276,7 +276,7 @@ TEST_CASE("textbook clique complexes") {
     const auto h = lacuna::clique_homology<integer>(oct, d);
     CHECK(groups_from(h.groups) == std::vector<group>{{1, {}}, {0, {}}, {1, {}}});
     CHECK(h.core.vertex_count() == 6);
-    CHECK(h.top_from_counts == (d == 2));
+    CHECK_FALSE(h.top_from_counts);  // no clique of 4 vertices: the bound never bites
   }
   // A cycle of 7 vertices: S^1.
   std::vector<std::pair<int, int>> c7;
@@ -366,6 +366,102 @@ TEST_CASE("generators: cycles of the whole complex, bases both ways") {
   check_generators(std::vector<int>{}, oct, 3);
 }
 
+TEST_CASE("remove_dominated_edges: each removal a domination at its time, none left") {
+  for (std::uint64_t seed = 1; seed <= 6; ++seed) {
+    CAPTURE(seed);
+    const auto g = seed % 2 == 0 ? geometric_graph(70, 0.25, seed) : random_graph(30, 0.4, seed);
+    std::vector<std::set<std::uint32_t>> adj(g.vertices.size());
+    for (const auto& [u, v] : g.edges) {
+      adj[static_cast<std::size_t>(u)].insert(static_cast<std::uint32_t>(v));
+      adj[static_cast<std::size_t>(v)].insert(static_cast<std::uint32_t>(u));
+    }
+    std::vector<std::vector<std::uint32_t>> lists;
+    for (const auto& a : adj) lists.emplace_back(a.begin(), a.end());
+    const auto r = lacuna::remove_dominated_edges(lists);
+    CHECK(r.removed.size() > 0);
+    // closed neighbourhoods, in the graph of the moment
+    const auto closed = [&](std::uint32_t v) {
+      auto s = adj[v];
+      s.insert(v);
+      return s;
+    };
+    const auto is_dominated = [&](std::uint32_t u, std::uint32_t v) {
+      std::set<std::uint32_t> both;
+      const auto nu = closed(u), nv = closed(v);
+      std::set_intersection(nu.begin(), nu.end(), nv.begin(), nv.end(), std::inserter(both, both.end()));
+      for (const auto w : both) {
+        if (w == u || w == v) continue;
+        const auto nw = closed(w);
+        if (std::includes(nw.begin(), nw.end(), both.begin(), both.end())) return true;
+      }
+      return false;
+    };
+    for (const auto& [u, v] : r.removed) {
+      REQUIRE(adj[u].count(v) == 1);
+      CHECK(is_dominated(u, v));
+      adj[u].erase(v);
+      adj[v].erase(u);
+    }
+    for (std::uint32_t v = 0; v < adj.size(); ++v) {
+      CHECK(std::vector<std::uint32_t>(adj[v].begin(), adj[v].end()) == r.neighbours[v]);
+      for (const auto w : adj[v])
+        if (v < w) CHECK_FALSE(is_dominated(v, w));
+    }
+  }
+  CHECK_THROWS_AS(lacuna::remove_dominated_edges({{1}, {}}), std::invalid_argument);
+}
+
+TEST_CASE("dominated edges: the same groups, generators cycles of the whole complex") {
+  lacuna::clique_homology_options edges;
+  edges.reduction = lacuna::clique_reduction::dominated_edges;
+  int removed_somewhere = 0;
+  for (std::uint64_t seed = 1; seed <= 10; ++seed) {
+    CAPTURE(seed);
+    const auto g = seed % 3 == 0 ? random_graph(24, 0.35, seed) : geometric_graph(60, 0.2 + 0.01 * static_cast<double>(seed), seed);
+    for (int d = 1; d <= 3; ++d) {
+      CAPTURE(d);
+      const auto h = lacuna::clique_homology<integer>(g.vertices, g.edges, d, edges);
+      CHECK(groups_from(h.groups) == built_in_full<integer>(g.vertices, g.edges, d));
+      CHECK(groups_from(lacuna::clique_homology<lacuna::z2>(g.vertices, g.edges, d, edges).groups) ==
+            built_in_full<lacuna::z2>(g.vertices, g.edges, d));
+      if (h.removed_edges > 0) ++removed_somewhere;
+    }
+    // Generators, below the top: cycles of the whole complex, unimodular in its basis.
+    edges.homology.generators = true;
+    const auto full = lacuna::clique_complex(g.vertices, g.edges, 3);
+    const auto hf = lacuna::homology<integer>(full, {.generators = true});
+    const auto h = lacuna::clique_homology<integer>(g.vertices, g.edges, 3, edges);
+    const int below = h.top_from_counts ? h.top_dimension() : h.top_dimension() + 1;
+    for (int k = 0; k < below; ++k) {
+      std::vector<std::vector<integer>> rows;
+      for (const auto& z : h.groups[static_cast<std::size_t>(k)].generators)
+        rows.push_back(hf.coordinates(full, on(full, k, labelled(h.core, z))));
+      check_unimodular(rows, h.groups[static_cast<std::size_t>(k)].rank);
+    }
+    if (h.removed_edges > 0) {
+      using S = std::vector<std::pair<std::vector<int>, integer>>;
+      CHECK_THROWS_AS(h.retract(0, S{{{0}, integer(1)}}), std::logic_error);
+    }
+    edges.homology.generators = false;
+  }
+  CHECK(removed_somewhere >= 20);
+}
+
+TEST_CASE("two threads count the same cliques") {
+  for (std::uint64_t seed = 1; seed <= 4; ++seed) {
+    const auto g = geometric_graph(90, 0.3, seed);
+    for (int d = 0; d <= 4; ++d) {
+      lacuna::clique_homology_options one, two;
+      two.homology.threads = 2;
+      const auto a = lacuna::clique_homology<integer>(g.vertices, g.edges, d, one);
+      const auto b = lacuna::clique_homology<integer>(g.vertices, g.edges, d, two);
+      CHECK(a.cell_counts == b.cell_counts);
+      CHECK(a.top_from_counts == b.top_from_counts);
+      CHECK(groups_from(a.groups) == groups_from(b.groups));
+    }
+  }
+}
+
 TEST_CASE("errors") {
   const std::vector<std::pair<int, int>> tri{{0, 1}, {1, 2}, {2, 0}, {2, 3}};
   CHECK_THROWS_AS(lacuna::clique_homology<integer>(tri, -1), std::invalid_argument);
@@ -398,5 +494,9 @@ TEST_CASE("errors") {
   source.request_stop();
   lacuna::clique_homology_options stopped;
   stopped.homology.control.stop = source.get_token();
+  CHECK_THROWS_AS(lacuna::clique_homology<integer>(tri, 2, stopped), lacuna::computation_stopped);
+  stopped.homology.threads = 2;
+  CHECK_THROWS_AS(lacuna::clique_homology<integer>(tri, 2, stopped), lacuna::computation_stopped);
+  stopped.reduction = lacuna::clique_reduction::dominated_edges;
   CHECK_THROWS_AS(lacuna::clique_homology<integer>(tri, 2, stopped), lacuna::computation_stopped);
 }

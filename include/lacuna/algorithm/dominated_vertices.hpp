@@ -35,6 +35,25 @@
 
 namespace lacuna {
 
+namespace detail {
+/// Throws std::invalid_argument unless the lists are a simple undirected graph (sorted,
+/// no repeats, no loops, symmetric).
+inline void check_adjacency(const std::vector<std::vector<std::uint32_t>>& a, const char* who) {
+  const auto n = a.size();
+  if (n > UINT32_MAX) throw std::invalid_argument(std::string(who) + ": more than 2^32 - 1 vertices");
+  for (std::size_t v = 0; v < n; ++v)
+    for (std::size_t i = 0; i < a[v].size(); ++i) {
+      const std::uint32_t w = a[v][i];
+      if (w >= n || w == v || (i > 0 && w <= a[v][i - 1]))
+        throw std::invalid_argument(std::string(who) + ": the neighbours of vertex " + std::to_string(v) +
+                                    " are not a sorted list of other vertices");
+      if (!std::binary_search(a[w].begin(), a[w].end(), static_cast<std::uint32_t>(v)))
+        throw std::invalid_argument(std::string(who) + ": vertex " + std::to_string(v) + " lists " +
+                                    std::to_string(w) + " as a neighbour but not the other way round");
+    }
+}
+}  // namespace detail
+
 /// The outcome of remove_dominated_vertices.
 struct vertex_retraction {
   /// image[v]: the kept vertex the retraction sends v to; image[v] == v for kept vertices.
@@ -52,25 +71,10 @@ struct vertex_retraction {
 /// stop request of `control` (may be null).
 inline vertex_retraction remove_dominated_vertices(const std::vector<std::vector<std::uint32_t>>& neighbours,
                                                    const run_control* control = nullptr) {
+  detail::check_adjacency(neighbours, "remove_dominated_vertices");
   const auto n = static_cast<std::uint32_t>(neighbours.size());
-  if (neighbours.size() != n) throw std::invalid_argument("remove_dominated_vertices: more than 2^32 vertices");
   std::vector<std::uint32_t> degree(n);
-  for (std::uint32_t v = 0; v < n; ++v) {
-    const auto& a = neighbours[v];
-    for (std::size_t i = 0; i < a.size(); ++i) {
-      if (a[i] >= n || a[i] == v || (i > 0 && a[i] <= a[i - 1]))
-        throw std::invalid_argument("remove_dominated_vertices: the neighbours of vertex " + std::to_string(v) +
-                                    " are not a sorted list of other vertices");
-    }
-    degree[v] = static_cast<std::uint32_t>(a.size());
-  }
-  for (std::uint32_t v = 0; v < n; ++v)
-    for (const std::uint32_t w : neighbours[v]) {
-      const auto& b = neighbours[w];
-      if (!std::binary_search(b.begin(), b.end(), v))
-        throw std::invalid_argument("remove_dominated_vertices: vertex " + std::to_string(v) + " lists " +
-                                    std::to_string(w) + " as a neighbour but not the other way round");
-    }
+  for (std::uint32_t v = 0; v < n; ++v) degree[v] = static_cast<std::uint32_t>(neighbours[v].size());
 
   vertex_retraction r;
   r.image.resize(n);

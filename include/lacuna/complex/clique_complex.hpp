@@ -27,13 +27,13 @@ namespace lacuna {
 namespace detail {
 /// Visits every clique that extends `clique` by vertices of `candidates` (the common
 /// neighbours of higher number), `clique` itself first, each once, up to max_size vertices:
-/// visit(clique, maximal), maximal when nothing of higher number extends it within the bound.
+/// visit(clique, candidates), candidates the vertices of higher number that extend it (those
+/// of a clique of max_size vertices are not followed).
 template <class Visit>
 void extend_cliques(std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& candidates,
                     const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size, Visit& visit) {
-  const bool maximal = candidates.empty() || clique.size() == max_size;
-  visit(std::as_const(clique), maximal);
-  if (maximal) return;
+  visit(std::as_const(clique), candidates);
+  if (candidates.empty() || clique.size() == max_size) return;
   std::vector<std::uint32_t> next;
   for (const std::uint32_t c : candidates) {
     next.clear();
@@ -46,7 +46,7 @@ void extend_cliques(std::vector<std::uint32_t>& clique, const std::vector<std::u
 }
 
 /// Every clique of at most max_size vertices of the graph whose neighbours of higher number
-/// are `higher` (sorted lists), once each, by vertex: visit(clique, maximal) as above.
+/// are `higher` (sorted lists), once each, by vertex: visit(clique, candidates) as above.
 template <class Visit>
 void for_each_clique(const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size, Visit&& visit) {
   std::vector<std::uint32_t> clique;
@@ -54,6 +54,64 @@ void for_each_clique(const std::vector<std::vector<std::uint32_t>>& higher, std:
     clique.assign(1, v);
     extend_cliques(clique, higher[v], higher, max_size, visit);
   }
+}
+
+/// The number of cliques of each size 1..max_size, and whether a clique of max_size + 1
+/// vertices exists (the dimension bound cuts the complex).
+struct clique_census {
+  std::vector<std::size_t> counts;
+  bool larger = false;
+};
+
+/// Counts below a clique of `size` vertices whose extensions are `candidates`, into `out`;
+/// buffers[s] holds the candidates of the cliques of s + 1 vertices met on the way.
+inline void count_extensions(const std::vector<std::vector<std::uint32_t>>& higher, const std::vector<std::uint32_t>& candidates,
+                             std::size_t size, std::size_t max_size, std::vector<std::vector<std::uint32_t>>& buffers,
+                             clique_census& out) {
+  if (size + 1 == max_size) {  // the extensions are cliques of max_size vertices: no need to list them
+    out.counts[size] += candidates.size();
+    if (!out.larger)
+      for (auto it = candidates.begin(); it != candidates.end() && !out.larger; ++it) {
+        const auto& h = higher[*it];
+        auto a = it + 1;
+        auto b = h.begin();
+        while (a != candidates.end() && b != h.end()) {
+          if (*a < *b) ++a;
+          else if (*b < *a) ++b;
+          else { out.larger = true; break; }
+        }
+      }
+    return;
+  }
+  auto& next = buffers[size];
+  for (const std::uint32_t c : candidates) {
+    next.clear();
+    const auto& h = higher[c];
+    std::set_intersection(candidates.begin(), candidates.end(), h.begin(), h.end(), std::back_inserter(next));
+    ++out.counts[size];
+    if (!next.empty()) count_extensions(higher, next, size + 1, max_size, buffers, out);
+  }
+}
+
+/// The census of the cliques of at most max_size vertices (max_size >= 1) whose first vertex
+/// v has v % stride == offset. Calls tick() once per first vertex.
+template <class Tick>
+clique_census census_of_cliques(const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size,
+                                std::size_t offset, std::size_t stride, Tick&& tick) {
+  clique_census out;
+  out.counts.assign(max_size, 0);
+  std::vector<std::vector<std::uint32_t>> buffers(max_size);
+  for (std::size_t v = offset; v < higher.size(); v += stride) {
+    tick();
+    ++out.counts[0];
+    const auto& h = higher[v];
+    if (max_size == 1)
+      out.larger = out.larger || !h.empty();
+    else if (!h.empty())
+      count_extensions(higher, h, 1, max_size, buffers, out);
+  }
+  while (!out.counts.empty() && out.counts.back() == 0) out.counts.pop_back();
+  return out;
 }
 
 /// Numbers the vertices of a graph in `b` (the given vertices first, then edge endpoints in
@@ -96,9 +154,10 @@ simplicial_complex<Label> clique_complex(const std::vector<Label>& vertices, con
   if (max_dimension < 0) throw std::invalid_argument("clique_complex: negative dimension bound");
   typename simplicial_complex<Label>::builder b;
   const auto higher = detail::index_graph(vertices, edges, b, "clique_complex");
-  detail::for_each_clique(higher, static_cast<std::size_t>(max_dimension) + 1,
-                          [&](const std::vector<std::uint32_t>& clique, bool maximal) {
-                            if (maximal) b.add_facet_ids(clique);
+  const auto max_size = static_cast<std::size_t>(max_dimension) + 1;
+  detail::for_each_clique(higher, max_size,
+                          [&](const std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& up) {
+                            if (up.empty() || clique.size() == max_size) b.add_facet_ids(clique);
                           });
   return std::move(b).finalize();
 }
@@ -117,13 +176,7 @@ std::vector<std::size_t> clique_counts(const std::vector<Label>& vertices, const
   if (max_dimension < 0) throw std::invalid_argument("clique_counts: negative dimension bound");
   typename simplicial_complex<Label>::builder b;
   const auto higher = detail::index_graph(vertices, edges, b, "clique_counts");
-  std::vector<std::size_t> counts;
-  detail::for_each_clique(higher, static_cast<std::size_t>(max_dimension) + 1,
-                          [&](const std::vector<std::uint32_t>& clique, bool) {
-                            if (counts.size() < clique.size()) counts.resize(clique.size(), 0);
-                            ++counts[clique.size() - 1];
-                          });
-  return counts;
+  return detail::census_of_cliques(higher, static_cast<std::size_t>(max_dimension) + 1, 0, 1, [] {}).counts;
 }
 
 }  // namespace lacuna

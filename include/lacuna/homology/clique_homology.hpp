@@ -15,9 +15,15 @@
 // characteristic (Euler–Poincaré: Σ (-1)^k n_k = Σ (-1)^k rank H_k over any field, ranks of
 // free parts over a domain):
 //   rank H_d(K) = (-1)^d (χ(K) - Σ_{k<d} (-1)^k rank H_k(K)),  χ(K) from counted cliques.
-// When the graph has no clique of d + 1 vertices, the bound does not bite: every clique
-// has at most d + 1 vertices, K is the whole clique complex and every group, the top one
-// included, comes from K' with torsion and generators.
+// When the graph has no clique of d + 2 vertices the bound does not bite: K is the whole
+// clique complex, and every group, the top one included, comes from K' with torsion and
+// generators.
+//
+// clique_reduction::dominated_edges first removes dominated edges (Boissonnat & Pritam 2020;
+// lacuna/algorithm/dominated_edges.hpp), then dominated vertices. The clique complex of the
+// graph that is left is a subcomplex of the whole one onto which the whole one collapses, so
+// the inclusion is again an isomorphism below the top and generators are again cycles of K;
+// but there is no simplicial retraction, so retract() and coordinates() are not offered.
 //
 // Generators are chains of `core`, whose simplices are cliques of the input graph: cycles of
 // K as they stand. The top group of a truncated complex has none (`top_from_counts`); raise
@@ -29,6 +35,7 @@
 // the whole graph and this is homology(clique_complex(...)) with the top from counts.
 #pragma once
 
+#include <lacuna/algorithm/dominated_edges.hpp>
 #include <lacuna/algorithm/dominated_vertices.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/run_control.hpp>
@@ -39,8 +46,10 @@
 
 #include <algorithm>
 #include <cstdint>
+#include <exception>
 #include <stdexcept>
 #include <string>
+#include <thread>
 #include <utility>
 #include <vector>
 
@@ -50,6 +59,10 @@ namespace lacuna {
 enum class clique_reduction {
   none,                ///< nothing: the clique complex of the whole graph
   dominated_vertices,  ///< dominated vertices, until none is left (the default)
+  /// dominated edges until none is left, then dominated vertices: a much smaller core on
+  /// graphs of sampled spaces, but no retraction (retract() and coordinates() throw when an
+  /// edge went)
+  dominated_edges,
 };
 
 struct clique_homology_options {
@@ -74,8 +87,11 @@ struct clique_homology_result {
   /// The vertices of the input graph in their numbering (given vertices, then endpoints in
   /// order of first appearance), as a complex of vertices: input.label(v), input.vertex(l).
   simplicial_complex<Label> input;
-  /// The retraction onto the core, by input vertex.
+  /// The retraction onto the core, by input vertex (of the graph left by the removal of
+  /// edges, when there was one).
   vertex_retraction retraction;
+  /// The number of edges removed (clique_reduction::dominated_edges).
+  std::size_t removed_edges = 0;
   /// The input graph: for each input vertex its neighbours of higher number, sorted.
   std::vector<std::vector<std::uint32_t>> adjacency;
 
@@ -92,6 +108,8 @@ struct clique_homology_result {
   /// wrong size or one that is not a clique.
   chain<R> retract(int k, const std::vector<std::pair<std::vector<Label>, R>>& simplices) const {
     if (k < 0) throw std::invalid_argument("clique_homology: a chain of negative dimension");
+    if (removed_edges > 0)
+      throw std::logic_error("clique_homology: dominated edges were removed, so there is no retraction onto the core");
     chain<R> out{k, {}};
     std::vector<std::uint32_t> ids, sorted;
     for (const auto& [labels, coefficient] : simplices) {
@@ -161,17 +179,46 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
   const auto& higher = out.adjacency;
   const auto n = static_cast<std::uint32_t>(higher.size());
   const auto max_size = static_cast<std::size_t>(max_dimension) + 1;
+  bool truncated = false;  // the bound bites: some clique has more than max_size vertices
   {
-    detail::progress_ticker tick(control, "counting cliques", 0);
-    detail::for_each_clique(higher, max_size, [&](const std::vector<std::uint32_t>& clique, bool) {
-      if (out.cell_counts.size() < clique.size()) out.cell_counts.resize(clique.size(), 0);
-      ++out.cell_counts[clique.size() - 1];
-      tick();
-    });
+    // With two threads, the cliques are split by the parity of their first vertex; the
+    // second thread only looks at the stop request (progress comes from this thread).
+    const std::size_t stride = options.homology.threads >= 2 ? 2 : 1;
+    detail::progress_ticker tick(control, "counting cliques", (n + stride - 1) / stride);
+    detail::clique_census other;
+    std::exception_ptr failed;
+    std::thread helper;
+    if (stride == 2)
+      helper = std::thread([&] {
+        try {
+          std::uint32_t steps = 0;
+          other = detail::census_of_cliques(higher, max_size, 1, 2, [&] {
+            if ((++steps & 1023U) == 0) control->check();
+          });
+        } catch (...) {
+          failed = std::current_exception();
+        }
+      });
+    detail::clique_census mine;
+    try {
+      mine = detail::census_of_cliques(higher, max_size, 0, stride, [&] { tick(); });
+    } catch (...) {
+      if (helper.joinable()) helper.join();
+      throw;
+    }
+    if (helper.joinable()) helper.join();
+    if (failed) std::rethrow_exception(failed);
+    out.cell_counts = std::move(mine.counts);
+    if (out.cell_counts.size() < other.counts.size()) out.cell_counts.resize(other.counts.size(), 0);
+    for (std::size_t k = 0; k < other.counts.size(); ++k) out.cell_counts[k] += other.counts[k];
+    truncated = mine.larger || other.larger;
+    tick.finish();
   }
   out.input = std::move(b).finalize();
 
-  if (options.reduction == clique_reduction::dominated_vertices) {
+  // The graph the core is taken from: the input, or what the removal of edges leaves.
+  std::vector<std::vector<std::uint32_t>> reduced_higher;
+  if (options.reduction != clique_reduction::none) {
     std::vector<std::vector<std::uint32_t>> neighbours(n);
     for (std::uint32_t u = 0; u < n; ++u)
       for (const std::uint32_t v : higher[u]) {
@@ -179,11 +226,21 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
         neighbours[v].push_back(u);
       }
     for (auto& a : neighbours) std::sort(a.begin(), a.end());
+    if (options.reduction == clique_reduction::dominated_edges) {
+      auto e = remove_dominated_edges(std::move(neighbours), control);
+      out.removed_edges = e.removed.size();
+      neighbours = std::move(e.neighbours);
+      reduced_higher.resize(n);
+      for (std::uint32_t u = 0; u < n; ++u)
+        for (const std::uint32_t v : neighbours[u])
+          if (v > u) reduced_higher[u].push_back(v);
+    }
     out.retraction = remove_dominated_vertices(neighbours, control);
   } else {
     out.retraction.image.resize(n);
     for (std::uint32_t v = 0; v < n; ++v) out.retraction.image[v] = v;
   }
+  const auto& graph = out.removed_edges > 0 ? reduced_higher : higher;
 
   {
     detail::progress_ticker tick(control, "building the core", n);
@@ -195,12 +252,12 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
     for (std::uint32_t u = 0; u < n; ++u) {
       if (core_id[u] == UINT32_MAX) continue;
       auto& h = core_higher[core_id[u]];
-      for (const std::uint32_t v : higher[u])
+      for (const std::uint32_t v : graph[u])
         if (core_id[v] != UINT32_MAX) h.push_back(core_id[v]);  // increasing: ids keep the order
       tick();
     }
-    detail::for_each_clique(core_higher, max_size, [&](const std::vector<std::uint32_t>& clique, bool maximal) {
-      if (maximal) cb.add_facet_ids(clique);
+    detail::for_each_clique(core_higher, max_size, [&](const std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& up) {
+      if (up.empty() || clique.size() == max_size) cb.add_facet_ids(clique);
     });
     out.core = std::move(cb).finalize();
   }
@@ -213,7 +270,6 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
     out.groups = out.core_homology.groups;
     return out;
   }
-  const bool truncated = top == max_dimension;
   for (int k = 0; k <= top; ++k) {
     if (k < static_cast<int>(out.core_homology.groups.size()) && !(truncated && k == top)) {
       out.groups.push_back(out.core_homology.groups[static_cast<std::size_t>(k)]);
