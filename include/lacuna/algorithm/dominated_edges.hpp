@@ -13,11 +13,12 @@
 //   auto kept = lacuna::remove_dominated_edges(neighbours);  // neighbours[v]: sorted
 //   kept.neighbours[v];  kept.removed;
 //
-// Method: every edge is examined once in order (u, then v increasing), and again whenever an
-// edge at one of its ends is removed (only then can its common neighbourhood shrink). One
+// Method: in rounds. The first examines every edge in order (u, then v increasing); each
+// later one the edges at a vertex that lost an edge in the round before (only then can an
+// edge's common neighbourhood shrink), until a round removes nothing. One
 // examination: the common neighbours C = N(u) ∩ N(v) by a merge, then for each w ∈ C whether
 // C ⊆ N[w], by a merge; cost O(|C| (deg u + deg v + max deg w)). Memory: the adjacency lists
-// (a copy, edited in place) and the queue, O(edges). Deterministic, so the result is too.
+// (a copy, edited in place) and the round's edges, O(edges). Deterministic, so the result is too.
 #pragma once
 
 #include <lacuna/algorithm/dominated_vertices.hpp>
@@ -25,7 +26,6 @@
 
 #include <algorithm>
 #include <cstdint>
-#include <deque>
 #include <stdexcept>
 #include <string>
 #include <utility>
@@ -53,14 +53,9 @@ inline edge_reduction remove_dominated_edges(std::vector<std::vector<std::uint32
   auto& a = neighbours;
   const auto adjacent = [&](std::uint32_t x, std::uint32_t y) { return std::binary_search(a[x].begin(), a[x].end(), y); };
 
-  std::deque<std::pair<std::uint32_t, std::uint32_t>> queue;
   std::size_t edges = 0;
-  for (std::uint32_t u = 0; u < n; ++u)
-    for (const std::uint32_t v : a[u])
-      if (u < v) {
-        queue.emplace_back(u, v);
-        ++edges;
-      }
+  for (std::uint32_t u = 0; u < n; ++u) edges += a[u].size();
+  edges /= 2;
   detail::progress_ticker tick(control, "removing dominated edges", edges);
 
   std::vector<std::uint32_t> common;
@@ -68,7 +63,7 @@ inline edge_reduction remove_dominated_edges(std::vector<std::vector<std::uint32
     common.clear();
     std::set_intersection(a[u].begin(), a[u].end(), a[v].begin(), a[v].end(), std::back_inserter(common));
     for (const std::uint32_t w : common) {
-      // C ⊆ N[w]: every other common neighbour is adjacent to w (both sorted: one merge).
+      // C ⊆ N[w]: every other common neighbour is adjacent to w (both sorted: one sweep).
       const auto& aw = a[w];
       auto it = aw.begin();
       bool all = true;
@@ -84,17 +79,36 @@ inline edge_reduction remove_dominated_edges(std::vector<std::vector<std::uint32
     }
     return false;
   };
-  // Queued edges are kept as pairs; one removed meanwhile is skipped when it comes up.
-  while (!queue.empty()) {
-    const auto [u, v] = queue.front();
-    queue.pop_front();
-    tick();
-    if (!adjacent(u, v) || !dominated(u, v)) continue;
-    a[u].erase(std::lower_bound(a[u].begin(), a[u].end(), v));
-    a[v].erase(std::lower_bound(a[v].begin(), a[v].end(), u));
-    out.removed.emplace_back(u, v);
-    for (const std::uint32_t x : {u, v})
-      for (const std::uint32_t y : a[x]) queue.emplace_back(std::min(x, y), std::max(x, y));
+  // Rounds: every edge at a vertex that lost an edge in the last round (all, at first) is
+  // examined once, in order; the round's removals mark the vertices of the next.
+  std::vector<std::uint8_t> dirty(n, 1), next_dirty(n, 0);
+  std::vector<std::pair<std::uint32_t, std::uint32_t>> round;
+  bool first = true;
+  std::uint64_t steps = 0;
+  for (;;) {
+    round.clear();
+    for (std::uint32_t u = 0; u < n; ++u)
+      for (const std::uint32_t v : a[u])
+        if (u < v && (dirty[u] || dirty[v])) round.emplace_back(u, v);
+    if (round.empty()) break;
+    std::fill(next_dirty.begin(), next_dirty.end(), 0);
+    bool removed_any = false;
+    for (const auto& [u, v] : round) {
+      if (first)
+        tick();  // progress over the first round; later ones only look at the stop request
+      else if (control && (++steps & 4095U) == 0)
+        control->check();
+      if (!adjacent(u, v) || !dominated(u, v)) continue;
+      a[u].erase(std::lower_bound(a[u].begin(), a[u].end(), v));
+      a[v].erase(std::lower_bound(a[v].begin(), a[v].end(), u));
+      out.removed.emplace_back(u, v);
+      next_dirty[u] = next_dirty[v] = 1;
+      removed_any = true;
+    }
+    if (control) control->check();
+    first = false;
+    if (!removed_any) break;
+    dirty.swap(next_dirty);
   }
   tick.finish();
   out.neighbours = std::move(neighbours);
