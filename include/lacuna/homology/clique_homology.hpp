@@ -166,7 +166,8 @@ struct clique_homology_result {
 /// The homology over R of clique_complex(vertices, edges, max_dimension) without building it
 /// (see the head of this file). Errors as for clique_complex; coefficient_overflow and
 /// computation_stopped as for homology(). Progress phases: "counting cliques", "removing
-/// dominated vertices", "building the core", then those of homology().
+/// dominated edges" (with that reduction), "removing dominated vertices", "building the
+/// core", then those of homology().
 template <euclidean_domain R, simplex_label Label, std::ranges::input_range Edges>
 clique_homology_result<R, Label> clique_homology(const std::vector<Label>& vertices, const Edges& edges,
                                                  int max_dimension, const clique_homology_options& options = {},
