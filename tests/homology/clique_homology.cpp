@@ -477,6 +477,7 @@ TEST_CASE("errors") {
   CHECK_THROWS_AS(h.coordinates(1, S{{{0, 1}, integer(1)}}), std::invalid_argument);  // top from counts
   const auto h2 = lacuna::clique_homology<integer>(tri, 2, o);
   CHECK_THROWS_AS(h2.retract(1, S{{{0, 9}, integer(1)}}), std::invalid_argument);     // no vertex 9
+  CHECK_THROWS_AS(h2.coordinates(3, S{}), std::invalid_argument);                     // above the top
   CHECK_THROWS_AS(h2.retract(1, S{{{0, 0}, integer(1)}}), std::invalid_argument);     // repeated
   CHECK_THROWS_AS(h2.retract(1, S{{{0, 1, 2}, integer(1)}}), std::invalid_argument);  // wrong size
   CHECK_THROWS_AS(h2.retract(1, S{{{0, 3}, integer(1)}}), std::invalid_argument);     // not an edge

@@ -152,6 +152,8 @@ struct clique_homology_result {
   /// checked on the complex that is never built), and for the top dimension when
   /// top_from_counts.
   std::vector<R> coordinates(int k, const std::vector<std::pair<std::vector<Label>, R>>& cycle) const {
+    if (k < 0 || k > top_dimension())
+      throw std::invalid_argument("clique_homology: the complex has no simplices of dimension " + std::to_string(k));
     if (top_from_counts && k == top_dimension())
       throw std::invalid_argument("clique_homology: the top group was found from counts; it has no basis");
     const chain<R> image = retract(k, cycle);
