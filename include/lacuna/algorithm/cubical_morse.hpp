@@ -236,38 +236,18 @@ class cubical_morse_complex {
   chain<R> lift(const cubical_complex<D>& original, const chain<R>& z, const R& unit = one<R>()) const {
     const int k = z.dimension;
     chain<R> out{k, {}};
-    std::unordered_map<std::uint64_t, R> result, pending;
-    for (const auto& t : z.terms) {
-      const std::uint64_t key = keys_.at(static_cast<std::size_t>(k)).at(t.cell);
-      result[key] += t.coefficient;
-      if (k >= 1) for_each_face(key, [&](std::uint64_t f, std::int64_t w) { pending[f] += from_integer<R>(w) * unit * t.coefficient; });
-    }
-    std::vector<std::uint64_t> heap;
-    for (const auto& [f, c] : pending) heap.push_back(f);
-    std::make_heap(heap.begin(), heap.end());
-    while (!heap.empty()) {
-      std::pop_heap(heap.begin(), heap.end());
-      const std::uint64_t rho = heap.back();
-      heap.pop_back();
-      auto it = pending.find(rho);
-      const R c = it->second;
-      pending.erase(it);
-      if (c == zero<R>()) continue;
-      std::uint64_t up;
-      if (!paired_up(rho, up)) continue;  // critical or paired down: stays in the boundary
-      const std::int64_t w_rho = incidence_of(up, rho);
-      const R cu = -(c * from_integer<R>(w_rho) * unit);  // ±1: the inverse is itself
-      result[up] += cu;
-      for_each_face(up, [&](std::uint64_t f, std::int64_t w) {
-        if (f == rho) return;
-        auto [p, fresh] = pending.try_emplace(f, zero<R>());
-        p->second += cu * from_integer<R>(w) * unit;
-        if (fresh) {
-          heap.push_back(f);
-          std::push_heap(heap.begin(), heap.end());
-        }
-      });
-    }
+    std::unordered_map<std::uint64_t, R> result;
+    flow<R>(
+        unit,
+        [&](auto&& add) {
+          for (const auto& t : z.terms) {
+            const std::uint64_t key = keys_.at(static_cast<std::size_t>(k)).at(t.cell);
+            result[key] += t.coefficient;
+            if (k >= 1) for_each_face(key, [&](std::uint64_t f, std::int64_t w) { add(f, from_integer<R>(w) * unit * t.coefficient); });
+          }
+        },
+        [](std::uint64_t, const R&) {},  // g(σ) = σ + the cofaces the flow goes through
+        [&](std::uint64_t up, const R& cu) { result[up] += cu; });
     for (const auto& [key, c] : result)
       if (!(c == zero<R>())) out.terms.push_back({original.index_of(position_of_key(key)), c});
     out.normalize_terms();
@@ -280,44 +260,18 @@ class cubical_morse_complex {
     const int k = x.dimension;
     chain<R> out{k, {}};
     if (k < 0 || k > top_) return out;
-    std::unordered_map<std::uint64_t, R> pending;
-    std::vector<std::uint64_t> heap;
-    for (const auto& t : x.terms) {
-      const std::uint64_t key = key_of_position(original.position(k, t.cell));
-      auto [p, fresh] = pending.try_emplace(key, zero<R>());
-      p->second += t.coefficient;
-      if (fresh) heap.push_back(key);
-    }
-    std::make_heap(heap.begin(), heap.end());
     const auto& crit = keys_[static_cast<std::size_t>(k)];
-    while (!heap.empty()) {
-      std::pop_heap(heap.begin(), heap.end());
-      const std::uint64_t cell = heap.back();
-      heap.pop_back();
-      auto it = pending.find(cell);
-      const R c = it->second;
-      pending.erase(it);
-      if (c == zero<R>()) continue;
-      const auto kind = kind_of(cell);
-      if (kind == table_t::critical) {
-        const auto at = std::lower_bound(crit.begin(), crit.end(), cell);
-        out.terms.push_back({static_cast<std::size_t>(at - crit.begin()), c});
-        continue;
-      }
-      if (kind != table_t::with_coface) continue;  // paired with a face: 0 in the Morse complex
-      std::uint64_t up;
-      paired_up(cell, up);
-      const std::int64_t w_cell = incidence_of(up, cell);
-      for_each_face(up, [&](std::uint64_t f, std::int64_t w) {
-        if (f == cell) return;
-        auto [p, fresh] = pending.try_emplace(f, zero<R>());
-        p->second += -(c * from_integer<R>(w * w_cell) * unit);
-        if (fresh) {
-          heap.push_back(f);
-          std::push_heap(heap.begin(), heap.end());
-        }
-      });
-    }
+    flow<R>(
+        unit,
+        [&](auto&& add) {
+          for (const auto& t : x.terms) add(key_of_position(original.position(k, t.cell)), t.coefficient);
+        },
+        [&](std::uint64_t cell, const R& c) {
+          if (kind_of(cell) != table_t::critical) return;  // paired with a face: 0 in the Morse complex
+          const auto at = std::lower_bound(crit.begin(), crit.end(), cell);
+          out.terms.push_back({static_cast<std::size_t>(at - crit.begin()), c});
+        },
+        [](std::uint64_t, const R&) {});
     out.normalize_terms();
     return out;
   }
@@ -385,6 +339,44 @@ class cubical_morse_complex {
       f(key(V - S_[a], g), -sign);
       f(key(V, g), sign);
       sign = -sign;
+    }
+  }
+  /// The gradient flow of lift and project, over R. seed(add) puts the starting chain in,
+  /// add(key, coefficient); then the pending cells are taken by decreasing key (a gradient
+  /// path lowers the key, so every contribution to a cell has arrived when it is taken). A
+  /// cell taken with c != 0 goes to reached(cell, c); if it is paired with a coface up, c
+  /// flows on: cu = -c / [up:cell] goes to through(up, cu), and cu [up:f] is added to every
+  /// other face f of up. Cost: O(m log m) ring operations, m the cells of the paths met.
+  template <class R, class Seed, class Reached, class Through>
+  void flow(const R& unit, Seed&& seed, Reached&& reached, Through&& through) const {
+    std::unordered_map<std::uint64_t, R> pending;
+    std::vector<std::uint64_t> heap;
+    auto add = [&](std::uint64_t f, const R& v) {
+      auto [p, fresh] = pending.try_emplace(f, zero<R>());
+      p->second += v;
+      if (fresh) {
+        heap.push_back(f);
+        std::push_heap(heap.begin(), heap.end());
+      }
+    };
+    seed(add);
+    while (!heap.empty()) {
+      std::pop_heap(heap.begin(), heap.end());
+      const std::uint64_t cell = heap.back();
+      heap.pop_back();
+      auto it = pending.find(cell);
+      const R c = it->second;
+      pending.erase(it);
+      if (c == zero<R>()) continue;
+      reached(cell, c);
+      std::uint64_t up;
+      if (!paired_up(cell, up)) continue;  // critical or paired down: the path ends here
+      const std::int64_t w_cell = incidence_of(up, cell);
+      const R cu = -(c * from_integer<R>(w_cell) * unit);  // ±1: the inverse is itself
+      through(up, cu);
+      for_each_face(up, [&](std::uint64_t f, std::int64_t w) {
+        if (f != cell) add(f, cu * from_integer<R>(w) * unit);
+      });
     }
   }
   std::int64_t incidence_of(std::uint64_t up, std::uint64_t face) const {

@@ -128,19 +128,8 @@ class morse_complex {
         const std::uint32_t s = d.critical[t.cell];
         for (std::size_t p = d.offsets[s]; p < d.offsets[s + 1]; ++p) tr.add(d.faces[p], tr.ring(d.coefficients[p]) * t.coefficient);
       }
-      std::uint64_t steps = 0;
-      while (!tr.empty()) {
-        if (control && (++steps & 4095U) == 0) control->check();
-        auto [rho, c] = tr.pop();
-        if (c == zero_r) continue;
-        const auto& lo = dim(k - 1);
-        if (lo.kind[rho] != up_plus && lo.kind[rho] != up_minus) continue;  // critical or paired down
-        const std::uint32_t u = lo.mate[rho];
-        const R w = lo.kind[rho] == up_plus ? R(-c) : c;  // -c / [u:rho]
-        out.terms.push_back({u, w});
-        for (std::size_t p = d.offsets[u]; p < d.offsets[u + 1]; ++p)
-          if (d.faces[p] != rho) tr.add_below(d.faces[p], w * tr.ring(d.coefficients[p]), lo.order[rho]);
-      }
+      // g(σ) = σ + the cofaces the flow goes through
+      flow(tr, k - 1, zero_r, control, [](std::uint32_t, const R&) {}, [&](std::uint32_t u, const R& w) { out.terms.push_back({u, w}); });
     }
     out.normalize_terms();
     return out;
@@ -161,21 +150,12 @@ class morse_complex {
       if (t.cell >= d.kind.size()) throw std::invalid_argument("lacuna: a chain names a cell that does not exist");
       tr.add(static_cast<std::uint32_t>(t.cell), t.coefficient);
     }
-    std::uint64_t steps = 0;
-    while (!tr.empty()) {
-      if (control && (++steps & 4095U) == 0) control->check();
-      auto [x, c] = tr.pop();
-      if (c == zero_r) continue;
-      if (d.kind[x] == critical) {
-        out.terms.push_back({d.mate[x], c});
-      } else if (d.kind[x] != paired_down) {
-        const auto& hi = dim(k + 1);
-        const std::uint32_t u = d.mate[x];
-        const R w = d.kind[x] == up_plus ? R(-c) : c;  // -c / [u:x]
-        for (std::size_t p = hi.offsets[u]; p < hi.offsets[u + 1]; ++p)
-          if (hi.faces[p] != x) tr.add_below(hi.faces[p], w * tr.ring(hi.coefficients[p]), d.order[x]);
-      }
-    }
+    flow(
+        tr, k, zero_r, control,
+        [&](std::uint32_t x, const R& c) {
+          if (d.kind[x] == critical) out.terms.push_back({d.mate[x], c});  // paired down: 0 in the Morse complex
+        },
+        [](std::uint32_t, const R&) {});
     out.normalize_terms();
     return out;
   }
@@ -239,6 +219,31 @@ class morse_complex {
     std::unordered_map<std::uint32_t, R> pending_;
     std::vector<std::uint64_t> heap_;
   };
+
+  // The gradient flow of lift and project, on the k-cells pending in tr: they are taken by
+  // decreasing death number (every contribution to a cell comes from a cell of larger number,
+  // so it has arrived when the cell is taken). A cell x taken with c != zero_r goes to
+  // reached(x, c); if it is paired with a (k+1)-cell u, w = -c / [u:x] goes to through(u, w),
+  // and w [u:ρ'] is added to every other face ρ' of u. The stop request of `control` is
+  // looked at every 4096 steps.
+  template <class R, class Reached, class Through>
+  void flow(traversal<R>& tr, int k, const R& zero_r, const run_control* control, Reached&& reached, Through&& through) const {
+    const auto& lo = dim(k);
+    std::uint64_t steps = 0;
+    while (!tr.empty()) {
+      if (control && (++steps & 4095U) == 0) control->check();
+      auto [x, c] = tr.pop();
+      if (c == zero_r) continue;
+      reached(x, c);
+      if (lo.kind[x] != up_plus && lo.kind[x] != up_minus) continue;  // critical or paired down
+      const auto& hi = dim(k + 1);
+      const std::uint32_t u = lo.mate[x];
+      const R w = lo.kind[x] == up_plus ? R(-c) : c;  // -c / [u:x]
+      through(u, w);
+      for (std::size_t p = hi.offsets[u]; p < hi.offsets[u + 1]; ++p)
+        if (hi.faces[p] != x) tr.add_below(hi.faces[p], w * tr.ring(hi.coefficients[p]), lo.order[x]);
+    }
+  }
 
   bool has(int k) const { return k >= 0 && k <= top_; }
   const dimension_data& dim(int k) const { return dims_[static_cast<std::size_t>(k)]; }
