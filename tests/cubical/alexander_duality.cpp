@@ -31,22 +31,26 @@
 
 using lacuna::cubical_complex;
 using lacuna_volumes::duality_numbers;
+using lacuna_volumes::grid;
 using lacuna_volumes::image;
 using lacuna_volumes::volume;
 
 namespace {
 
-cubical_complex<3> complex_of(const volume& v) {
-  return cubical_complex<3>::from_bytes(v.extents, std::span<const std::uint8_t>(v.voxels));
-}
-cubical_complex<2> complex_of(const image& im) {
-  return cubical_complex<2>::from_bytes(im.extents, std::span<const std::uint8_t>(im.pixels));
+template <std::size_t D>
+cubical_complex<D> complex_of(const grid<D>& g) {
+  return cubical_complex<D>::from_bytes(g.extents, std::span<const std::uint8_t>(g.voxels));
 }
 
 // b_3 of a volume and b_2 of an image are 0: H_i(X) = 0 for i >= n when X is a compact,
 // locally contractible subset of R^n (Hatcher 2002, Corollary 3.46).
-std::vector<std::size_t> expected_betti(const volume&, const duality_numbers& d) { return {d.b0, d.b1, d.b2, 0}; }
-std::vector<std::size_t> expected_betti(const image&, const duality_numbers& d) { return {d.b0, d.b1, 0}; }
+template <std::size_t D>
+std::vector<std::size_t> expected_betti(const grid<D>&, const duality_numbers& d) {
+  if constexpr (D == 3)
+    return {d.b0, d.b1, d.b2, 0};
+  else
+    return {d.b0, d.b1, 0};
+}
 
 // The computations checked against duality_betti. Each maps a cubical complex to its Betti
 // numbers b_0..b_top. To check another variant, add a lambda here and one line to
@@ -99,37 +103,32 @@ duality_numbers check_all_computations(const Shape& shape) {
   return d;
 }
 
-// Hand-made shapes: a volume of the given extents with the listed voxels set.
-volume make_volume(std::array<std::size_t, 3> n, const std::vector<std::array<std::size_t, 3>>& set) {
-  volume v{n, std::vector<std::uint8_t>(n[0] * n[1] * n[2], 0)};
-  for (const auto& p : set) v.voxels.at(p[0] + n[0] * (p[1] + n[1] * p[2])) = 1;
-  return v;
+// Hand-made shapes: a grid of the given extents with the listed voxels set, and a full box.
+template <std::size_t D>
+grid<D> make_grid(const std::array<std::size_t, D>& n, const std::vector<std::array<std::size_t, D>>& set) {
+  grid<D> g{n, std::vector<std::uint8_t>(lacuna_volumes::detail::element_count(n), 0)};
+  for (const auto& p : set) {
+    std::size_t i = 0;
+    for (std::size_t a = D; a-- > 0;) i = i * n[a] + p[a];  // axis 0 fastest
+    g.voxels.at(i) = 1;
+  }
+  return g;
 }
-volume full_box(std::array<std::size_t, 3> n) { return {n, std::vector<std::uint8_t>(n[0] * n[1] * n[2], 1)}; }
-image make_image(std::array<std::size_t, 2> n, const std::vector<std::array<std::size_t, 2>>& set) {
-  image im{n, std::vector<std::uint8_t>(n[0] * n[1], 0)};
-  for (const auto& p : set) im.pixels.at(p[0] + n[0] * p[1]) = 1;
-  return im;
+template <std::size_t D>
+grid<D> full_box(const std::array<std::size_t, D>& n) {
+  return {n, std::vector<std::uint8_t>(lacuna_volumes::detail::element_count(n), 1)};
 }
-image full_image(std::array<std::size_t, 2> n) { return {n, std::vector<std::uint8_t>(n[0] * n[1], 1)}; }
 
-// Checks duality_betti and every computation against a known answer.
-void check_known(const volume& v, duality_numbers want) {
-  const duality_numbers d = lacuna_volumes::duality_betti(v);
+// Checks duality_betti and every computation against a known answer (want.b2 = 0 for images).
+template <std::size_t D>
+void check_known(const grid<D>& g, duality_numbers want) {
+  const duality_numbers d = lacuna_volumes::duality_betti(g);
   CHECK(d.b0 == want.b0);
   CHECK(d.b1 == want.b1);
   CHECK(d.b2 == want.b2);
   CHECK(d.euler == static_cast<std::int64_t>(want.b0) - static_cast<std::int64_t>(want.b1) +
                        static_cast<std::int64_t>(want.b2));
-  check_all_computations(v);
-}
-void check_known(const image& im, duality_numbers want) {
-  const duality_numbers d = lacuna_volumes::duality_betti(im);
-  CHECK(d.b0 == want.b0);
-  CHECK(d.b1 == want.b1);
-  CHECK(d.b2 == 0);
-  CHECK(d.euler == static_cast<std::int64_t>(want.b0) - static_cast<std::int64_t>(want.b1));
-  check_all_computations(im);
+  check_all_computations(g);
 }
 
 std::size_t foreground(const std::vector<std::uint8_t>& v) { return static_cast<std::size_t>(std::count(v.begin(), v.end(), 1)); }
@@ -138,39 +137,39 @@ std::size_t foreground(const std::vector<std::uint8_t>& v) { return static_cast<
 
 TEST_CASE("hand-made volumes with known homology") {
   SUBCASE("solid 3x3x3 cube: 1, 0, 0 (convex, hence contractible; from memory)") {
-    check_known(full_box({3, 3, 3}), {1, 0, 0, 1});
+    check_known(full_box<3>({3, 3, 3}), {1, 0, 0, 1});
   }
   SUBCASE("3x3x3 shell with the middle voxel empty: 1, 0, 1 (a thickened 2-sphere; from memory)") {
-    volume v = full_box({3, 3, 3});
+    volume v = full_box<3>({3, 3, 3});
     v.voxels[13] = 0;
     check_known(v, {1, 0, 1, 2});
   }
   SUBCASE("ring of 8 voxels around an empty centre in a 3x3x1 layer: 1, 1, 0 (a solid torus; from memory)") {
-    volume v = full_box({3, 3, 1});
+    volume v = full_box<3>({3, 3, 1});
     v.voxels[4] = 0;
     check_known(v, {1, 1, 0, 0});
   }
   SUBCASE("two voxels touching only at a corner: 1, 0, 0 (two cubes meeting in one point; from memory)") {
-    check_known(make_volume({2, 2, 2}, {{0, 0, 0}, {1, 1, 1}}), {1, 0, 0, 1});
+    check_known(make_grid<3>({2, 2, 2}, {{0, 0, 0}, {1, 1, 1}}), {1, 0, 0, 1});
   }
   SUBCASE("two voxels touching only along an edge, and two apart: 1, 0, 0 and 2, 0, 0 (from memory)") {
-    check_known(make_volume({2, 2, 1}, {{0, 0, 0}, {1, 1, 0}}), {1, 0, 0, 1});
-    check_known(make_volume({3, 1, 1}, {{0, 0, 0}, {2, 0, 0}}), {2, 0, 0, 2});
+    check_known(make_grid<3>({2, 2, 1}, {{0, 0, 0}, {1, 1, 0}}), {1, 0, 0, 1});
+    check_known(make_grid<3>({3, 1, 1}, {{0, 0, 0}, {2, 0, 0}}), {2, 0, 0, 2});
   }
   SUBCASE("the six face neighbours of an empty centre voxel: 1, 0, 1 (from memory: they meet along the edges of "
           "the centre cube and contain its boundary sphere, onto which they retract)") {
-    check_known(make_volume({3, 3, 3}, {{0, 1, 1}, {2, 1, 1}, {1, 0, 1}, {1, 2, 1}, {1, 1, 0}, {1, 1, 2}}),
+    check_known(make_grid<3>({3, 3, 3}, {{0, 1, 1}, {2, 1, 1}, {1, 0, 1}, {1, 2, 1}, {1, 1, 0}, {1, 1, 2}}),
                 {1, 0, 1, 2});
   }
   SUBCASE("5x3x3 block with two separate empty voxels inside: 1, 0, 2 (a ball with two cavities; from memory)") {
-    volume v = full_box({5, 3, 3});
+    volume v = full_box<3>({5, 3, 3});
     v.voxels[1 + 5 * (1 + 3 * 1)] = 0;
     v.voxels[3 + 5 * (1 + 3 * 1)] = 0;
     check_known(v, {1, 0, 2, 3});
   }
   SUBCASE("3x3x3 block with its central column removed: 1, 1, 0 (a cube with a hole drilled through is a "
           "solid torus; from memory)") {
-    volume v = full_box({3, 3, 3});
+    volume v = full_box<3>({3, 3, 3});
     v.voxels[1 + 3 * (1 + 3 * 0)] = 0;
     v.voxels[1 + 3 * (1 + 3 * 1)] = 0;
     v.voxels[1 + 3 * (1 + 3 * 2)] = 0;
@@ -180,23 +179,23 @@ TEST_CASE("hand-made volumes with known homology") {
 }
 
 TEST_CASE("hand-made images with known homology") {
-  SUBCASE("filled 4x3 rectangle: 1, 0 (convex; from memory)") { check_known(full_image({4, 3}), {1, 0, 0, 1}); }
+  SUBCASE("filled 4x3 rectangle: 1, 0 (convex; from memory)") { check_known(full_box<2>({4, 3}), {1, 0, 0, 1}); }
   SUBCASE("ring of 8 pixels around an empty centre: 1, 1 (an annulus; from memory)") {
-    image im = full_image({3, 3});
-    im.pixels[4] = 0;
+    image im = full_box<2>({3, 3});
+    im.voxels[4] = 0;
     check_known(im, {1, 1, 0, 0});
   }
   SUBCASE("two pixels touching only at a corner: 1, 0 (from memory)") {
-    check_known(make_image({2, 2}, {{0, 0}, {1, 1}}), {1, 0, 0, 1});
+    check_known(make_grid<2>({2, 2}, {{0, 0}, {1, 1}}), {1, 0, 0, 1});
   }
   SUBCASE("four pixels around an empty centre, touching only at corners: 1, 1 (closed squares close a loop "
           "around the centre; from memory)") {
-    check_known(make_image({3, 3}, {{1, 0}, {0, 1}, {2, 1}, {1, 2}}), {1, 1, 0, 0});
+    check_known(make_grid<2>({3, 3}, {{1, 0}, {0, 1}, {2, 1}, {1, 2}}), {1, 1, 0, 0});
   }
   SUBCASE("5x3 rectangle with two holes: 1, 2 (a disk with two holes; from memory)") {
-    image im = full_image({5, 3});
-    im.pixels[1 + 5] = 0;
-    im.pixels[3 + 5] = 0;
+    image im = full_box<2>({5, 3});
+    im.voxels[1 + 5] = 0;
+    im.voxels[3 + 5] = 0;
     check_known(im, {1, 2, 0, -1});
   }
   SUBCASE("no foreground: all zeros") { check_known(image{{3, 2}, std::vector<std::uint8_t>(6, 0)}, {0, 0, 0, 0}); }
@@ -246,7 +245,7 @@ TEST_CASE("porous and coin-flip images: lacuna's Betti numbers over Z/2 and Z eq
         CAPTURE(n);
         CAPTURE(sigma);
         CAPTURE(seed);
-        const duality_numbers d = check_all_computations(lacuna_volumes::porous_image(n, n + 7, sigma, seed));
+        const duality_numbers d = check_all_computations(lacuna_volumes::porous<2>({n, n + 7}, sigma, seed));
         seen_b0 = std::max(seen_b0, d.b0);
         seen_b1 = std::max(seen_b1, d.b1);
       }
@@ -256,7 +255,7 @@ TEST_CASE("porous and coin-flip images: lacuna's Betti numbers over Z/2 and Z eq
       CAPTURE(n);
       CAPTURE(p);
       CAPTURE(seed);
-      const duality_numbers d = check_all_computations(lacuna_volumes::coin_flip_image(n, n / 2 + 3, p, seed++));
+      const duality_numbers d = check_all_computations(lacuna_volumes::coin_flip<2>({n, n / 2 + 3}, p, seed++));
       seen_b0 = std::max(seen_b0, d.b0);
       seen_b1 = std::max(seen_b1, d.b1);
     }
@@ -272,9 +271,9 @@ TEST_CASE("volume_support generators: reproducible, half foreground at the media
   CHECK(a.voxels != c.voxels);
   // foreground = value > lower median: exactly floor(N/2) voxels when the values are distinct
   CHECK(foreground(a.voxels) == 20 * 20 * 20 / 2);
-  const image im = lacuna_volumes::porous_image(31, 17, 2.0, 3);
+  const image im = lacuna_volumes::porous<2>({31, 17}, 2.0, 3);
   CHECK(im.extents == std::array<std::size_t, 2>{31, 17});
-  CHECK(foreground(im.pixels) == 31 * 17 / 2);
+  CHECK(foreground(im.voxels) == 31 * 17 / 2);
   // blurring makes neighbours agree more often than the 1/2 of white noise
   std::size_t agree = 0, pairs = 0;
   for (std::size_t i = 0; i + 1 < a.voxels.size(); ++i)
@@ -286,8 +285,8 @@ TEST_CASE("volume_support generators: reproducible, half foreground at the media
   // coin flips: the fraction is p within 4 standard deviations (sqrt(p(1-p)/N) = 0.0025 here)
   const volume f = lacuna_volumes::coin_flip_volume(40, 0.3, 5);
   CHECK(std::abs(static_cast<double>(foreground(f.voxels)) / 64000.0 - 0.3) < 0.01);
-  const image g = lacuna_volumes::coin_flip_image(100, 50, 0.7, 5);
-  CHECK(std::abs(static_cast<double>(foreground(g.pixels)) / 5000.0 - 0.7) < 0.03);
+  const image g = lacuna_volumes::coin_flip<2>({100, 50}, 0.7, 5);
+  CHECK(std::abs(static_cast<double>(foreground(g.voxels)) / 5000.0 - 0.7) < 0.03);
   // the mirror boundary and the kernel
   CHECK(lacuna_volumes::detail::mirror(-1, 5) == 0);
   CHECK(lacuna_volumes::detail::mirror(-2, 5) == 1);

@@ -4,13 +4,15 @@
 // Standard library only (no doctest, no lacuna), so that benchmarks can include it as
 // "../tests/cubical/volume_support.hpp".
 //
-//   porous_volume / porous_image      white noise blurred by a Gaussian, thresholded at its median:
-//                                     about half foreground, with tunnels and cavities whose size
-//                                     grows with sigma (a standard model of porous media)
-//   coin_flip_volume / coin_flip_image each voxel foreground with probability p
-//   duality_betti                     b0, b1, b2 and chi of the union of closed voxels, from
-//                                     connected components and cell counts (Alexander duality)
-//   write_nrrd                        a raw uint8 NRRD file of a volume
+//   grid<D>, volume = grid<3>, image = grid<2>
+//                       a binary grid of D dimensions (in 2D its voxels are pixels)
+//   porous<D>           white noise blurred by a Gaussian, thresholded at its median: about
+//                       half foreground, with tunnels and cavities whose size grows with sigma
+//                       (a standard model of porous media); porous_volume(n, ...) is n^3
+//   coin_flip<D>        each voxel foreground with probability p; coin_flip_volume(n, ...) is n^3
+//   duality_betti       b0, b1, b2 and chi of the union of closed voxels (D = 2 or 3), from
+//                       connected components and cell counts (Alexander duality)
+//   write_nrrd          a raw uint8 NRRD file of a volume
 //
 // Layout: axis 0 fastest, one byte per voxel, 1 = foreground, 0 = background. As in
 // lacuna::cubical_complex, every foreground voxel stands for a CLOSED unit cube (square) with
@@ -32,17 +34,15 @@
 
 namespace lacuna_volumes {
 
-/// A binary volume: extents[0] x extents[1] x extents[2] voxels, axis 0 fastest.
-struct volume {
-  std::array<std::size_t, 3> extents{};
+/// A binary grid: extents[0] x ... x extents[D-1] voxels (pixels in 2D), axis 0 fastest.
+template <std::size_t D>
+struct grid {
+  std::array<std::size_t, D> extents{};
   std::vector<std::uint8_t> voxels;  ///< 1 = foreground, 0 = background
 };
 
-/// A binary image: extents[0] x extents[1] pixels, axis 0 fastest.
-struct image {
-  std::array<std::size_t, 2> extents{};
-  std::vector<std::uint8_t> pixels;  ///< 1 = foreground, 0 = background
-};
+using volume = grid<3>;  ///< a binary volume
+using image = grid<2>;   ///< a binary image
 
 /// Betti numbers and Euler characteristic of the union of closed voxels (b2 = 0 for images).
 struct duality_numbers {
@@ -360,104 +360,81 @@ std::int64_t counted_euler(const std::array<std::size_t, D>& n, const std::vecto
 
 }  // namespace detail
 
-/// An n x n x n porous volume: independent standard normal values (std::mt19937_64 seeded with
-/// `seed`, std::normal_distribution), blurred by a separable Gaussian of standard deviation sigma
-/// voxels (truncated at radius ceil(4 sigma), normalized, mirrored at the borders), foreground
-/// where the blurred value exceeds its median (the lower median, so half the voxels, rounded
-/// down, are foreground when the values are distinct). Memory: 4 bytes per voxel while it
-/// works (about 70 MB for 256^3). The values depend on the standard library's
-/// normal_distribution, so the same seed may give other volumes with another library.
-inline volume porous_volume(std::size_t n, double sigma, std::uint64_t seed) {
-  volume v;
-  v.extents = {n, n, n};
-  v.voxels = detail::porous_field<3>(v.extents, sigma, seed);
-  return v;
+/// A porous grid of the given extents: independent standard normal values (std::mt19937_64
+/// seeded with `seed`, std::normal_distribution), blurred by a separable Gaussian of standard
+/// deviation sigma voxels (truncated at radius ceil(4 sigma), normalized, mirrored at the
+/// borders), foreground where the blurred value exceeds its median (the lower median, so half
+/// the voxels, rounded down, are foreground when the values are distinct). Memory: 4 bytes per
+/// voxel while it works (about 70 MB for 256^3). The values depend on the standard library's
+/// normal_distribution, so the same seed may give other grids with another library.
+template <std::size_t D>
+grid<D> porous(const std::array<std::size_t, D>& extents, double sigma, std::uint64_t seed) {
+  return {extents, detail::porous_field<D>(extents, sigma, seed)};
 }
 
-/// The 2D counterpart of porous_volume: an nx x ny image (axis 0 of length nx fastest).
-inline image porous_image(std::size_t nx, std::size_t ny, double sigma, std::uint64_t seed) {
-  image im;
-  im.extents = {nx, ny};
-  im.pixels = detail::porous_field<2>(im.extents, sigma, seed);
-  return im;
+/// A grid of the given extents, each voxel foreground with probability p (std::mt19937_64, `seed`).
+template <std::size_t D>
+grid<D> coin_flip(const std::array<std::size_t, D>& extents, double p, std::uint64_t seed) {
+  return {extents, detail::coin_flips<D>(extents, p, seed)};
 }
 
-/// An n x n x n volume, each voxel foreground with probability p (std::mt19937_64, `seed`).
-inline volume coin_flip_volume(std::size_t n, double p, std::uint64_t seed) {
-  volume v;
-  v.extents = {n, n, n};
-  v.voxels = detail::coin_flips<3>(v.extents, p, seed);
-  return v;
-}
+/// An n x n x n porous volume (see porous).
+inline volume porous_volume(std::size_t n, double sigma, std::uint64_t seed) { return porous<3>({n, n, n}, sigma, seed); }
 
-/// An nx x ny image, each pixel foreground with probability p (std::mt19937_64, `seed`).
-inline image coin_flip_image(std::size_t nx, std::size_t ny, double p, std::uint64_t seed) {
-  image im;
-  im.extents = {nx, ny};
-  im.pixels = detail::coin_flips<2>(im.extents, p, seed);
-  return im;
-}
+/// An n x n x n coin-flip volume (see coin_flip).
+inline volume coin_flip_volume(std::size_t n, double p, std::uint64_t seed) { return coin_flip<3>({n, n, n}, p, seed); }
 
-/// The Betti numbers and chi of X, the union of the closed foreground voxels, without any
-/// homology computation.
+/// The Betti numbers and chi of X, the union of the closed foreground voxels of a volume
+/// (D = 3) or pixels of an image (D = 2), without any homology computation.
 ///
-/// - b0: X is a union of closed cubes, and two of them meet exactly when their voxels are
-///   26-neighbours (they share a face, an edge or a corner), so the components of X are the
-///   26-connected components of the foreground.
-/// - b2: the components of R^3 - X are the 6-connected components of the background voxels
-///   together with a one-voxel frame around the box (which stands for the unbounded component):
-///   a point outside X lies in the closure of background voxels only, and two background
-///   voxels sharing a face are joined through its open interior, which is not in X (neither of
-///   its two voxels is foreground); background voxels sharing only an edge or a corner are
-///   joined outside X exactly when the voxels around that edge are all background, hence
-///   through a chain of face neighbours. Alexander duality (Hatcher 2002, Theorem 3.44): for a
-///   compact, locally contractible, proper subset K of S^3, H~_0(S^3 - K) = H~^2(K). X is a
-///   finite cubical complex in R^3 = S^3 - {point}, and S^3 - X has as many components as
-///   R^3 - X (the point at infinity joins the unbounded one), so
-///   rank H^2(X) = (components of R^3 - X) - 1. H_1(X) is torsion-free (Hatcher 2002,
-///   Corollary 3.46: for compact, locally contractible X in R^n, H_i(X) = 0 for i >= n and is
-///   torsion-free for i = n-1, n-2), so by universal coefficients rank H^2 = rank H_2 = b2.
+/// - b0: X is a union of closed cubes (squares), and two of them meet exactly when their
+///   voxels are neighbours (they share a face, an edge or a corner), so the components of X
+///   are the 26-connected (8-connected in 2D) components of the foreground.
+/// - b_{D-1}: the components of R^D - X are the 6-connected (4-connected in 2D) components of
+///   the background voxels together with a one-voxel frame around the box (which stands for
+///   the unbounded component): a point outside X lies in the closure of background voxels
+///   only, and two background voxels sharing a face are joined through its open interior,
+///   which is not in X (neither of its two voxels is foreground); background voxels sharing
+///   only an edge or a corner are joined outside X exactly when the voxels around that edge
+///   (corner) are all background, hence through a chain of face neighbours. Alexander duality
+///   (Hatcher 2002, Theorem 3.44): for a compact, locally contractible, proper subset K of
+///   S^D, H~_0(S^D - K) = H~^{D-1}(K). X is a finite cubical complex in R^D = S^D - {point},
+///   and S^D - X has as many components as R^D - X (the point at infinity joins the
+///   unbounded one), so rank H^{D-1}(X) = (components of R^D - X) - 1. H_{D-2}(X) is
+///   torsion-free (Hatcher 2002, Corollary 3.46: for compact, locally contractible X in R^n,
+///   H_i(X) = 0 for i >= n and is torsion-free for i = n-1, n-2), so by universal
+///   coefficients rank H^{D-1} = rank H_{D-1} = b_{D-1}: b2 in 3D, b1 in 2D.
 /// - chi: counted from the cells of X (vertices - edges + squares - cubes), see counted_euler.
-/// - b1: H_3(X) = 0 (Corollary 3.46 again), so chi = b0 - b1 + b2 and b1 = b0 + b2 - chi. The
+/// - 3D: H_3(X) = 0 (Corollary 3.46 again), so chi = b0 - b1 + b2 and b1 = b0 + b2 - chi. The
 ///   ranks are the same over every field, the homology being torsion-free.
-/// The empty volume gives all zeros. Throws std::logic_error when b0 + b2 - chi < 0 (a bug
-/// in one of the counts).
-inline duality_numbers duality_betti(const volume& v) {
-  if (v.voxels.size() != detail::element_count(v.extents))
+/// - 2D: b2 = 0 (Corollary 3.46). Here chi is not needed to get b1, so b0 - b1 == chi is an
+///   independent check.
+/// The empty grid gives all zeros. Throws std::logic_error when b0 + b2 - chi < 0 (3D) or
+/// b0 - b1 != chi (2D), a bug in one of the counts.
+template <std::size_t D>
+  requires(D == 2 || D == 3)
+duality_numbers duality_betti(const grid<D>& g) {
+  if (g.voxels.size() != detail::element_count(g.extents))
     throw std::invalid_argument("lacuna_volumes: the voxel array does not match the extents");
   duality_numbers d;
-  d.b0 = detail::count_components<3>(v.extents, v.voxels, 3);
-  std::array<std::size_t, 3> padded{};
-  const auto bg = detail::padded_background<3>(v.extents, v.voxels, padded);
-  d.b2 = detail::count_components<3>(padded, bg, 1) - 1;
-  d.euler = detail::counted_euler<3>(v.extents, v.voxels);
-  const std::int64_t b1 = static_cast<std::int64_t>(d.b0) + static_cast<std::int64_t>(d.b2) - d.euler;
-  if (b1 < 0)
-    throw std::logic_error("lacuna_volumes: b0 + b2 - chi = " + std::to_string(b1) + " is negative");
-  d.b1 = static_cast<std::size_t>(b1);
-  return d;
-}
-
-/// The 2D counterpart: b0 = 8-connected components of the foreground (closed squares meet
-/// when they share an edge or a corner); b1 = (4-connected components of the background
-/// padded by a one-pixel frame) - 1, by Alexander duality in S^2 (Hatcher 2002, Theorem 3.44:
-/// H~_0(S^2 - X) = H~^1(X), and H^1(X) = Hom(H_1(X), Z) since H_0 is free), b2 = 0
-/// (Corollary 3.46); chi counted from the cells (vertices - edges + squares). Here chi is not
-/// needed to get b1, so b0 - b1 == chi is an independent check: throws std::logic_error when
-/// it fails.
-inline duality_numbers duality_betti(const image& im) {
-  if (im.pixels.size() != detail::element_count(im.extents))
-    throw std::invalid_argument("lacuna_volumes: the pixel array does not match the extents");
-  duality_numbers d;
-  d.b0 = detail::count_components<2>(im.extents, im.pixels, 2);
-  std::array<std::size_t, 2> padded{};
-  const auto bg = detail::padded_background<2>(im.extents, im.pixels, padded);
-  d.b1 = detail::count_components<2>(padded, bg, 1) - 1;
-  d.euler = detail::counted_euler<2>(im.extents, im.pixels);
-  if (static_cast<std::int64_t>(d.b0) - static_cast<std::int64_t>(d.b1) != d.euler)
-    throw std::logic_error("lacuna_volumes: b0 - b1 = " +
-                           std::to_string(static_cast<std::int64_t>(d.b0) - static_cast<std::int64_t>(d.b1)) +
-                           " differs from the counted chi = " + std::to_string(d.euler));
+  d.b0 = detail::count_components<D>(g.extents, g.voxels, D);
+  std::array<std::size_t, D> padded{};
+  const auto bg = detail::padded_background<D>(g.extents, g.voxels, padded);
+  const std::size_t top = detail::count_components<D>(padded, bg, 1) - 1;  // b_{D-1}
+  d.euler = detail::counted_euler<D>(g.extents, g.voxels);
+  if constexpr (D == 3) {
+    d.b2 = top;
+    const std::int64_t b1 = static_cast<std::int64_t>(d.b0) + static_cast<std::int64_t>(d.b2) - d.euler;
+    if (b1 < 0)
+      throw std::logic_error("lacuna_volumes: b0 + b2 - chi = " + std::to_string(b1) + " is negative");
+    d.b1 = static_cast<std::size_t>(b1);
+  } else {
+    d.b1 = top;
+    if (static_cast<std::int64_t>(d.b0) - static_cast<std::int64_t>(d.b1) != d.euler)
+      throw std::logic_error("lacuna_volumes: b0 - b1 = " +
+                             std::to_string(static_cast<std::int64_t>(d.b0) - static_cast<std::int64_t>(d.b1)) +
+                             " differs from the counted chi = " + std::to_string(d.euler));
+  }
   return d;
 }
 
