@@ -97,6 +97,12 @@ graph random_graph(int n, double prob, std::uint64_t seed) {
   return g;
 }
 
+/// The random graphs of the comparisons: every third seed G(24, p), the others geometric
+/// graphs of 60 points at growing radii.
+graph test_graph(std::uint64_t seed, double p) {
+  return seed % 3 == 0 ? random_graph(24, p, seed) : geometric_graph(60, 0.2 + 0.01 * static_cast<double>(seed), seed);
+}
+
 /// The graph of the 1-skeleton of a simplicial complex.
 template <class L>
 std::pair<std::vector<L>, std::vector<std::pair<L, L>>> one_skeleton(const lacuna::simplicial_complex<L>& c) {
@@ -140,15 +146,14 @@ lacuna::chain<R> on(const lacuna::simplicial_complex<L>& c, int k, const std::ve
   return z;
 }
 
-/// The r x r free block of the coordinate rows has Smith form I_r.
-void check_unimodular(const std::vector<std::vector<integer>>& rows, std::size_t r) {
-  if (r == 0) return;
-  lacuna::dense_matrix<integer> F(r, r);
-  for (std::size_t i = 0; i < r; ++i)
-    for (std::size_t j = 0; j < r; ++j) F(i, j) = rows[i][j];
-  const auto s = lacuna::dense_smith_form(F);
-  CHECK(s.rank == r);
-  for (const auto& x : s.diagonal) CHECK(x == integer(1));
+/// K_{2,2,2}: every pair of 0..5 but the antipodal ones (u, u + 3); its clique complex is the
+/// octahedron, S^2.
+std::vector<std::pair<int, int>> octahedron_graph() {
+  std::vector<std::pair<int, int>> oct;
+  for (int u = 0; u < 6; ++u)
+    for (int v = u + 1; v < 6; ++v)
+      if (v != u + 3) oct.emplace_back(u, v);
+  return oct;
 }
 
 /// Generators both ways, over Z, in every dimension below the top (or every dimension when
@@ -173,11 +178,11 @@ void check_generators(const std::vector<L>& vs, const std::vector<std::pair<L, L
       const auto on_full = on(full, k, labelled(hc.core, z));
       rows.push_back(hf.coordinates(full, on_full));  // checks that it is a cycle of the whole
     }
-    check_unimodular(rows, r);
+    lacuna_test::check_free_block_unimodular(rows, r);
     // The whole complex's generators through the retraction: a basis of the core's homology.
     rows.clear();
     for (const auto& z : hf[k].generators) rows.push_back(hc.coordinates(k, labelled(full, z)));
-    check_unimodular(rows, r);
+    lacuna_test::check_free_block_unimodular(rows, r);
     // Torsion generators keep their orders both ways (Z/2 in the projective plane).
     for (std::size_t i = r; i < rows.size(); ++i)
       for (std::size_t j = 0; j < r; ++j) CHECK(rows[i][j] == integer(0));
@@ -268,10 +273,7 @@ TEST_CASE("clique_counts: the cell counts of the complex built in full") {
 
 TEST_CASE("textbook clique complexes") {
   // K_{2,2,2}: the octahedron, S^2 (no vertex is dominated).
-  std::vector<std::pair<int, int>> oct;
-  for (int u = 0; u < 6; ++u)
-    for (int v = u + 1; v < 6; ++v)
-      if (v != u + 3) oct.emplace_back(u, v);
+  auto oct = octahedron_graph();
   for (int d : {2, 3, 5}) {
     const auto h = lacuna::clique_homology<integer>(oct, d);
     CHECK(groups_from(h.groups) == std::vector<group>{{1, {}}, {0, {}}, {1, {}}});
@@ -323,7 +325,7 @@ TEST_CASE("the same groups as the complex built in full, with and without the re
   int removed_somewhere = 0;
   for (std::uint64_t seed = 1; seed <= 12; ++seed) {
     CAPTURE(seed);
-    const auto g = seed % 3 == 0 ? random_graph(24, 0.3, seed) : geometric_graph(60, 0.2 + 0.01 * static_cast<double>(seed), seed);
+    const auto g = test_graph(seed, 0.3);
     for (int d = 1; d <= 3; ++d) {
       CAPTURE(d);
       const auto want = built_in_full<integer>(g.vertices, g.edges, d);
@@ -357,10 +359,7 @@ TEST_CASE("generators: cycles of the whole complex, bases both ways") {
   const auto [rv, re] = one_skeleton(rp2);
   check_generators(rv, re, 3);
   // An octahedron with a pendant path: the path goes, S^2 stays, with its generator.
-  std::vector<std::pair<int, int>> oct;
-  for (int u = 0; u < 6; ++u)
-    for (int v = u + 1; v < 6; ++v)
-      if (v != u + 3) oct.emplace_back(u, v);
+  auto oct = octahedron_graph();
   oct.emplace_back(0, 6);
   oct.emplace_back(6, 7);
   check_generators(std::vector<int>{}, oct, 3);
@@ -417,7 +416,7 @@ TEST_CASE("dominated edges: the same groups, generators cycles of the whole comp
   int removed_somewhere = 0;
   for (std::uint64_t seed = 1; seed <= 10; ++seed) {
     CAPTURE(seed);
-    const auto g = seed % 3 == 0 ? random_graph(24, 0.35, seed) : geometric_graph(60, 0.2 + 0.01 * static_cast<double>(seed), seed);
+    const auto g = test_graph(seed, 0.35);
     for (int d = 1; d <= 3; ++d) {
       CAPTURE(d);
       const auto h = lacuna::clique_homology<integer>(g.vertices, g.edges, d, edges);
@@ -436,7 +435,7 @@ TEST_CASE("dominated edges: the same groups, generators cycles of the whole comp
       std::vector<std::vector<integer>> rows;
       for (const auto& z : h.groups[static_cast<std::size_t>(k)].generators)
         rows.push_back(hf.coordinates(full, on(full, k, labelled(h.core, z))));
-      check_unimodular(rows, h.groups[static_cast<std::size_t>(k)].rank);
+      lacuna_test::check_free_block_unimodular(rows, h.groups[static_cast<std::size_t>(k)].rank);
     }
     if (h.removed_edges > 0) {
       using S = std::vector<std::pair<std::vector<int>, integer>>;
@@ -482,10 +481,7 @@ TEST_CASE("errors") {
   CHECK_THROWS_AS(h2.retract(1, S{{{0, 1, 2}, integer(1)}}), std::invalid_argument);  // wrong size
   CHECK_THROWS_AS(h2.retract(1, S{{{0, 3}, integer(1)}}), std::invalid_argument);     // not an edge
   // A non-cycle whose image is a non-cycle is caught (the octahedron keeps every vertex).
-  std::vector<std::pair<int, int>> oct;
-  for (int u = 0; u < 6; ++u)
-    for (int v = u + 1; v < 6; ++v)
-      if (v != u + 3) oct.emplace_back(u, v);
+  auto oct = octahedron_graph();
   const auto ho = lacuna::clique_homology<integer>(oct, 3, o);
   CHECK_THROWS_AS(ho.coordinates(1, S{{{0, 1}, integer(1)}}), std::invalid_argument);
   CHECK(ho.coordinates(1, S{{{0, 1}, integer(1)}, {{1, 2}, integer(1)}, {{2, 0}, integer(1)}}) ==

@@ -115,14 +115,7 @@ void check_generators(const C& c, const lacuna::morse_complex& m) {
       REQUIRE(x.back().size() == r + t);
     }
     REQUIRE(x.size() == r + t);
-    if (r > 0) {  // the free block is square with determinant ±1: its Smith form is I_r
-      lacuna::dense_matrix<integer> F(r, r);
-      for (std::size_t i = 0; i < r; ++i)
-        for (std::size_t j = 0; j < r; ++j) F(i, j) = x[i][j];
-      const auto s = lacuna::dense_smith_form(F);
-      CHECK(s.rank == r);
-      for (const auto& d : s.diagonal) CHECK(d == integer(1));
-    }
+    lacuna_test::check_free_block_unimodular(x, r);  // the free block has determinant ±1
     if (t > 0) {
       // Each torsion generator: zero free part, order (lcm of t_j / gcd(w_j, t_j)) its own.
       for (std::size_t i = r; i < r + t; ++i) {

@@ -231,4 +231,17 @@ inline std::vector<std::string> invariant_factors(const std::vector<integer>& cy
   return out;
 }
 
+/// Rows of coordinates whose first r x r block (the free part) must be unimodular: its Smith
+/// form is the identity, so the rows' free parts are a basis of Z^r.
+inline void check_free_block_unimodular(const std::vector<std::vector<integer>>& rows, std::size_t r) {
+  if (r == 0) return;
+  REQUIRE(rows.size() >= r);
+  lacuna::dense_matrix<integer> F(r, r);
+  for (std::size_t i = 0; i < r; ++i)
+    for (std::size_t j = 0; j < r; ++j) F(i, j) = rows[i][j];
+  const auto s = lacuna::dense_smith_form(F);
+  CHECK(s.rank == r);
+  for (const auto& d : s.diagonal) CHECK(d == integer(1));
+}
+
 }  // namespace lacuna_test
