@@ -1,6 +1,6 @@
 // The walkthrough of docs/maps-and-sequences.md: the annulus and its two boundary circles.
 // It prints the long exact sequence of the pair with every map in the computed bases, checks
-// exactness and the Euler identities, and computes a Lefschetz number and a degree. Exits
+// exactness and the Euler identities, and computes the Lefschetz number of a rotation. Exits
 // non-zero if any self-check fails. Expected values: for the annulus X = S^1 x I, by
 // Lefschetz duality H_n(X, ∂X) = H^{2-n}(X) = Z, Z, 0 for n = 2, 1, 0 (Hatcher, Algebraic
 // Topology, 2002, Theorem 3.43); a rotation is homotopic to the identity, so its Lefschetz

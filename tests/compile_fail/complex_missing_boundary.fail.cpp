@@ -1,6 +1,6 @@
-// expect: cell_complex
+// expect: satisfaction of .*cell_complex<C>.*required expression .*boundary\(c, k, i\)
 // A type with cells but no boundary is not a lacuna::cell_complex: validate must refuse it at
-// the call, naming the concept. Twin: complex_missing_boundary.pass.cpp.
+// the call, naming the concept and its boundary requirement. Twin: complex_missing_boundary.pass.cpp.
 #include <lacuna/complex/validate.hpp>
 
 #include <cstddef>

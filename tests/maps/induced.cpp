@@ -9,7 +9,10 @@
 //     and by -1 on H_1, so its Lefschetz number is 1 - (-1) = 2 (from the trace formula);
 //   * the boundary circle of the Möbius band goes twice around its core: the inclusion is
 //     multiplication by +-2 on H_1 = Z (Hatcher 2002, §2.1, Example 2.7 area — from memory);
-//   * χ(S^n) = 1 + (-1)^n, χ(RP^2) = 1 (Hatcher 2002, §2.2, Euler characteristic).
+//   * χ(S^n) = 1 + (-1)^n, χ(RP^2) = 1 (Hatcher 2002, §2.2, Euler characteristic);
+//   * a rotation of the circle is homotopic to the identity: degree 1 and Lefschetz number
+//     χ(S^1) = 0 (Hatcher 2002, §2.2 and §2.C), here through a chain-map type written as a
+//     third party would, with its own term type and no lacuna base.
 #include "support.hpp"
 
 #include <doctest/doctest.h>
@@ -20,6 +23,7 @@
 
 #include <cstdint>
 #include <cstdlib>
+#include <string>
 #include <vector>
 
 using namespace maps_test;
@@ -39,6 +43,49 @@ TEST_CASE("the k-fold winding of the circle has degree k, k = -3..3") {
     REQUIRE(lacuna::check_chain_map(f, source, target).ok);
     CHECK(lacuna::degree(f, source, target, circle_class(source, m), circle_class(target, n)) == integer(k));
   }
+}
+
+namespace third_party {
+struct step {  // a term of its own: a cell and an integer
+  std::size_t cell;
+  long coefficient;
+};
+/// Rotates the n-gon by `by` steps, cell by cell; with `broken`, the edges stay put while the
+/// vertices move (not a chain map).
+struct rotation {
+  std::size_t n = 0, by = 0;
+  bool broken = false;
+  std::vector<step> image(int k, std::size_t i) const {
+    if (k == 1 && broken) return {{i, 1}};
+    return {{(i + by) % n, 1}};
+  }
+};
+}  // namespace third_party
+
+TEST_CASE("a chain map of the user's own type: rotations of the n-gon") {
+  static_assert(lacuna::chain_map<third_party::rotation>);
+  const std::size_t n = 5;
+  lacuna::cell_list C;
+  for (std::size_t i = 0; i < n; ++i) C.add_cell(0, "v" + std::to_string(i));
+  for (std::size_t i = 0; i < n; ++i)
+    C.add_cell(1, "e" + std::to_string(i), {{(i + 1) % n, 1}, {i, -1}});
+  for (std::size_t by = 0; by < n; ++by) {
+    CAPTURE(by);
+    const third_party::rotation r{n, by};
+    REQUIRE(lacuna::check_chain_map(r, C, C).ok);
+    CHECK(lacuna::degree(r, C) == integer(1));
+    CHECK(lacuna::lefschetz_number(r, C) == rational(0));
+    const auto h = lacuna::induced_maps<integer>(r, C, C);
+    REQUIRE(h.size() == 2);
+    const auto f1 = h[1].free_part();
+    REQUIRE(f1.rows() == 1);
+    CHECK(f1(0, 0) == integer(1));
+  }
+  const auto r = lacuna::check_chain_map(third_party::rotation{n, 1, true}, C, C);
+  CHECK_FALSE(r.ok);
+  CHECK(r.dimension == 1);
+  CHECK(r.cell == 0);
+  CHECK(r.message.find("'e0'") != std::string::npos);
 }
 
 TEST_CASE("the antipodal map of S^n has degree (-1)^(n+1) and Lefschetz number 0") {
