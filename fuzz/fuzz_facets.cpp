@@ -7,7 +7,7 @@
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
   auto in = lacuna_fuzz::stream_of(data, size);
   try {
-    const auto c = lacuna::io::read_facets(in, "fuzz.facets", {.max_cells = lacuna_fuzz::max_cells});
+    const auto c = lacuna::io::read_facets(in, "fuzz.facets", {.max_cells = lacuna_fuzz::max_facet_cells});
     lacuna_fuzz::check_complex(c);
   } catch (const lacuna::parse_error&) {
   }
