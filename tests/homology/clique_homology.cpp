@@ -53,17 +53,6 @@ struct graph {
   edge_list edges;
 };
 
-template <class R>
-std::vector<group> groups_from(const std::vector<lacuna::homology_group<R>>& gs) {
-  std::vector<group> out;
-  for (const auto& g : gs) {
-    group x{g.rank, {}};
-    for (const auto& t : g.torsion) x.torsion.push_back(lacuna_test::text(t));
-    out.push_back(x);
-  }
-  return out;
-}
-
 std::size_t binomial(std::uint64_t n, std::uint64_t k) {
   std::uint64_t b = 1;
   for (std::uint64_t i = 1; i <= k; ++i) b = b * (n - k + i) / i;
@@ -165,7 +154,7 @@ void check_generators(const std::vector<L>& vs, const std::vector<std::pair<L, L
   lacuna::clique_homology_options o;
   o.homology.generators = true;
   const auto hc = lacuna::clique_homology<integer>(vs, es, d, o);
-  REQUIRE(groups_from(hc.groups) == groups_of(hf));
+  REQUIRE(groups_of(hc.groups) == groups_of(hf));
   const int below = hc.top_from_counts ? hc.top_dimension() : hc.top_dimension() + 1;
   for (int k = 0; k < below; ++k) {
     CAPTURE(k);
@@ -276,14 +265,14 @@ TEST_CASE("textbook clique complexes") {
   auto oct = octahedron_graph();
   for (int d : {2, 3, 5}) {
     const auto h = lacuna::clique_homology<integer>(oct, d);
-    CHECK(groups_from(h.groups) == std::vector<group>{{1, {}}, {0, {}}, {1, {}}});
+    CHECK(groups_of(h.groups) == std::vector<group>{{1, {}}, {0, {}}, {1, {}}});
     CHECK(h.core.vertex_count() == 6);
     CHECK_FALSE(h.top_from_counts);  // no clique of 4 vertices: the bound never bites
   }
   // A cycle of 7 vertices: S^1.
   std::vector<std::pair<int, int>> c7;
   for (int i = 0; i < 7; ++i) c7.emplace_back(i, (i + 1) % 7);
-  CHECK(groups_from(lacuna::clique_homology<integer>(c7, 3).groups) == std::vector<group>{{1, {}}, {1, {}}});
+  CHECK(groups_of(lacuna::clique_homology<integer>(c7, 3).groups) == std::vector<group>{{1, {}}, {1, {}}});
   // K_n up to dimension d < n - 1: the d-skeleton of a simplex, a wedge of C(n-1, d+1)
   // d-spheres. Domination leaves one vertex; the top group comes from the counts.
   for (int n = 2; n <= 9; ++n)
@@ -300,24 +289,24 @@ TEST_CASE("textbook clique complexes") {
       want[0].rank = 1;
       want[static_cast<std::size_t>(d)].rank +=
           binomial(static_cast<std::uint64_t>(n - 1), static_cast<std::uint64_t>(d + 1));
-      CHECK(groups_from(h.groups) == want);
+      CHECK(groups_of(h.groups) == want);
       // Reduced homology: H~_0 loses the one.
       lacuna::clique_homology_options o;
       o.homology.reduced = true;
       const auto hr = lacuna::clique_homology<integer>(e, d, o);
       want[0].rank -= 1;
-      CHECK(groups_from(hr.groups) == want);
+      CHECK(groups_of(hr.groups) == want);
     }
   // The barycentric subdivision of a complex is a flag complex with the same space.
   const auto rp2 = lacuna::barycentric_subdivision(lacuna_test::six_vertex_rp2());
   const auto [rv, re] = one_skeleton(rp2);
-  CHECK(groups_from(lacuna::clique_homology<integer>(rv, re, 3).groups) ==
+  CHECK(groups_of(lacuna::clique_homology<integer>(rv, re, 3).groups) ==
         std::vector<group>{{1, {}}, {0, {"2"}}, {0, {}}});
-  CHECK(groups_from(lacuna::clique_homology<lacuna::z2>(rv, re, 3).groups) ==
+  CHECK(groups_of(lacuna::clique_homology<lacuna::z2>(rv, re, 3).groups) ==
         std::vector<group>{{1, {}}, {1, {}}, {1, {}}});
   const auto torus = lacuna::barycentric_subdivision(lacuna_test::seven_vertex_torus());
   const auto [tv, te] = one_skeleton(torus);
-  CHECK(groups_from(lacuna::clique_homology<integer>(tv, te, 2).groups) ==
+  CHECK(groups_of(lacuna::clique_homology<integer>(tv, te, 2).groups) ==
         std::vector<group>{{1, {}}, {2, {}}, {1, {}}});
 }
 
@@ -330,15 +319,15 @@ TEST_CASE("the same groups as the complex built in full, with and without the re
       CAPTURE(d);
       const auto want = built_in_full<integer>(g.vertices, g.edges, d);
       const auto h = lacuna::clique_homology<integer>(g.vertices, g.edges, d);
-      CHECK(groups_from(h.groups) == want);
+      CHECK(groups_of(h.groups) == want);
       lacuna::clique_homology_options none;
       none.reduction = lacuna::clique_reduction::none;
       const auto hn = lacuna::clique_homology<integer>(g.vertices, g.edges, d, none);
-      CHECK(groups_from(hn.groups) == want);
+      CHECK(groups_of(hn.groups) == want);
       CHECK(hn.core.vertex_count() == g.vertices.size());
-      CHECK(groups_from(lacuna::clique_homology<lacuna::z2>(g.vertices, g.edges, d).groups) ==
+      CHECK(groups_of(lacuna::clique_homology<lacuna::z2>(g.vertices, g.edges, d).groups) ==
             built_in_full<lacuna::z2>(g.vertices, g.edges, d));
-      CHECK(groups_from(lacuna::clique_homology<lacuna::mod_p<3>>(g.vertices, g.edges, d).groups) ==
+      CHECK(groups_of(lacuna::clique_homology<lacuna::mod_p<3>>(g.vertices, g.edges, d).groups) ==
             built_in_full<lacuna::mod_p<3>>(g.vertices, g.edges, d));
       // The counts are those of the complex built in full.
       CHECK(h.cell_counts == lacuna::clique_counts(g.vertices, g.edges, d));
@@ -420,8 +409,8 @@ TEST_CASE("dominated edges: the same groups, generators cycles of the whole comp
     for (int d = 1; d <= 3; ++d) {
       CAPTURE(d);
       const auto h = lacuna::clique_homology<integer>(g.vertices, g.edges, d, edges);
-      CHECK(groups_from(h.groups) == built_in_full<integer>(g.vertices, g.edges, d));
-      CHECK(groups_from(lacuna::clique_homology<lacuna::z2>(g.vertices, g.edges, d, edges).groups) ==
+      CHECK(groups_of(h.groups) == built_in_full<integer>(g.vertices, g.edges, d));
+      CHECK(groups_of(lacuna::clique_homology<lacuna::z2>(g.vertices, g.edges, d, edges).groups) ==
             built_in_full<lacuna::z2>(g.vertices, g.edges, d));
       if (h.removed_edges > 0) ++removed_somewhere;
     }
@@ -456,7 +445,7 @@ TEST_CASE("two threads count the same cliques") {
       const auto b = lacuna::clique_homology<integer>(g.vertices, g.edges, d, two);
       CHECK(a.cell_counts == b.cell_counts);
       CHECK(a.top_from_counts == b.top_from_counts);
-      CHECK(groups_from(a.groups) == groups_from(b.groups));
+      CHECK(groups_of(a.groups) == groups_of(b.groups));
     }
   }
 }

@@ -44,14 +44,19 @@ std::string text(const R& x) {
 }
 
 template <class R>
-std::vector<group> groups_of(const lacuna::homology_result<R>& h) {
+std::vector<group> groups_of(const std::vector<lacuna::homology_group<R>>& groups) {
   std::vector<group> out;
-  for (const auto& g : h.groups) {
+  for (const auto& g : groups) {
     group x{g.rank, {}};
     for (const auto& t : g.torsion) x.torsion.push_back(text(t));
     out.push_back(x);
   }
   return out;
+}
+
+template <class R>
+std::vector<group> groups_of(const lacuna::homology_result<R>& h) {
+  return groups_of(h.groups);
 }
 
 /// Markowitz only: no coreductions, no collapses, no set-aside.

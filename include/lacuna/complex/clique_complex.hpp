@@ -6,8 +6,9 @@
 // only the cliques that cannot be extended within the dimension bound are handed to the
 // builder as facets. Time O(sum over cliques of degree), memory as the complex.
 //
-// clique_counts() walks the same enumeration without storing a simplex: the number of
-// simplices per dimension in memory O(graph). lacuna/homology/clique_homology.hpp uses it
+// clique_counts() runs a census over the same enumeration that never lists the cliques of
+// the top size and stores no simplex: the number of simplices per dimension in memory
+// O(graph). lacuna/homology/clique_homology.hpp uses it
 // for the clique complex it never builds.
 #pragma once
 
@@ -54,6 +55,15 @@ void for_each_clique(const std::vector<std::vector<std::uint32_t>>& higher, std:
     clique.assign(1, v);
     extend_cliques(clique, higher[v], higher, max_size, visit);
   }
+}
+
+/// Hands every clique of at most max_size vertices that nothing of higher number extends
+/// within the bound to `b` as a facet (the closure then holds every clique of that size).
+template <class Builder>
+void add_clique_facets(const std::vector<std::vector<std::uint32_t>>& higher, std::size_t max_size, Builder& b) {
+  for_each_clique(higher, max_size, [&](const std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& up) {
+    if (up.empty() || clique.size() == max_size) b.add_facet_ids(clique);
+  });
 }
 
 /// The number of cliques of each size 1..max_size, and whether a clique of max_size + 1
@@ -154,11 +164,7 @@ simplicial_complex<Label> clique_complex(const std::vector<Label>& vertices, con
   if (max_dimension < 0) throw std::invalid_argument("clique_complex: negative dimension bound");
   typename simplicial_complex<Label>::builder b;
   const auto higher = detail::index_graph(vertices, edges, b, "clique_complex");
-  const auto max_size = static_cast<std::size_t>(max_dimension) + 1;
-  detail::for_each_clique(higher, max_size,
-                          [&](const std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& up) {
-                            if (up.empty() || clique.size() == max_size) b.add_facet_ids(clique);
-                          });
+  detail::add_clique_facets(higher, static_cast<std::size_t>(max_dimension) + 1, b);
   return std::move(b).finalize();
 }
 

@@ -259,9 +259,7 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
         if (core_id[v] != UINT32_MAX) h.push_back(core_id[v]);  // increasing: ids keep the order
       tick();
     }
-    detail::for_each_clique(core_higher, max_size, [&](const std::vector<std::uint32_t>& clique, const std::vector<std::uint32_t>& up) {
-      if (up.empty() || clique.size() == max_size) cb.add_facet_ids(clique);
-    });
+    detail::add_clique_facets(core_higher, max_size, cb);
     out.core = std::move(cb).finalize();
   }
   out.core_homology = homology<R>(out.core, options.homology, options.algorithm, unit);
