@@ -366,6 +366,7 @@ void mark_apparent_pairs(const grid<D, T>& g, pair_bits& bits, std::size_t z0, s
         control->check();
     }
   }
+  if (control && report) control->report("pairing cubical cells", z1 - z0, z1 - z0);
 }
 
 /// The Morse complex and its reduction over the field R.
