@@ -138,6 +138,10 @@ template <class V, class R, class Order>
 void sort_pairs(persistence_result<V, R, Order>& r) {
   for (std::size_t k = 0; k < r.diagrams.size(); ++k) {
     auto& pairs = r.diagrams[k].pairs;
+    if (k >= r.representatives.size() || r.representatives[k].empty()) {
+      std::sort(pairs.begin(), pairs.end(), [&](const auto& a, const auto& b) { return pair_before(a, b, r.order); });
+      continue;
+    }
     std::vector<std::size_t> perm(pairs.size());
     std::iota(perm.begin(), perm.end(), std::size_t{0});
     std::sort(perm.begin(), perm.end(),
@@ -146,13 +150,11 @@ void sort_pairs(persistence_result<V, R, Order>& r) {
     sorted.reserve(pairs.size());
     for (std::size_t j : perm) sorted.push_back(std::move(pairs[j]));
     pairs = std::move(sorted);
-    if (k < r.representatives.size() && !r.representatives[k].empty()) {
-      auto& reps = r.representatives[k];
-      std::vector<chain<R>> sorted_reps;
-      sorted_reps.reserve(reps.size());
-      for (std::size_t j : perm) sorted_reps.push_back(std::move(reps[j]));
-      reps = std::move(sorted_reps);
-    }
+    auto& reps = r.representatives[k];
+    std::vector<chain<R>> sorted_reps;
+    sorted_reps.reserve(reps.size());
+    for (std::size_t j : perm) sorted_reps.push_back(std::move(reps[j]));
+    reps = std::move(sorted_reps);
   }
 }
 

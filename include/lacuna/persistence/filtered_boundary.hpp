@@ -25,9 +25,11 @@
 #include <cstdint>
 #include <limits>
 #include <numeric>
+#include <ranges>
 #include <stdexcept>
 #include <string>
 #include <type_traits>
+#include <utility>
 #include <vector>
 
 namespace lacuna {
@@ -81,8 +83,18 @@ filtered_boundary<filtration_value_t<F>, R> filter_boundaries(const F& f, int to
     for (std::size_t i = 0; i < count; ++i) vals.push_back(lacuna::cell_value(f, k, i));
     auto& ord = out.order[uk];
     ord.resize(count);
-    std::iota(ord.begin(), ord.end(), std::uint32_t{0});
-    std::stable_sort(ord.begin(), ord.end(), [&](std::uint32_t a, std::uint32_t b) { return order(vals[a], vals[b]); });
+    {
+      // sort (value, index) pairs: ties by index, with the values at hand
+      std::vector<std::pair<V, std::uint32_t>> keyed;
+      keyed.reserve(count);
+      for (std::uint32_t i = 0; i < count; ++i) keyed.emplace_back(vals[i], i);
+      std::sort(keyed.begin(), keyed.end(), [&](const auto& a, const auto& b) {
+        if (order(a.first, b.first)) return true;
+        if (order(b.first, a.first)) return false;
+        return a.second < b.second;
+      });
+      for (std::uint32_t p = 0; p < count; ++p) ord[p] = keyed[p].second;
+    }
     auto& pos = out.position[uk];
     pos.resize(count);
     for (std::uint32_t p = 0; p < count; ++p) pos[ord[p]] = p;
@@ -97,7 +109,9 @@ filtered_boundary<filtration_value_t<F>, R> filter_boundaries(const F& f, int to
     for (std::uint32_t p = 0; p < count; ++p) {
       const std::size_t cell = ord[p];
       auto& column = m.columns[p];
-      for (auto&& t : lacuna::boundary(f, k, cell)) {
+      const auto b = lacuna::boundary(f, k, cell);
+      if constexpr (std::ranges::sized_range<decltype(b)>) column.reserve(std::ranges::size(b));
+      for (auto&& t : b) {
         const std::size_t face = incidence_face(t);
         if (face >= below.size())
           throw invalid_complex("lacuna: the boundary of the " + std::to_string(k) + "-cell '" +

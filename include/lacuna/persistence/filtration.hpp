@@ -108,8 +108,14 @@ struct faces_as_written_fn {
     else {
       std::vector<std::size_t> out;
       if (k <= 0) return out;
-      for (auto&& t : lacuna::boundary(c, k, i))
-        if (coefficient_as_integer(t).sign() != 0) out.push_back(incidence_face(t));
+      for (auto&& t : lacuna::boundary(c, k, i)) {
+        bool nonzero;
+        if constexpr (small_incidence_like<std::remove_cvref_t<decltype(t)>>)
+          nonzero = as_incidence(t).coefficient != 0;
+        else
+          nonzero = coefficient_as_integer(t).sign() != 0;
+        if (nonzero) out.push_back(incidence_face(t));
+      }
       return out;
     }
   }
@@ -124,6 +130,27 @@ struct faces_as_written_fn {
 };
 
 }  // namespace filtration_cpo_detail
+
+namespace detail {
+/// fn(face) for the faces of a cell as lacuna::faces_as_written gives them, without a vector
+/// when the complex has no faces_as_written of its own (the boundary is read directly).
+template <class C, class Fn>
+void for_each_face_as_written(const C& c, int k, std::size_t i, Fn&& fn) {
+  if constexpr (requires { complex_traits<C>::faces_as_written(c, k, i); } || requires { c.faces_as_written(k, i); } ||
+                requires { faces_as_written(c, k, i); }) {
+    for (std::size_t f : filtration_cpo_detail::faces_as_written_fn{}(c, k, i)) fn(f);
+  } else {
+    if (k <= 0) return;
+    for (auto&& t : lacuna::boundary(c, k, i)) {
+      if constexpr (small_incidence_like<std::remove_cvref_t<decltype(t)>>) {
+        if (as_incidence(t).coefficient != 0) fn(incidence_face(t));
+      } else {
+        if (coefficient_as_integer(t).sign() != 0) fn(incidence_face(t));
+      }
+    }
+  }
+}
+}  // namespace detail
 
 inline namespace cpo {
 /// lacuna::cell_value(f, k, i): the value at which the i-th k-cell of the filtration enters.
@@ -209,10 +236,10 @@ void check_filtration(const F& f) {
   for (int k = 1; k <= lacuna::top_dimension(f); ++k)
     for (std::size_t i = 0; i < lacuna::cell_count(f, k); ++i) {
       const filtration_value_t<F> v = lacuna::cell_value(f, k, i);
-      for (std::size_t face : lacuna::faces_as_written(f, k, i)) {
+      detail::for_each_face_as_written(f, k, i, [&](std::size_t face) {
         const filtration_value_t<F> fv = lacuna::cell_value(f, k - 1, face);
         if (order(v, fv)) detail::throw_enters_before_face(f, k, i, face, v, fv);
-      }
+      });
     }
 }
 

@@ -62,6 +62,14 @@ class values_filtration {
     check_filtration(*this);
   }
 
+ private:
+  struct checked_tag {};
+  /// Values already checked by the caller (from_partial_values).
+  values_filtration(checked_tag, const C& complex, std::vector<std::vector<V>> values, Order order)
+      : complex_(&complex), values_(std::move(values)), order_(std::move(order)) {}
+
+ public:
+
   /// Values where given, the latest of its faces elsewhere (see the file comment):
   /// partial[k][i] is the value of the i-th k-cell or nullopt. A dimension's vector may be
   /// empty (no value given in that dimension) or as long as the dimension has cells.
@@ -86,22 +94,37 @@ class values_filtration {
                                     std::to_string(k));
       values[uk].reserve(n);
       for (std::size_t i = 0; i < n; ++i) {
+        // the latest of the faces as written (none for a vertex)
+        const V* latest = nullptr;
+        if (k > 0)
+          detail::for_each_face_as_written(complex, k, i, [&](std::size_t f) {
+            const V& fv = values[uk - 1][f];
+            if (!latest || order(*latest, fv)) latest = &fv;
+          });
         if (given && partial[uk][i].has_value()) {
-          values[uk].push_back(*partial[uk][i]);
+          const V& v = *partial[uk][i];
+          if (order(v, v) || !(v == v))  // unordered against itself: a NaN
+            throw filtration_error("lacuna: the value of the " + std::to_string(k) + "-cell '" +
+                                       lacuna::cell_name(complex, k, i) + "' is not a number",
+                                   k, i);
+          if (latest && order(v, *latest)) {  // name the first face entering after it
+            std::size_t face = 0;
+            detail::for_each_face_as_written(complex, k, i, [&](std::size_t f) {
+              if (&values[uk - 1][f] == latest) face = f;
+            });
+            detail::throw_enters_before_face(complex, k, i, face, v, *latest);
+          }
+          values[uk].push_back(v);
           continue;
         }
-        const std::vector<std::size_t> faces = k == 0 ? std::vector<std::size_t>{} : lacuna::faces_as_written(complex, k, i);
-        if (faces.empty())
+        if (!latest)
           throw filtration_error("lacuna: the " + std::to_string(k) + "-cell '" + lacuna::cell_name(complex, k, i) +
                                      "' has no value and no faces to take one from",
                                  k, i);
-        const V* latest = &values[uk - 1][faces.front()];
-        for (std::size_t f : faces)
-          if (order(*latest, values[uk - 1][f])) latest = &values[uk - 1][f];
         values[uk].push_back(*latest);
       }
     }
-    return values_filtration(complex, std::move(values), std::move(order));
+    return values_filtration(checked_tag{}, complex, std::move(values), std::move(order));
   }
 
   // ---- the cell_complex interface: the complex's own --------------------------------------
