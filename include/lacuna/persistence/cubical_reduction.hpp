@@ -1,37 +1,41 @@
 // lacuna/persistence/cubical_reduction.hpp — persistence of cubical filtrations with the cells
-// paired before the algebra: apparent pairs, the Morse complex they leave, then twist.
+// paired before the algebra: a discrete gradient of lower stars, the Morse complex it leaves,
+// then twist.
 //
-// 1. Apparent pairs (the name from Bauer's Ripser, 2021; pairing along the filtration before
-//    the algebra goes back to Robins, Wood & Sheppard 2011). In the total order of the
-//    filtration — (value, dimension, index) — a face f and a cell c form an apparent pair when
-//    f is the youngest (last to enter) face of c and c the oldest coface of f. Such pairs are
-//    persistence pairs that every reduction finds, and together they form an acyclic matching
-//    (a discrete gradient, Forman 1998) along whose paths the order falls. On a cubical
-//    filtration each has persistence zero: the oldest coface of f lies in the voxel f takes
-//    its value from, so it has f's value. Finding them is local: one pass over the grid,
-//    reading cell values from five consecutive hyperplanes of the doubled grid (computed from
-//    the samples by separable minima, maxima for superlevel sets). Each cell gets a code of 4
-//    bits (8 above dimension 3): unpaired (critical), or the direction of its partner.
+// 1. The gradient (Forman 1998), built lower star by lower star (Robins, Wood & Sheppard 2011),
+//    here with the voxels as the top cells: voxels come in the order of their samples, ties by
+//    their number, and a cell belongs to the first voxel containing it — so every cell of a
+//    voxel's lower star has that voxel's value, the value of the filtration. Inside the star
+//    the cells are paired by elementary expansions (star_matcher): a cell whose faces are all
+//    in is paired with a coface of the star whose other faces are all in; a cell that cannot
+//    be is critical. Which cells of a voxel's cube are in its star depends only on which of
+//    the 3^D - 1 voxels around it precede it; the matchings are cached by that (a full table
+//    up to dimension 2). Each cell gets a code of 4 bits (8 above dimension 3): critical, or
+//    the direction of its partner. The pass over the voxels reads the samples only.
 // 2. The Morse complex (algebraic Morse theory: Sköldberg 2006; Jöllenbeck & Welker 2009) has
-//    the critical cells, in the order they had, and the boundary summed over the gradient
-//    paths: from the faces of a critical cell, pending cells are taken latest first (the order
-//    falls along a path), with coefficients in the field; in dimension 1 a path is a walk from
-//    vertex to vertex. By Mischaikow & Nanda (2013) — the gradient pairs cells of equal value
-//    — the Morse complex filtered by value has the persistence of the original one.
+//    the critical cells, ordered as the filtration orders cells — (value, dimension, index) —
+//    and the boundary summed over the gradient paths, with coefficients in the field: in the
+//    top dimension the paths from a cell form a tree (a face has two cofaces), in dimension 1
+//    a path is a walk from vertex to vertex, elsewhere the paths form an acyclic graph walked
+//    in a topological order (Kahn 1962). The gradient pairs cells of equal value, so the Morse
+//    complex filtered by value has the persistence of the original one (Mischaikow & Nanda,
+//    "Morse theory for filtrations", 2013).
 // 3. The Morse complex is reduced with clearing (Chen & Kerber 2011), top dimension first; a
 //    column whose cell the dimension above has already paired is never built (its Morse
-//    boundary is not searched for). Pairs are reported in the original cells.
+//    boundary is not searched for).
 // Representatives are found on the Morse complex and lifted along the gradient
 // (g(sigma) = sigma + the cells the paths from its faces run through), a chain map that keeps
-// the filtration, so a lifted cycle is born and dies where its Morse cycle does.
+// the filtration by value: a lifted cycle has no cell entering after its birth value, is not
+// a boundary of the cells entering before its death value, and is one at it.
 //
-// What it omits: the apparent pairs themselves, all of persistence zero. The other pairs, with
-// their values and cells, are those of the matrix reductions (the tests compare them); compare
-// diagrams of different variants after without_zero_persistence.
+// What it reports: the pairs of positive persistence (and the essential classes), with the
+// values the matrix variants give (the tests compare them). Pairs of persistence zero are not
+// reported, and the cells named are cells of the right values — critical cells of the
+// gradient, which may differ from those of the total order when values tie.
 // Memory: the samples, half a byte per cell of the doubled grid (a byte above dimension 3),
-// five hyperplanes of values per thread, and the critical cells with their Morse boundaries.
-// Work: one pass over the grid, then one search per Morse column; with threads = 2 both split
-// in two (the results do not depend on it).
+// a cache of matchings (2 MB per thread in dimension 3), and the critical cells with their
+// Morse boundaries. Work: one pass over the voxels, then one search per Morse column; with
+// threads = 2 both split in two (the results do not depend on it).
 #pragma once
 
 #include <lacuna/algorithm/cubical_morse.hpp>
@@ -568,7 +572,7 @@ class morse_persistence {
   }
 
  private:
-  struct heap_item {
+  struct sort_key {
     T value;
     unsigned rank;
     cell<D> c;
@@ -630,7 +634,7 @@ class morse_persistence {
       const auto& cells = by_cell_[k];
       if (cells.size() >= std::numeric_limits<std::uint32_t>::max())
         throw std::length_error("lacuna: more than 2^32 - 1 critical cells of dimension " + std::to_string(k));
-      std::vector<heap_item> keys;
+      std::vector<sort_key> keys;
       keys.reserve(cells.size());
       for (auto l : cells) {
         const cell<D> c = g_.at(l);
@@ -940,9 +944,9 @@ class morse_persistence {
 
 }  // namespace detail::cubical_pers
 
-/// The variant for cubical filtrations: apparent pairs, then the Morse complex they leave,
-/// reduced with clearing (see the file comment). Pairs of persistence zero taken as
-/// apparent pairs are not reported.
+/// The variant for cubical filtrations: a gradient of lower stars, then the Morse complex it
+/// leaves, reduced with clearing (see the file comment). Reports the pairs of positive
+/// persistence and the essential classes, with cells of their values.
 struct cubical_morse_persistence {
   template <filtration F, field R>
     requires is_cubical_filtration<F>
