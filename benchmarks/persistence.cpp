@@ -11,8 +11,9 @@
 //
 // Counters: pairs = pairs of positive persistence (all dimensions); peak_MB = the rise of the
 // resident high-water mark during the run (the input built before it: the samples, 2 bytes per
-// pixel or 1 per voxel, come on top), bytes_per_voxel = peak / voxels. CPU time is the
-// process's (both threads).
+// pixel or 1 per voxel, come on top), bytes_per_voxel = peak / voxels; morse_columns = the
+// cubical variant's critical cells of dimension >= 1 (from its progress reports). CPU time is
+// the process's (both threads).
 #include "bench_support.hpp"
 
 #include <lacuna/complex/simplicial_complex.hpp>
@@ -146,7 +147,11 @@ void BM_volume(benchmark::State& state) {
   const auto v = static_cast<int>(state.range(0));
   const auto n = static_cast<std::size_t>(state.range(2));
   const lacuna::cubical_filtration<3, std::uint8_t> f({n, n, n}, volume_samples(n));
-  const lacuna::persistence_options o{.threads = static_cast<unsigned>(state.range(1))};
+  lacuna::persistence_options o{.threads = static_cast<unsigned>(state.range(1))};
+  std::uint64_t columns = 0;  // the cubical variant's Morse columns: its critical cells of dimension >= 1
+  o.control.progress = [&](const lacuna::progress_report& r) {
+    if (r.phase == "Morse boundaries") columns = r.total;
+  };
   std::size_t pairs = 0;
   const long before = lacuna_bench::begin_peak();
   for (auto _ : state) {
@@ -158,6 +163,7 @@ void BM_volume(benchmark::State& state) {
   state.counters["pairs"] = static_cast<double>(pairs);
   state.counters["peak_MB"] = static_cast<double>(peak - before) / 1024.0;
   state.counters["bytes_per_voxel"] = static_cast<double>(peak - before) * 1024.0 / static_cast<double>(n * n * n);
+  if (v == cubical) state.counters["morse_columns"] = static_cast<double>(columns);
 }
 BENCHMARK(BM_volume)
     ->ArgNames({"variant", "threads", "n"})
