@@ -33,7 +33,10 @@
 #include <memory>
 #include <numbers>
 #include <random>
+#include <string>
 #include <vector>
+
+#include <time.h>
 
 namespace {
 
@@ -90,6 +93,13 @@ const std::vector<std::uint8_t>& volume_samples(std::size_t n) {
 }
 
 enum variant : int { cubical = 0, twist = 1, standard = 2, cohomology = 3 };
+
+/// CPU seconds of the process (every thread).
+double process_cpu() {
+  timespec t{};
+  clock_gettime(CLOCK_PROCESS_CPUTIME_ID, &t);
+  return static_cast<double>(t.tv_sec) + 1e-9 * static_cast<double>(t.tv_nsec);
+}
 
 template <class F>
 auto run_variant(const F& f, int v, const lacuna::persistence_options& o) {
@@ -149,8 +159,18 @@ void BM_volume(benchmark::State& state) {
   const lacuna::cubical_filtration<3, std::uint8_t> f({n, n, n}, volume_samples(n));
   lacuna::persistence_options o{.threads = static_cast<unsigned>(state.range(1))};
   std::uint64_t columns = 0;  // the cubical variant's Morse columns: its critical cells of dimension >= 1
+  // process CPU seconds per phase, charged at each change of phase
+  std::map<std::string, double> phase_cpu;
+  std::string phase;
+  double since = process_cpu();
   o.control.progress = [&](const lacuna::progress_report& r) {
     if (r.phase == "Morse boundaries") columns = r.total;
+    if (r.phase != phase) {
+      const double now = process_cpu();
+      if (!phase.empty()) phase_cpu[phase] += now - since;
+      phase = std::string(r.phase);
+      since = now;
+    }
   };
   std::size_t pairs = 0;
   const long before = lacuna_bench::begin_peak();
@@ -163,7 +183,13 @@ void BM_volume(benchmark::State& state) {
   state.counters["pairs"] = static_cast<double>(pairs);
   state.counters["peak_MB"] = static_cast<double>(peak - before) / 1024.0;
   state.counters["bytes_per_voxel"] = static_cast<double>(peak - before) * 1024.0 / static_cast<double>(n * n * n);
-  if (v == cubical) state.counters["morse_columns"] = static_cast<double>(columns);
+  if (!phase.empty()) phase_cpu[phase] += process_cpu() - since;
+  if (v == cubical) {
+    state.counters["morse_columns"] = static_cast<double>(columns);
+    state.counters["cpu_pairing"] = phase_cpu["pairing cubical cells"];
+    state.counters["cpu_morse"] = phase_cpu["Morse boundaries"];
+    state.counters["cpu_reducing"] = phase_cpu["reducing the boundary matrices"];
+  }
 }
 BENCHMARK(BM_volume)
     ->ArgNames({"variant", "threads", "n"})
