@@ -797,7 +797,8 @@ class morse_persistence {
       stack.clear();
       for_each_face(sigma, [&](const cell<D>& f, int w) { stack.push_back({f, integer_in_field(w)}); });
       while (!stack.empty()) {
-        const auto [rho, c] = stack.back();
+        const cell<D> rho = stack.back().first;  // (no structured binding: lambdas below use it)
+        const R c = stack.back().second;
         stack.pop_back();
         const std::uint8_t code = codes_.get(rho.l);
         if (code == 0) {
