@@ -11,6 +11,8 @@
 #include <cstdio>
 #include <string>
 
+namespace examples_run_examples_test {
+
 namespace {
 
 struct run_result {
@@ -53,3 +55,5 @@ TEST_CASE("examples/maps_walkthrough prints what docs/maps-and-sequences.md show
   }
   CHECK(r.text.find("FAIL") == std::string::npos);
 }
+
+}  // namespace examples_run_examples_test
