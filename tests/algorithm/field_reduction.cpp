@@ -16,6 +16,8 @@
 #include <limits>
 #include <stdexcept>
 
+namespace algorithm_field_reduction_test {
+
 using namespace field_reduction_test;
 using lacuna::bit_packed_z2;
 using lacuna::mod_p;
@@ -213,3 +215,5 @@ TEST_CASE("empty and zero matrices") {
     check_same(x, reduce_columns(m, all, standard_reduction{}));
   }
 }
+
+}  // namespace algorithm_field_reduction_test

@@ -12,6 +12,8 @@
 #include <string>
 #include <vector>
 
+namespace cli_big_coefficients_test {
+
 using namespace cli_test;
 using big = boost::multiprecision::cpp_int;
 
@@ -79,3 +81,5 @@ TEST_CASE("a coefficient of 254 digits, and errors that only big coefficients ca
         huge + ":3: a coefficient of 100001 digits in the boundary of 'r' is above the limit of 100000 digits "
                "(the limit of the reader)");
 }
+
+}  // namespace cli_big_coefficients_test

@@ -6,6 +6,8 @@
 
 #include <string>
 
+namespace cli_coefficients_test {
+
 using namespace cli_test;
 using big = boost::multiprecision::cpp_int;
 
@@ -121,3 +123,5 @@ TEST_CASE("big torsion: a JSON integer of any size, with exact digits") {
   CHECK(r.status == 0);
   CHECK(r.out.find("H_1 = Z/" + digits + "\n") != std::string::npos);
 }
+
+}  // namespace cli_coefficients_test

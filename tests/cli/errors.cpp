@@ -6,6 +6,8 @@
 #include <regex>
 #include <string>
 
+namespace cli_errors_test {
+
 using namespace cli_test;
 
 namespace {
@@ -217,3 +219,5 @@ TEST_CASE("errors never look like results: with --json too, and in every coeffic
       expect_located(expect_error(run(args)), f, 2);
     }
 }
+
+}  // namespace cli_errors_test

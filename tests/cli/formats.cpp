@@ -6,6 +6,8 @@
 #include <cstdint>
 #include <string>
 
+namespace cli_formats_test {
+
 using namespace cli_test;
 
 namespace {
@@ -252,3 +254,5 @@ TEST_CASE("the extension decides the format, in any letter case") {
   const auto j = homology_json({}, dir.write("RING.PBM", "P1\n3 3\n1 1 1\n1 0 1\n1 1 1\n"));
   CHECK(cells_of(j) == std::vector<std::uint64_t>{16, 24, 8});
 }
+
+}  // namespace cli_formats_test

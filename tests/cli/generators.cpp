@@ -13,6 +13,8 @@
 #include <sstream>
 #include <string>
 
+namespace cli_generators_test {
+
 using namespace cli_test;
 using big = boost::multiprecision::cpp_int;
 
@@ -447,3 +449,5 @@ TEST_CASE("--generators in human-readable output") {
   CHECK(std::regex_search(r.out, std::regex(R"(\nH_1 = Z/2\n  generator \(order 2\): -?(\d*[13579]\*)?\[q\]\n)")));
   CHECK(std::regex_search(r.out, std::regex(R"(\nH_2 = 0\n$)")));
 }
+
+}  // namespace cli_generators_test

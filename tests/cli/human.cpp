@@ -3,6 +3,8 @@
 
 #include <string>
 
+namespace cli_human_test {
+
 using namespace cli_test;
 
 namespace {
@@ -66,3 +68,5 @@ TEST_CASE("human-readable: one line per dimension 0..top, and none for the empty
   CHECK(out.find("H_") == std::string::npos);
   CHECK(out.find("Euler characteristic: 0") != std::string::npos);
 }
+
+}  // namespace cli_human_test

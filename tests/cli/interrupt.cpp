@@ -9,6 +9,8 @@
 #include <csignal>
 #include <string>
 
+namespace cli_interrupt_test {
+
 using namespace cli_test;
 
 namespace {
@@ -62,3 +64,5 @@ TEST_CASE("a run without a signal is not affected") {
   CHECK(r.err.empty());
   CHECK(r.out.find("\"euler_characteristic\": 0") != std::string::npos);
 }
+
+}  // namespace cli_interrupt_test

@@ -7,6 +7,8 @@
 #include <chrono>
 #include <string>
 
+namespace cli_progress_test {
+
 using namespace cli_test;
 
 namespace {
@@ -101,3 +103,5 @@ TEST_CASE("stderr a terminal: progress unless --quiet, and stdout untouched") {
     }
   }
 }
+
+}  // namespace cli_progress_test

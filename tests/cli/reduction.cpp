@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+namespace cli_reduction_test {
+
 using namespace cli_test;
 
 namespace {
@@ -55,3 +57,5 @@ TEST_CASE("--reduction with a kind that does not exist is an error of use") {
   CHECK(r.out.empty());
   CHECK(r.err.find("--reduction") != std::string::npos);
 }
+
+}  // namespace cli_reduction_test

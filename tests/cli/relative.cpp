@@ -6,6 +6,8 @@
 #include <string>
 #include <vector>
 
+namespace cli_relative_test {
+
 using namespace cli_test;
 
 namespace {
@@ -148,3 +150,5 @@ TEST_CASE("--relative: SUB in another format, meshes and images, a missing SUB")
   CHECK(expect_error(run({"homology", "--relative", (d.path() / "none.facets").string(), X})).find("no such file") !=
         std::string::npos);
 }
+
+}  // namespace cli_relative_test

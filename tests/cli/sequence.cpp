@@ -8,6 +8,8 @@
 #include <string>
 #include <vector>
 
+namespace cli_sequence_test {
+
 using namespace cli_test;
 using json = nlohmann::ordered_json;
 
@@ -149,3 +151,5 @@ TEST_CASE("lacuna sequence: errors follow the contract") {
   CHECK(expect_error(run({"sequence", mesh, mesh})).find(".facets and .cells") != std::string::npos);
   CHECK(expect_error(run({"sequence", X})).find("lacuna: ") == 0);  // SUB missing
 }
+
+}  // namespace cli_sequence_test

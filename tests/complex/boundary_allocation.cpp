@@ -12,6 +12,8 @@
 #include <cstdlib>
 #include <new>
 
+namespace complex_boundary_allocation_test {
+
 using lacuna_test::allocations;
 
 TEST_CASE("boundaries of simplices of dimension < 8 do not allocate; of cell lists neither") {
@@ -32,3 +34,5 @@ TEST_CASE("boundaries of simplices of dimension < 8 do not allocate; of cell lis
   CHECK(big.boundary(9, 0).size() == 10);
   CHECK(allocations.load() > b2);
 }
+
+}  // namespace complex_boundary_allocation_test

@@ -20,6 +20,8 @@
 #include <string>
 #include <vector>
 
+namespace complex_cell_list_test {
+
 using lacuna::cell_list;
 using test_support::counts;
 
@@ -188,3 +190,5 @@ TEST_CASE("coefficient_in: a big integer in any ring, by Horner in base 2^62") {
   CHECK_THROWS_AS(lacuna::coefficient_in<lacuna::checked_int64>(integer(std::numeric_limits<std::int64_t>::min()) - 1),
                   lacuna::coefficient_overflow);
 }
+
+}  // namespace complex_cell_list_test

@@ -13,6 +13,8 @@
 #include <utility>
 #include <vector>
 
+namespace complex_clique_complex_test {
+
 using test_support::binomial;
 using test_support::counts;
 
@@ -87,3 +89,5 @@ TEST_CASE("random graphs agree with brute force over all vertex subsets") {
     lacuna::validate(c);
   }
 }
+
+}  // namespace complex_clique_complex_test

@@ -10,6 +10,8 @@
 #include <map>
 #include <tuple>
 
+namespace complex_coboundary_table_test {
+
 static_assert(lacuna::complex_with_coboundary<lacuna::coboundary_table<lacuna::cell_list>>);
 static_assert(lacuna::complex_with_coboundary<lacuna::coboundary_table<lacuna::simplicial_complex<int>>>);
 
@@ -77,3 +79,5 @@ TEST_CASE("repeated faces add up and cancelled terms vanish") {
   const lacuna::coboundary_table t(r);
   CHECK(t.coboundary(0, 0).empty());
 }
+
+}  // namespace complex_coboundary_table_test

@@ -13,6 +13,8 @@
 #include <string>
 #include <vector>
 
+namespace complex_construct_test {
+
 using lacuna::cell_list;
 using lacuna::euler_characteristic;
 using lacuna::simplicial_complex;
@@ -243,3 +245,5 @@ TEST_CASE("barycentric subdivision of regular cell complexes (the order complex 
   CHECK(test_support::closed_pseudomanifold(lacuna::barycentric_subdivision(lacuna::product(
       lacuna::to_cell_list(test_support::simplex_boundary_sphere(2)), lacuna::to_cell_list(test_support::simplex_boundary_sphere(2))))));
 }
+
+}  // namespace complex_construct_test

@@ -6,6 +6,8 @@
 
 #include <string>
 
+namespace complex_errors_test {
+
 TEST_CASE("parse_error formats FILE:LINE: message (FORMATS.md, Errors)") {
   const lacuna::parse_error e("torus.cells", 12, "unknown cell 'q'");
   CHECK(std::string(e.what()) == "torus.cells:12: unknown cell 'q'");
@@ -26,3 +28,5 @@ TEST_CASE("invalid_complex names a cell or none") {
   const std::runtime_error& base = e;  // both derive from std::runtime_error
   CHECK(std::string(base.what()) == "boundary of boundary is not zero");
 }
+
+}  // namespace complex_errors_test

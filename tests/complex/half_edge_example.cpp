@@ -7,6 +7,8 @@
 #include <cstdio>
 #include <string>
 
+namespace complex_half_edge_example_test {
+
 TEST_CASE("the half-edge adapter example runs and prints the right counts") {
   const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/half_edge_adapter";
   FILE* p = popen(cmd.c_str(), "r");
@@ -20,3 +22,5 @@ TEST_CASE("the half-edge adapter example runs and prints the right counts") {
         "cube: 8 vertices, 12 edges, 6 faces, chi = 2 (expected 2)\n"
         "torus: 16 vertices, 32 edges, 16 faces, chi = 0 (expected 0)\n");
 }
+
+}  // namespace complex_half_edge_example_test

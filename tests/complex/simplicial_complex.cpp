@@ -11,6 +11,8 @@
 #include <string>
 #include <vector>
 
+namespace complex_simplicial_complex_test {
+
 using lacuna::simplicial_complex;
 using test_support::binomial;
 using test_support::counts;
@@ -171,3 +173,5 @@ TEST_CASE("boundary does not heap-allocate below dimension 8; wide simplices sti
   lacuna::validate(s);
   static_assert(lacuna::simplex_boundary::inline_capacity == 8);
 }
+
+}  // namespace complex_simplicial_complex_test

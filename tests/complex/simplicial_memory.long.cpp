@@ -18,6 +18,8 @@
 #include <iostream>
 #include <string>
 
+namespace complex_simplicial_memory_test {
+
 namespace {
 std::size_t peak_rss_kib() {  // VmHWM from /proc/self/status (Linux)
   std::ifstream s("/proc/self/status");
@@ -75,3 +77,5 @@ TEST_CASE("ten million simplices: about 12 bytes each") {
             << per << " per simplex), peak RSS " << peak_rss_kib() / 1024 << " MiB, built in "
             << std::chrono::duration<double>(t1 - t0).count() << " s\n";
 }
+
+}  // namespace complex_simplicial_memory_test

@@ -8,6 +8,8 @@
 #include <random>
 #include <vector>
 
+namespace complex_sort_records_test {
+
 TEST_CASE("sort_unique_records agrees with std::sort and std::unique") {
   std::mt19937 gen(20261202);
   for (std::size_t w : {2u, 3u, 4u, 5u})
@@ -26,3 +28,5 @@ TEST_CASE("sort_unique_records agrees with std::sort and std::unique") {
         CHECK(flat == expected);
       }
 }
+
+}  // namespace complex_sort_records_test

@@ -13,6 +13,8 @@
 #include <utility>
 #include <vector>
 
+namespace complex_validate_test {
+
 namespace user {
 /// A complex given as plain vectors, adapted by ADL free functions.
 struct chains {
@@ -148,3 +150,5 @@ TEST_CASE("sums of int64 products beyond 128 bits are added up exactly, not refu
   c.d[2][0] = {{0, big}, {1, big}, {2, -big}, {3, -big}};
   lacuna::validate(c);
 }
+
+}  // namespace complex_validate_test

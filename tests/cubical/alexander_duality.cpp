@@ -29,6 +29,8 @@
 #include <string>
 #include <vector>
 
+namespace cubical_alexander_duality_test {
+
 using lacuna::cubical_complex;
 using lacuna_volumes::duality_numbers;
 using lacuna_volumes::grid;
@@ -358,3 +360,5 @@ TEST_CASE("write_nrrd, read back by lacuna::io::read_nrrd, gives the same cubica
   CHECK_THROWS_AS(lacuna_volumes::write_nrrd((path.parent_path() / "no-such-directory" / "x.nrrd").string(), box),
                   std::runtime_error);
 }
+
+}  // namespace cubical_alexander_duality_test

@@ -16,6 +16,8 @@
 
 #include <vector>
 
+namespace cubical_alexander_duality_large_test {
+
 namespace {
 
 const lacuna::sparse_elimination morse{.reduction = lacuna::pre_reduction::morse};
@@ -55,3 +57,5 @@ TEST_CASE("generators of a 64^3 porous volume through the Morse complex pass ver
   CHECK_MESSAGE(report.ok, report.first_failure);
   CHECK(report.checks > d.b1);
 }
+
+}  // namespace cubical_alexander_duality_large_test

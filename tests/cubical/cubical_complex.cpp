@@ -14,6 +14,8 @@
 #include <random>
 #include <vector>
 
+namespace cubical_cubical_complex_test {
+
 using lacuna::cubical_complex;
 
 static_assert(lacuna::cell_complex<cubical_complex<1>>);
@@ -368,3 +370,5 @@ TEST_CASE("memory: bytes per grid position") {
   CHECK(per_position < 0.2);  // the layout: 1 bit + a 64-bit count per 512 bits + samples
   CHECK(lacuna::euler_characteristic(c) == octant_euler_3d(v, n));
 }
+
+}  // namespace cubical_cubical_complex_test

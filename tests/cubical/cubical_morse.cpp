@@ -29,6 +29,8 @@
 #include <random>
 #include <vector>
 
+namespace cubical_cubical_morse_test {
+
 namespace {
 
 using lacuna::integer;
@@ -190,3 +192,5 @@ TEST_CASE("pre_reduction::morse in the engine: same groups, generators that pass
           lacuna_test::groups_of(lacuna::cohomology<integer>(v)));
   }
 }
+
+}  // namespace cubical_cubical_morse_test

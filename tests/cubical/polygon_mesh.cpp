@@ -9,6 +9,8 @@
 #include <string>
 #include <vector>
 
+namespace cubical_polygon_mesh_test {
+
 using lacuna::polygon_mesh;
 
 static_assert(lacuna::complex_with_coboundary<polygon_mesh>);
@@ -138,3 +140,5 @@ TEST_CASE("degenerate faces are errors naming the face") {
   // a polygon pinched at one vertex is allowed: 0 1 2 0 3 4
   CHECK(message(5, {{0, 1, 2, 0, 3, 4}}) == "no error");
 }
+
+}  // namespace cubical_polygon_mesh_test

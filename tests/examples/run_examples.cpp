@@ -15,6 +15,8 @@
 #include <cstdio>
 #include <string>
 
+namespace examples_run_examples_test {
+
 namespace {
 
 struct run_result {
@@ -87,3 +89,5 @@ TEST_CASE("examples/persistence_walkthrough prints what docs/persistence.md show
         "  H_2:\n"
         "all checks passed\n");
 }
+
+}  // namespace examples_run_examples_test

@@ -30,6 +30,8 @@
 #include <utility>
 #include <vector>
 
+namespace homology_big_coefficients_test {
+
 using namespace lacuna_test;
 using boost::multiprecision::cpp_int;
 using lacuna::cell_list;
@@ -176,3 +178,5 @@ TEST_CASE("other complexes: int64 sums beyond int64, and integer coefficients of
   CHECK(out.str() == "0 e0_0\n1 e1_0 : 0\n2 e2_0 : " + (cpp_int(1) << 100).str() + "*e1_0\n");
   CHECK(variants<integer>(read(out.str())) == variants<integer>(user::exact{}));
 }
+
+}  // namespace homology_big_coefficients_test

@@ -9,6 +9,8 @@
 
 #include <boost/multiprecision/cpp_int.hpp>
 
+namespace homology_big_numbers_test {
+
 using namespace lacuna_test;
 using boost::multiprecision::cpp_int;
 using lacuna::cell_list;
@@ -119,3 +121,5 @@ TEST_CASE("2x2 relation matrices near 2^62: d_1 = gcd of entries, d_1 d_2 = |det
     CHECK(all_variants<integer>(c) == std::vector<group>{{1, {}}, {0, want}, {0, {}}});
   }
 }
+
+}  // namespace homology_big_numbers_test

@@ -40,6 +40,8 @@
 #include <utility>
 #include <vector>
 
+namespace homology_clique_homology_test {
+
 using lacuna::integer;
 using lacuna_test::group;
 using lacuna_test::groups_of;
@@ -486,3 +488,5 @@ TEST_CASE("errors") {
   stopped.reduction = lacuna::clique_reduction::dominated_edges;
   CHECK_THROWS_AS(lacuna::clique_homology<integer>(tri, 2, stopped), lacuna::computation_stopped);
 }
+
+}  // namespace homology_clique_homology_test

@@ -11,6 +11,8 @@
 
 #include <random>
 
+namespace homology_derived_test {
+
 using namespace lacuna_test;
 using lacuna::cell_list;
 using lacuna::integer;
@@ -232,3 +234,5 @@ TEST_CASE("one space, several cell structures") {
   // The circle: one loop, and the boundary of a triangle.
   CHECK(all_variants<integer>(cell_list::circle()) == all_variants<integer>(simplex_boundary_sphere(1)));
 }
+
+}  // namespace homology_derived_test

@@ -4,6 +4,8 @@
 
 #include <lacuna/ring/mod_p.hpp>
 
+namespace homology_engine_issues_test {
+
 using namespace lacuna_test;
 using lacuna::cell_list;
 using lacuna::integer;
@@ -47,3 +49,5 @@ TEST_CASE("homology over mod_p_dynamic") {
   // wrong answer.
   CHECK_THROWS(lacuna::homology<lacuna::mod_p_dynamic>(rp2));
 }
+
+}  // namespace homology_engine_issues_test

@@ -32,6 +32,8 @@
 #include <string>
 #include <vector>
 
+namespace homology_morse_reduction_test {
+
 using lacuna::cell_list;
 using lacuna::integer;
 using lacuna_test::group;
@@ -375,3 +377,5 @@ TEST_CASE("Morse reduction: stop requests and progress") {
     CHECK_FALSE(m.lift(all).is_zero());
   }
 }
+
+}  // namespace homology_morse_reduction_test

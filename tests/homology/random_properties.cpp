@@ -7,9 +7,13 @@
 // cell lists and simplicial complexes.
 #include "random_properties.hpp"
 
+namespace homology_random_properties_test {
+
 using namespace random_test;
 
 TEST_CASE("random cubical volumes (seed 701)") { suite_cubical(701, 4, 4); }
 TEST_CASE("random cell lists (seed 702)") { suite_cell_lists(702, 12); }
 TEST_CASE("random simplicial complexes and pairs (seed 703)") { suite_simplicial(703, 10, 7); }
 TEST_CASE("Künneth on random products (seed 704)") { suite_kunneth(704, 10); }
+
+}  // namespace homology_random_properties_test

@@ -11,6 +11,8 @@
 
 #include <random>
 
+namespace homology_random_variants_test {
+
 using namespace lacuna_test;
 using lacuna::cell_list;
 using lacuna::integer;
@@ -55,3 +57,5 @@ TEST_CASE("random presentation complexes with torsion in two degrees") {
     everything(random_presentation(rng, 1 + trial % 7, trial % 9, 30));
   }
 }
+
+}  // namespace homology_random_variants_test

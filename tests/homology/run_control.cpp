@@ -24,6 +24,8 @@
 #include <thread>
 #include <vector>
 
+namespace homology_run_control_test {
+
 using lacuna::integer;
 using lacuna_test::group;
 
@@ -192,3 +194,5 @@ TEST_CASE("dense Smith forms take the control too") {
   };
   CHECK_THROWS_AS(lacuna::dense_smith_form(A, {.control = &control}), lacuna::computation_stopped);
 }
+
+}  // namespace homology_run_control_test

@@ -6,6 +6,8 @@
 #include <lacuna/ring/z2.hpp>
 #include <iostream>
 
+namespace homology_smoke_test {
+
 using namespace lacuna;
 
 template <class R, class A>
@@ -34,3 +36,5 @@ TEST_CASE("smoke") {
     if (pass == 0) run(sparse_elimination{}); else run(dense_elimination{});
   }
 }
+
+}  // namespace homology_smoke_test

@@ -7,6 +7,8 @@
 #include <lacuna/ring/rational.hpp>
 #include <lacuna/ring/z2.hpp>
 
+namespace homology_textbook_test {
+
 using namespace lacuna_test;
 using lacuna::cell_list;
 using lacuna::integer;
@@ -175,3 +177,5 @@ TEST_CASE("wedges of torsion: RP^2 and a lens space side by side") {
   // Z/2 + Z/2 + Z/3 = Z/2 + Z/6 in invariant factors.
   CHECK(all_variants<integer>(c) == std::vector<group>{Z(1), Z(0, {"2", "6"}), Z(0)});
 }
+
+}  // namespace homology_textbook_test

@@ -9,6 +9,8 @@
 
 #include <random>
 
+namespace homology_threads_test {
+
 using namespace lacuna_test;
 
 namespace {
@@ -42,3 +44,5 @@ TEST_CASE("two threads give the same groups and generators") {
   const auto h = lacuna::homology<integer>(vol, {.threads = 2});
   CHECK(h.groups.size() == 4);
 }
+
+}  // namespace homology_threads_test

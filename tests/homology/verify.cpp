@@ -6,6 +6,8 @@
 #include <lacuna/ring/mod_p.hpp>
 #include <lacuna/ring/z2.hpp>
 
+namespace homology_verify_test {
+
 using namespace lacuna_test;
 using lacuna::cell_list;
 using lacuna::integer;
@@ -112,3 +114,5 @@ TEST_CASE("verify_generators rejects a cochain that is not a cocycle") {
   CHECK(!rep.ok);
   CHECK(rep.first_failure.find("cocycle") != std::string::npos);
 }
+
+}  // namespace homology_verify_test

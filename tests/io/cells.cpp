@@ -17,6 +17,8 @@
 #include <string>
 #include <vector>
 
+namespace io_cells_test {
+
 using test_support::counts;
 
 namespace {
@@ -227,3 +229,5 @@ TEST_CASE("round trip of coefficients beyond int64") {
         "3 t : 36893488147419103233*r + 128*s\n");
   CHECK(parse(out.str()) == c);
 }
+
+}  // namespace io_cells_test

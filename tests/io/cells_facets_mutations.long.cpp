@@ -17,6 +17,8 @@
 #include <string>
 #include <vector>
 
+namespace io_cells_facets_mutations_test {
+
 namespace {
 std::string slurp(const std::filesystem::path& p) {
   std::ifstream in(p, std::ios::binary);
@@ -68,3 +70,5 @@ TEST_CASE("mutated inputs give a valid complex or a parse_error with the file na
   CHECK(ok > 0);  // the mutations are not all fatal ...
   CHECK(errors > 0);  // ... nor all harmless
 }
+
+}  // namespace io_cells_facets_mutations_test

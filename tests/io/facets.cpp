@@ -12,6 +12,8 @@
 #include <string>
 #include <vector>
 
+namespace io_facets_test {
+
 using test_support::counts;
 
 namespace {
@@ -163,3 +165,5 @@ TEST_CASE("the writer refuses labels it cannot write") {
                        "write_facets: the label of vertex 0 ('a b') is empty or holds whitespace or '#'",
                        lacuna::invalid_complex);
 }
+
+}  // namespace io_facets_test

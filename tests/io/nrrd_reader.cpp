@@ -40,6 +40,8 @@ void* operator new(std::size_t n, const std::nothrow_t&) noexcept {
 void operator delete(void* p, const std::nothrow_t&) noexcept { std::free(p); }
 #pragma GCC diagnostic pop
 
+namespace io_nrrd_reader_test {
+
 namespace {
 
 const std::string data = std::string(LACUNA_TEST_DATA_DIR) + "/image/";
@@ -285,3 +287,5 @@ TEST_CASE("NRRD: damaged inputs give a result or a parse_error, nothing else") {
     CHECK(errors > 0);  // the damage is noticed at least sometimes
   }
 }
+
+}  // namespace io_nrrd_reader_test

@@ -11,6 +11,8 @@
 #include <sstream>
 #include <string>
 
+namespace io_obj_reader_test {
+
 namespace {
 
 const std::string data = std::string(LACUNA_TEST_DATA_DIR) + "/mesh/";
@@ -130,3 +132,5 @@ TEST_CASE("OBJ: damaged inputs give a result or a parse_error, nothing else") {
     CHECK(errors > 0);  // the damage is noticed at least sometimes
   }
 }
+
+}  // namespace io_obj_reader_test

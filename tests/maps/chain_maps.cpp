@@ -14,6 +14,8 @@
 #include <cstdint>
 #include <vector>
 
+namespace maps_chain_maps_test {
+
 using lacuna::simplicial_complex;
 
 TEST_CASE("a vertex map gives signs and zeros by hand") {
@@ -91,3 +93,5 @@ TEST_CASE("a broken map is caught at its first bad cell") {
   h.set(0, 0, {{7, 1}});
   CHECK_FALSE(lacuna::check_chain_map(h, S, S).ok);
 }
+
+}  // namespace maps_chain_maps_test

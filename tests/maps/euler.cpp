@@ -12,6 +12,8 @@
 #include <set>
 #include <vector>
 
+namespace maps_euler_test {
+
 using namespace maps_test;
 
 namespace {
@@ -55,3 +57,5 @@ TEST_CASE("the circle and one edge: the values on each side, by hand") {
   CHECK(r.identities[2].statement == "χ(X) = χ(A) + χ(X, A)");
   CHECK(r.identities[2].rhs == 0);  // χ(edge) = 1, χ(C, edge) = 0 - 1 = -1
 }
+
+}  // namespace maps_euler_test

@@ -26,6 +26,8 @@
 #include <string>
 #include <vector>
 
+namespace maps_induced_test {
+
 using namespace maps_test;
 using lacuna::rational;
 
@@ -148,3 +150,5 @@ TEST_CASE("torsion: the map of RP^2 onto itself is the identity on H_1 = Z/2") {
   const auto twice = lacuna::induced_maps<integer>(lacuna::sum(lacuna::identity_map{}, lacuna::identity_map{}), rp2, rp2);
   CHECK(twice[1].torsion_part()(0, 0) == integer(0));
 }
+
+}  // namespace maps_induced_test

@@ -22,6 +22,8 @@
 #include <stdexcept>
 #include <vector>
 
+namespace maps_mayer_vietoris_test {
+
 using namespace maps_test;
 
 namespace {
@@ -146,3 +148,5 @@ TEST_CASE("a broken Mayer–Vietoris map is caught") {
   const marks A2 = closure_of(X, {{0, 1}});
   CHECK_THROWS_AS(lacuna::mayer_vietoris<integer>(X, A2, B), std::invalid_argument);
 }
+
+}  // namespace maps_mayer_vietoris_test

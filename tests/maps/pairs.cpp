@@ -20,6 +20,8 @@
 #include <set>
 #include <vector>
 
+namespace maps_pairs_test {
+
 using namespace maps_test;
 
 namespace {
@@ -200,3 +202,5 @@ TEST_CASE("a map that is not well defined on torsion is caught") {
   REQUIRE(u.first_failure() != nullptr);
   CHECK(u.first_failure()->position == 2);
 }
+
+}  // namespace maps_pairs_test

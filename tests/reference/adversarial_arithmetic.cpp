@@ -25,6 +25,8 @@
 #include <random>
 #include <stdexcept>
 
+namespace reference_adversarial_arithmetic_test {
+
 using namespace flint_test;
 using lacuna::cell_list;
 using lacuna::exact_incidence;
@@ -388,3 +390,5 @@ TEST_CASE("the cellular product of incidences INT64_MIN: exact, or refused, neve
     CHECK(std::string(e.what()).find("overflow") != std::string::npos);
   }
 }
+
+}  // namespace reference_adversarial_arithmetic_test

@@ -9,6 +9,8 @@
 
 #include <flint/nmod_mat.h>
 
+namespace reference_field_rank_flint_test {
+
 using namespace field_reduction_test;
 using lacuna::bit_packed_z2;
 using lacuna::mod_p;
@@ -104,3 +106,5 @@ TEST_CASE("boundary matrices: ranks equal FLINT's") {
   const auto v = lacuna::cubical_complex<3>::from_predicate({6, 5, 4}, [&](const auto&) { return on(gen); });
   for (int k = 1; k <= 3; ++k) check_ranks(int_boundary(v, k));
 }
+
+}  // namespace reference_field_rank_flint_test

@@ -21,6 +21,8 @@
 #include <stdexcept>
 #include <vector>
 
+namespace reference_mod_p_near_2_62_test {
+
 using boost::multiprecision::cpp_int;
 using lacuna::mod_p_dynamic;
 
@@ -178,3 +180,5 @@ TEST_CASE("moduli at or above 2^62 are refused, prime or not") {
   CHECK(lacuna::mod_p_modulus_limit == two62);
   CHECK_NOTHROW(lacuna::prime_modulus{two62 - 57});
 }
+
+}  // namespace reference_mod_p_near_2_62_test

@@ -10,6 +10,8 @@
 #include <cstdint>
 #include <random>
 
+namespace reference_ring_primality_test {
+
 namespace {
 bool flint_prime(std::uint64_t n) { return n_is_prime(static_cast<ulong>(n)) != 0; }
 }  // namespace
@@ -42,3 +44,5 @@ TEST_CASE("is_prime agrees with FLINT near powers of two and at random") {
   for (std::uint64_t p : ps)
     for (std::uint64_t q : ps) CHECK(lacuna::is_prime(p * q) == flint_prime(p * q));
 }
+
+}  // namespace reference_ring_primality_test

@@ -17,6 +17,8 @@
 
 #include <random>
 
+namespace reference_smith_flint_test {
+
 using namespace lacuna_test;
 using lacuna::cell_list;
 using lacuna::integer;
@@ -232,3 +234,5 @@ TEST_CASE("adversarial growth: entries near 2^62, intermediates beyond 64 bits")
   }
   check_matrix(chain, 5, 5);
 }
+
+}  // namespace reference_smith_flint_test

@@ -8,6 +8,8 @@
 
 #include <sstream>
 
+namespace regression_facets_include_order_test {
+
 TEST_CASE("io/facets.hpp compiles after io/read_limits.hpp and round-trips") {
   std::istringstream in("a b c\n");
   const auto c = lacuna::io::read_facets(in, "t.facets");
@@ -16,3 +18,5 @@ TEST_CASE("io/facets.hpp compiles after io/read_limits.hpp and round-trips") {
   std::istringstream back(out.str());
   CHECK(lacuna::io::read_facets(back, "u.facets").cell_count(2) == 1);
 }
+
+}  // namespace regression_facets_include_order_test

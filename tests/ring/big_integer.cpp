@@ -8,6 +8,8 @@
 #include <random>
 #include <stdexcept>
 
+namespace ring_big_integer_test {
+
 using lacuna::big_integer;
 using boost::multiprecision::cpp_int;
 
@@ -36,3 +38,5 @@ TEST_CASE("big_integer arithmetic is cpp_int arithmetic") {
 TEST_CASE("big_integer: ring conformance suite") {
   ring_test::check_euclidean_domain<big_integer>(random_big, 300);
 }
+
+}  // namespace ring_big_integer_test

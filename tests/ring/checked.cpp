@@ -10,6 +10,8 @@
 #include <random>
 #include <vector>
 
+namespace ring_checked_test {
+
 using boost::multiprecision::cpp_int;
 namespace {
 constexpr std::int64_t lo = std::numeric_limits<std::int64_t>::min();
@@ -81,3 +83,5 @@ TEST_CASE("the exact boundaries, from memory: INT64_MAX = 2^63 - 1") {
   CHECK_FALSE(lacuna::checked_neg(lo + 1, r));
   CHECK(r == hi);
 }
+
+}  // namespace ring_checked_test

@@ -6,6 +6,8 @@
 #include <cstdint>
 #include <string>
 
+namespace ring_concepts_test {
+
 using namespace lacuna;
 
 // The provided rings.
@@ -63,8 +65,10 @@ struct ring_like {
   ring_like& operator*=(ring_like b) { v *= b.v; return *this; }
 };
 }  // namespace probe
+}  // namespace ring_concepts_test
 template <>
-inline constexpr bool lacuna::enable_exact_ring<probe::ring_like<true>> = true;
+inline constexpr bool lacuna::enable_exact_ring<ring_concepts_test::probe::ring_like<true>> = true;
+namespace ring_concepts_test {
 static_assert(!commutative_ring<probe::ring_like<false>>);
 static_assert(commutative_ring<probe::ring_like<true>>);
 static_assert(!euclidean_domain<probe::ring_like<true>>);  // no division with remainder
@@ -78,3 +82,5 @@ TEST_CASE("zero and one of every provided ring") {
   CHECK(one<rational>() == rational(1));
   CHECK(zero<mod_p_dynamic>().is_bound() == false);
 }
+
+}  // namespace ring_concepts_test

@@ -12,6 +12,8 @@
 #include <cstdint>
 #include <random>
 
+namespace ring_euclid_test {
+
 using boost::multiprecision::cpp_int;
 
 // ---- the archetype ----------------------------------------------------------------------
@@ -45,9 +47,10 @@ class euclidean_archetype {
 };
 }  // namespace archetype
 
+}  // namespace ring_euclid_test
 template <>
-struct lacuna::ring_traits<archetype::euclidean_archetype> {
-  using A = archetype::euclidean_archetype;
+struct lacuna::ring_traits<ring_euclid_test::archetype::euclidean_archetype> {
+  using A = ring_euclid_test::archetype::euclidean_archetype;
   static constexpr bool is_exact = true;
   static A from_integer(std::int64_t n) { return A::make(n); }
   static div_rem_result<A> div_rem(const A& a, const A& b) {
@@ -57,6 +60,7 @@ struct lacuna::ring_traits<archetype::euclidean_archetype> {
   static std::int64_t euclidean_size(const A& a) { return a.peek() < 0 ? -a.peek() : a.peek(); }
   static A normalize(const A& a) { return A::make(a.peek() < 0 ? -a.peek() : a.peek()); }
 };
+namespace ring_euclid_test {
 
 static_assert(lacuna::euclidean_domain<archetype::euclidean_archetype>);
 static_assert(!lacuna::field<archetype::euclidean_archetype>);
@@ -96,9 +100,10 @@ struct fixnum {
 }  // namespace third_party
 
 // The adaptation, entirely outside third_party.
+}  // namespace ring_euclid_test
 template <>
-struct lacuna::ring_traits<third_party::fixnum> {
-  using F = third_party::fixnum;
+struct lacuna::ring_traits<ring_euclid_test::third_party::fixnum> {
+  using F = ring_euclid_test::third_party::fixnum;
   static constexpr bool is_exact = true;  // the user vouches for the range of their values
   static F from_integer(std::int64_t n) { return {n}; }
   static div_rem_result<F> div_rem(F a, F b) {
@@ -112,6 +117,7 @@ struct lacuna::ring_traits<third_party::fixnum> {
   static unsigned long long euclidean_size(F a) { return a.value < 0 ? -static_cast<unsigned long long>(a.value) : a.value; }
   static F normalize(F a) { return {a.value < 0 ? -a.value : a.value}; }
 };
+namespace ring_euclid_test {
 
 static_assert(lacuna::euclidean_domain<third_party::fixnum>);
 
@@ -157,3 +163,5 @@ TEST_CASE("gcd and extended_gcd over lacuna::integer with values beyond 64 bits 
   CHECK(lacuna::gcd(integer(-48), integer(180)) == integer(12));
   CHECK(lacuna::gcd(integer(0), integer(-7)) == integer(7));
 }
+
+}  // namespace ring_euclid_test

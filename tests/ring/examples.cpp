@@ -9,6 +9,8 @@
 
 #include <random>
 
+namespace ring_examples_test {
+
 using lacuna_examples::gaussian_integer;
 using poly7 = lacuna_examples::polynomial_mod_p<7>;
 using poly2 = lacuna_examples::polynomial_mod_p<2>;
@@ -69,3 +71,5 @@ TEST_CASE("polynomials over Z/7 and Z/2: conformance suite") {
   ring_test::check_euclidean_domain<poly7>(random_poly<poly7>, 300);
   ring_test::check_euclidean_domain<poly2>(random_poly<poly2>, 300);
 }
+
+}  // namespace ring_examples_test

@@ -15,6 +15,8 @@
 #include <unordered_set>
 #include <vector>
 
+namespace ring_integer_test {
+
 using lacuna::integer;
 using boost::multiprecision::cpp_int;
 
@@ -183,3 +185,5 @@ TEST_CASE("integer's Euclidean structure") {
 TEST_CASE("integer: ring conformance suite") {
   ring_test::check_euclidean_domain<integer>(random_integer, 400);
 }
+
+}  // namespace ring_integer_test

@@ -11,6 +11,8 @@
 #include <cstdlib>
 #include <new>
 
+namespace ring_integer_alloc_test {
+
 using lacuna_test::allocations;
 
 TEST_CASE("64-bit arithmetic on lacuna::integer does not allocate") {
@@ -32,3 +34,5 @@ TEST_CASE("64-bit arithmetic on lacuna::integer does not allocate") {
   CHECK(allocations.load() > before);  // the big path does allocate
   CHECK_FALSE(big.is_small());
 }
+
+}  // namespace ring_integer_alloc_test

@@ -14,6 +14,8 @@
 #include <random>
 #include <stdexcept>
 
+namespace ring_mod_p_test {
+
 using boost::multiprecision::cpp_int;
 
 namespace {
@@ -85,3 +87,5 @@ TEST_CASE("small fields by hand, from memory") {
   static_assert((big * big).value() == 1);  // (-1)^2 at compile time, through 128 bits
   CHECK(lacuna::mod_p<m61>(-1).inverse() == lacuna::mod_p<m61>(-1));
 }
+
+}  // namespace ring_mod_p_test

@@ -12,6 +12,8 @@
 #include <random>
 #include <stdexcept>
 
+namespace ring_mod_p_dynamic_test {
+
 using lacuna::mod_p_dynamic;
 using boost::multiprecision::cpp_int;
 
@@ -101,3 +103,5 @@ TEST_CASE("mod_p_dynamic: field conformance suite (bound) and ring suite (mixed 
   ring_test::check_commutative_ring<mod_p_dynamic>(mixed_gen{p62}, 300);
   ring_test::check_commutative_ring<mod_p_dynamic>(mixed_gen{5}, 300);
 }
+
+}  // namespace ring_mod_p_dynamic_test

@@ -8,6 +8,8 @@
 
 #include <cstdint>
 
+namespace ring_primality_test {
+
 namespace {
 bool trial_division(std::uint64_t n) {
   if (n < 2) return false;
@@ -54,3 +56,5 @@ TEST_CASE("composites that fool weaker tests") {
   CHECK_FALSE(lacuna::is_prime(41 * 41));
   CHECK_FALSE(lacuna::is_prime(37 * 37));
 }
+
+}  // namespace ring_primality_test

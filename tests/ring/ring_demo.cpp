@@ -6,6 +6,8 @@
 #include <cstdlib>
 #include <string>
 
+namespace ring_ring_demo_test {
+
 TEST_CASE("examples/ring_demo passes its self-checks") {
   const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/ring_demo";
   FILE* out = popen(cmd.c_str(), "r");
@@ -19,3 +21,5 @@ TEST_CASE("examples/ring_demo passes its self-checks") {
   CHECK(text.find("all self-checks passed") != std::string::npos);
   CHECK(text.find("1000000009 = 31400^2 + 3747^2") != std::string::npos);  // 985960000 + 14040009
 }
+
+}  // namespace ring_ring_demo_test

@@ -9,6 +9,8 @@
 #include <random>
 #include <stdexcept>
 
+namespace ring_z2_rational_test {
+
 using lacuna::rational;
 using lacuna::z2;
 using boost::multiprecision::cpp_int;
@@ -56,3 +58,5 @@ TEST_CASE("rational: field conformance suite") {
       },
       200);
 }
+
+}  // namespace ring_z2_rational_test
