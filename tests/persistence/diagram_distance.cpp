@@ -287,3 +287,14 @@ TEST_CASE("diagram distances: metric properties and bottleneck <= W_p <= N^(1/p)
     CHECK(close(witness_cost(a, b, mw, 2), mw.cost));
   }
 }
+
+TEST_CASE("diagram distances: the example of docs/persistence-io.md") {
+  using namespace diagram_distance_test;
+  const diagram a = {{0, 1}, {0, inf}}, b = {{0, 1.5}, {0.5, inf}};
+  // by hand: the classes that never die differ by 0.5 in birth; (0, 1) against (0, 1.5) costs
+  // 0.5, against the diagonal 0.5 and 0.75
+  CHECK(lacuna::bottleneck_distance(a, b) == 0.5);
+  CHECK(lacuna::wasserstein_distance(a, b, {.p = 1}) == 1);
+  const auto m = lacuna::bottleneck_matching(a, b);
+  CHECK(m.partner_of_a == std::vector<std::size_t>{0, 1});
+}
