@@ -24,8 +24,10 @@
 //                          and reduced only when a sum could overflow or a low is read.
 // Both fast variants take dense_threshold: a working column switches to the dense form once
 // it and the column added to it have more entries than this (0: automatic).
+// field_reduction_options::control takes a stop request and a progress callback (run_control).
 #pragma once
 
+#include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/mod_p.hpp>
@@ -38,6 +40,7 @@
 #include <cstdint>
 #include <limits>
 #include <string>
+#include <string_view>
 #include <stdexcept>
 #include <type_traits>
 #include <utility>
@@ -78,10 +81,14 @@ concept field_reduction_algorithm_for =
 
 // ---- options and result -----------------------------------------------------------------
 
-/// What reduce_columns keeps besides the rank and the pivots.
+/// What reduce_columns keeps besides the rank and the pivots, and how it reports.
 struct field_reduction_options {
   bool kernel = false;  ///< a kernel basis (records the column operations)
   bool image = false;   ///< an image basis (the reduced pivot columns)
+  /// A stop request and a progress callback (lacuna/chain/run_control.hpp), looked at every
+  /// few thousand columns; null: none. A stopped reduction throws computation_stopped.
+  const run_control* control = nullptr;
+  std::string_view phase = "reducing columns";  ///< the phase named in progress reports (units: columns)
 };
 
 /// A pivot of the reduction: the reduced column `column` has its lowest non-zero in `row`.
@@ -333,7 +340,9 @@ field_reduction_result<F> reduce_values(const sparse_matrix<F>& A, const Ops& op
     return v;
   };
 
+  progress_ticker tick(opt.control, opt.phase, A.cols);
   for (std::uint32_t j = 0; j < A.cols; ++j) {
+    tick();
     if (skip && (*skip)[j]) {
       if (opt.kernel) out.kernel.push_back(known_kernel(j));
       continue;
@@ -396,6 +405,7 @@ field_reduction_result<F> reduce_values(const sparse_matrix<F>& A, const Ops& op
     st.reduced.push_back(col);
     if (opt.kernel) st.ops_of_pivot.push_back(vcol);
   }
+  tick.finish();
   out.rank = out.pivots.size();
   if (opt.image)
     for (const auto& c : st.reduced) out.image.push_back(to_vector(c));
@@ -469,7 +479,9 @@ field_reduction_result<z2> reduce_z2(const sparse_matrix<z2>& A, field_reduction
     for (auto r : c) v.push_back({r, z2(1)});
     return v;
   };
+  progress_ticker tick(opt.control, opt.phase, A.cols);
   for (std::uint32_t j = 0; j < A.cols; ++j) {
+    tick();
     if (skip && (*skip)[j]) {
       if (opt.kernel) out.kernel.push_back(known_kernel(j));
       continue;
@@ -506,6 +518,7 @@ field_reduction_result<z2> reduce_z2(const sparse_matrix<z2>& A, field_reduction
     reduced.push_back(col);
     if (opt.kernel) ops_of_pivot.push_back(vcol);
   }
+  tick.finish();
   out.rank = out.pivots.size();
   if (opt.image)
     for (const auto& c : reduced) out.image.push_back(to_vector(c));
@@ -585,6 +598,32 @@ std::size_t field_rank(const sparse_matrix<F>& A, const Algorithm& algorithm = {
   return reduce_columns(A, {}, algorithm).rank;
 }
 
+/// One step of reduce_chain_complex, for callers that build their matrices one at a time:
+/// reduces A with clearing (Chen & Kerber 2011) by `above`, the reduction of the matrix
+/// above A in a chain complex (its rows are A's columns, and it composes with A to zero — a
+/// precondition that is not checked). A column of A that is the low of a pivot of `above`
+/// is skipped without being read (it may be left empty); with options.kernel its kernel
+/// vector is that pivot's reduced column, so `above` must then hold its image.
+/// Throws std::invalid_argument if the sizes do not compose.
+template <field F, class Algorithm = automatic_reduction>
+  requires field_reduction_algorithm_for<Algorithm, F>
+field_reduction_result<F> reduce_columns_after(const sparse_matrix<F>& A, const field_reduction_result<F>& above,
+                                               field_reduction_options options = {}, const Algorithm& algorithm = {}) {
+  if (above.rows != A.cols)
+    throw std::invalid_argument("lacuna::reduce_columns_after: the matrix above has " + std::to_string(above.rows) +
+                                " rows, this one " + std::to_string(A.cols) + " columns");
+  if (options.kernel && above.image.size() != above.pivots.size())
+    throw std::invalid_argument("lacuna::reduce_columns_after: kernels need the image of the matrix above");
+  std::vector<bool> skip(A.cols, false);
+  std::vector<std::int64_t> image_of(A.cols, -1);
+  for (std::size_t s = 0; s < above.pivots.size(); ++s) {
+    skip[above.pivots[s].row] = true;
+    image_of[above.pivots[s].row] = static_cast<std::int64_t>(s);
+  }
+  return detail::field_red::reduce<F>(A, options, algorithm, &skip,
+                                      [&](std::uint32_t j) { return above.image[static_cast<std::size_t>(image_of[j])]; });
+}
+
 /// Reduces the boundary matrices of a chain complex with clearing (Chen & Kerber 2011).
 /// boundaries[i] maps C_{i+1} to C_i in the caller's numbering; consecutive matrices must
 /// compose (boundaries[i].cols == boundaries[i+1].rows) to zero — a precondition that is
@@ -610,15 +649,7 @@ std::vector<field_reduction_result<F>> reduce_chain_complex(const std::vector<sp
       out[t] = detail::field_red::reduce<F>(boundaries[t], o, algorithm, nullptr,
                                             [](std::uint32_t) -> sparse_vector<F> { return {}; });
     } else {
-      const auto& above = out[t + 1];
-      std::vector<bool> skip(boundaries[t].cols, false);
-      std::vector<std::int64_t> image_of(boundaries[t].cols, -1);
-      for (std::size_t s = 0; s < above.pivots.size(); ++s) {
-        skip[above.pivots[s].row] = true;
-        image_of[above.pivots[s].row] = static_cast<std::int64_t>(s);
-      }
-      out[t] = detail::field_red::reduce<F>(boundaries[t], o, algorithm, &skip,
-                                            [&](std::uint32_t j) { return above.image[static_cast<std::size_t>(image_of[j])]; });
+      out[t] = reduce_columns_after(boundaries[t], out[t + 1], o, algorithm);
     }
     if (t + 1 < n && !options.image) out[t + 1].image.clear();
   }

@@ -213,21 +213,23 @@ class cell_list {
   /// lacuna::validate).
   std::size_t add_cell(int k, std::string name, std::vector<incidence> boundary_terms) {
     auto& d = prepare(k, name);
+    const std::vector<std::size_t> written = written_faces(boundary_terms);
     if (!detail::normalize_chain_if_fits(boundary_terms) || d.exact) {  // a sum beyond int64: exactly
       std::vector<exact_incidence> exact;
       exact.reserve(boundary_terms.size());
       for (const auto& t : boundary_terms) exact.push_back({t.face, integer(t.coefficient)});
-      return add_exact(k, std::move(name), std::move(exact));
+      return add_exact(k, std::move(name), std::move(exact), written);
     }
     check_faces(k, name, boundary_terms);
     d.terms.insert(d.terms.end(), boundary_terms.begin(), boundary_terms.end());
-    return finish(d, std::move(name));
+    return finish(k, std::move(name), written);
   }
   /// The same with exact coefficients of any size. The terms are stored as int64 while every
   /// coefficient of the dimension fits.
   std::size_t add_cell(int k, std::string name, std::vector<exact_incidence> boundary_terms) {
     prepare(k, name);
-    return add_exact(k, std::move(name), std::move(boundary_terms));
+    const std::vector<std::size_t> written = written_faces(boundary_terms);
+    return add_exact(k, std::move(name), std::move(boundary_terms), written);
   }
   std::size_t add_cell(int k, std::string name, std::initializer_list<incidence> boundary_terms = {}) {
     return add_cell(k, std::move(name), std::vector<incidence>(boundary_terms));
@@ -244,6 +246,20 @@ class cell_list {
       dims_[uk].terms.reserve(terms);
   }
 
+  /// The faces of the i-th k-cell as its boundary was written, increasing: those of
+  /// boundary(k, i) and those whose coefficients added up to zero (the face of
+  /// `1 q : p - p` is p). A filtration waits for them (lacuna::faces_as_written).
+  std::vector<std::size_t> faces_as_written(int k, std::size_t i) const {
+    std::vector<std::size_t> out;
+    for (const auto& t : boundary(k, i)) out.push_back(t.face);
+    const auto& c = dims_[static_cast<std::size_t>(k)].cancelled;
+    auto it = std::lower_bound(c.begin(), c.end(), std::pair<std::size_t, std::size_t>{i, 0});
+    const std::size_t n = out.size();
+    for (; it != c.end() && it->first == i; ++it) out.push_back(it->second);
+    if (out.size() != n) std::inplace_merge(out.begin(), out.begin() + static_cast<std::ptrdiff_t>(n), out.end());
+    return out;
+  }
+
   /// The first cell with this name, as (dimension, index). Linear in the number of cells.
   std::optional<std::pair<int, std::size_t>> find(std::string_view name) const {
     for (std::size_t k = 0; k < dims_.size(); ++k) {
@@ -254,6 +270,8 @@ class cell_list {
     return std::nullopt;
   }
 
+  /// Equal names and boundaries (faces written with coefficients adding up to zero are not
+  /// compared).
   friend bool operator==(const cell_list& a, const cell_list& b) {
     const int top = a.top_dimension();
     if (top != b.top_dimension()) return false;
@@ -360,9 +378,23 @@ class cell_list {
     std::vector<incidence> terms;              // while !exact
     std::vector<exact_incidence> exact_terms;  // once a coefficient does not fit in int64
     std::vector<std::string> names;
+    // (cell, face) for the faces written in a boundary whose coefficients added up to zero,
+    // by cell: usually empty
+    std::vector<std::pair<std::size_t, std::size_t>> cancelled;
     bool exact = false;
   };
   std::vector<dimension> dims_;
+
+  /// The distinct faces of the terms, sorted.
+  template <class Terms>
+  static std::vector<std::size_t> written_faces(const Terms& terms) {
+    std::vector<std::size_t> w;
+    w.reserve(terms.size());
+    for (const auto& t : terms) w.push_back(t.face);
+    std::sort(w.begin(), w.end());
+    w.erase(std::unique(w.begin(), w.end()), w.end());
+    return w;
+  }
 
   /// The dimension record of k (created if needed), and the default name of the new cell.
   dimension& prepare(int k, std::string& name) {
@@ -385,12 +417,27 @@ class cell_list {
                                   std::to_string(cell_count(k - 1)) + " " + std::to_string(k - 1) + "-cells",
                               k, index);
   }
-  std::size_t finish(dimension& d, std::string name) {
-    d.offsets.push_back(d.exact ? d.exact_terms.size() : d.terms.size());
+  /// Closes the cell just stored in dimension k; `written` (sorted, distinct) are the faces
+  /// named in its boundary, and those that are not in the stored boundary are kept apart.
+  std::size_t finish(int k, std::string name, const std::vector<std::size_t>& written) {
+    dimension& d = dims_[static_cast<std::size_t>(k)];
+    const std::size_t begin = d.offsets.back();
+    const std::size_t end = d.exact ? d.exact_terms.size() : d.terms.size();
+    d.offsets.push_back(end);
     d.names.push_back(std::move(name));
-    return d.names.size() - 1;
+    const std::size_t i = d.names.size() - 1;
+    if (end - begin != written.size()) {  // some written faces cancelled out: both lists sorted
+      std::size_t t = begin;
+      for (std::size_t f : written) {
+        if (t < end && (d.exact ? d.exact_terms[t].face : d.terms[t].face) == f)
+          ++t;
+        else
+          d.cancelled.emplace_back(i, f);
+      }
+    }
+    return i;
   }
-  std::size_t add_exact(int k, std::string name, std::vector<exact_incidence> terms) {
+  std::size_t add_exact(int k, std::string name, std::vector<exact_incidence> terms, const std::vector<std::size_t>& written) {
     auto& d = dims_[static_cast<std::size_t>(k)];
     detail::normalize_chain(terms);
     check_faces(k, name, terms);
@@ -406,7 +453,7 @@ class cell_list {
       }
       for (auto& t : terms) d.exact_terms.push_back(std::move(t));
     }
-    return finish(d, std::move(name));
+    return finish(k, std::move(name), written);
   }
 };
 

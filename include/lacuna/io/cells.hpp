@@ -244,9 +244,9 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
       }
       if (zero_chain) terms.clear();
     }
-    // add up repeated faces exactly, then check ∂∂ = 0 exactly (lacuna::integer: 64-bit
-    // arithmetic inline while the numbers fit)
-    lacuna::detail::normalize_chain(terms);
+    // check ∂∂ = 0 exactly (lacuna::integer: 64-bit arithmetic inline while the numbers fit);
+    // add_cell adds up repeated faces, and keeps the faces whose coefficients cancel as
+    // written faces (cell_list::faces_as_written: a filtration waits for them)
     if (dim >= 2) {
       dd.clear();
       for (const auto& t : terms)
