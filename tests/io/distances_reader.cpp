@@ -16,28 +16,28 @@
 
 namespace distances_reader_test {
 
-inline lacuna::io::distance_matrix parse(const std::string& text, lacuna::io::distances_read_options o = {}) {
+inline lacuna::io::distance_matrix parse_distances(const std::string& text, lacuna::io::distances_read_options o = {}) {
   std::istringstream in(text);
   return lacuna::io::read_distances(in, "test.distances", o);
 }
 
-inline std::string error_of(const std::string& text, lacuna::io::distances_read_options o = {}) {
+inline std::string distances_error(const std::string& text, lacuna::io::distances_read_options o = {}) {
   try {
-    parse(text, o);
+    parse_distances(text, o);
   } catch (const lacuna::parse_error& e) {
     return e.what();
   }
   return "no error";
 }
 
-inline std::string data(const char* name) { return std::string(LACUNA_TEST_DATA_DIR) + "/persistence/" + name; }
+inline std::string distances_data(const char* name) { return std::string(LACUNA_TEST_DATA_DIR) + "/persistence/" + name; }
 
 }  // namespace distances_reader_test
 
 TEST_CASE("distances: the full matrix and the lower triangle give the same matrix") {
   using namespace distances_reader_test;
-  const auto t = lacuna::io::read_distances(std::filesystem::path(data("triangle4.distances")));
-  const auto f = lacuna::io::read_distances(std::filesystem::path(data("full4.distances")));
+  const auto t = lacuna::io::read_distances(std::filesystem::path(distances_data("triangle4.distances")));
+  const auto f = lacuna::io::read_distances(std::filesystem::path(distances_data("full4.distances")));
   // points at 0, 1, 3, 6: the distances |x_i - x_j| (by hand)
   const double expected[4][4] = {{0, 1, 3, 6}, {1, 0, 2, 5}, {3, 2, 0, 3}, {6, 5, 3, 0}};
   REQUIRE(t.size() == 4);
@@ -53,18 +53,18 @@ TEST_CASE("distances: the full matrix and the lower triangle give the same matri
 
 TEST_CASE("distances: small and empty matrices, separators, symmetry as read") {
   using namespace distances_reader_test;
-  CHECK(parse("").size() == 0);
-  CHECK(parse("# no rows\n\n").size() == 0);
-  CHECK(parse("0\n").size() == 1);  // one point: both forms at once
-  CHECK(parse("0 2\n2 0\n")(0, 1) == 2);
-  CHECK(parse("0\n2 0\n")(1, 0) == 2);
-  CHECK(parse("0,2\r\n2 , 0\r\n")(0, 1) == 2);
+  CHECK(parse_distances("").size() == 0);
+  CHECK(parse_distances("# no rows\n\n").size() == 0);
+  CHECK(parse_distances("0\n").size() == 1);  // one point: both forms at once
+  CHECK(parse_distances("0 2\n2 0\n")(0, 1) == 2);
+  CHECK(parse_distances("0\n2 0\n")(1, 0) == 2);
+  CHECK(parse_distances("0,2\r\n2 , 0\r\n")(0, 1) == 2);
   // equal as read: 0.5 and 0.50 are the same double, and 1e0 is 1
-  CHECK(parse("0 0.5 1\n0.50 0 1\n1e0 1 0\n")(2, 0) == 1);
+  CHECK(parse_distances("0 0.5 1\n0.50 0 1\n1e0 1 0\n")(2, 0) == 1);
   // -0 is 0, and a distance of 0 between two points is allowed
-  CHECK(parse("0 -0\n0 0\n")(0, 1) == 0);
+  CHECK(parse_distances("0 -0\n0 0\n")(0, 1) == 0);
   // the triangle form ends wherever the file ends
-  CHECK(parse("0\n1 0\n2 1 0\n3 2 1 0\n4 3 2 1 0\n").size() == 5);
+  CHECK(parse_distances("0\n1 0\n2 1 0\n3 2 1 0\n4 3 2 1 0\n").size() == 5);
 }
 
 TEST_CASE("distances: malformed files give FILE:LINE: message") {
@@ -91,38 +91,38 @@ TEST_CASE("distances: malformed files give FILE:LINE: message") {
   for (const auto& e : cases) {
     CAPTURE(e.file);
     try {
-      lacuna::io::read_distances(std::filesystem::path(data(e.file)));
+      lacuna::io::read_distances(std::filesystem::path(distances_data(e.file)));
       FAIL("must throw");
     } catch (const lacuna::parse_error& x) {
-      CHECK(x.file() == data(e.file));
+      CHECK(x.file() == distances_data(e.file));
       CHECK(x.line() == e.line);
       CHECK(x.message() == e.message);
     }
   }
-  CHECK(error_of("0\n1 0\n2 1 0\n3 0 0 0 0\n") ==
+  CHECK(distances_error("0\n1 0\n2 1 0\n3 0 0 0 0\n") ==
         "test.distances:4: row 4 holds 5 numbers, but this is a lower triangle (its first row holds one number), where "
         "row i holds i numbers");
-  CHECK(error_of("0\n1 0\n2 3 1\n") == "test.distances:3: row 3, column 3 is 1, but the diagonal must be 0");
-  CHECK(error_of("1\n") == "test.distances:1: row 1, column 1 is 1, but the diagonal must be 0");
-  CHECK(error_of("0 x\nx 0\n") ==
+  CHECK(distances_error("0\n1 0\n2 3 1\n") == "test.distances:3: row 3, column 3 is 1, but the diagonal must be 0");
+  CHECK(distances_error("1\n") == "test.distances:1: row 1, column 1 is 1, but the diagonal must be 0");
+  CHECK(distances_error("0 x\nx 0\n") ==
         "test.distances:1: row 1, column 2 'x' is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
-  CHECK(error_of("0 1e999\n1 0\n") ==
+  CHECK(distances_error("0 1e999\n1 0\n") ==
         "test.distances:1: row 1, column 2 '1e999' is too large for a double (at most about 1.8e308)");
-  CHECK(error_of("0,,1\n") ==
+  CHECK(distances_error("0,,1\n") ==
         "test.distances:1: the 2nd field is empty (two commas in a row, or a comma at the start or end of the line)");
-  CHECK(error_of("0 1\r1 0\n") ==
+  CHECK(distances_error("0 1\r1 0\n") ==
         "test.distances:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF");
-  CHECK(error_of("0 nan\nnan 0\n") ==
+  CHECK(distances_error("0 nan\nnan 0\n") ==
         "test.distances:1: row 1, column 2 'nan' is not a number (every number must be finite)");
 }
 
 TEST_CASE("distances: limits, checked before the memory they guard is taken") {
   using namespace distances_reader_test;
-  CHECK(error_of("0 1 1\n", {.max_points = 2}) ==
+  CHECK(distances_error("0 1 1\n", {.max_points = 2}) ==
         "test.distances:1: a matrix of 3 points, more than the limit of 2 (the limit of the reader)");
-  CHECK(error_of("0\n1 0\n1 1 0\n", {.max_points = 2}) ==
+  CHECK(distances_error("0\n1 0\n1 1 0\n", {.max_points = 2}) ==
         "test.distances:3: a matrix of 3 points, more than the limit of 2 (the limit of the reader)");
-  CHECK(error_of("0 1 1 1\n", {.max_numbers = 5}) ==
+  CHECK(distances_error("0 1 1 1\n", {.max_numbers = 5}) ==
         "test.distances:1: a matrix of 4 points has 6 entries below the diagonal, more than the limit of 5 (the limit "
         "of the reader)");
   // an endless first row stops at the line limit

@@ -16,12 +16,12 @@
 #include <vector>
 
 namespace image_samples_test {
-inline std::string data(const char* name) { return std::string(LACUNA_TEST_DATA_DIR) + "/image/" + name; }
+inline std::string samples_data(const char* name) { return std::string(LACUNA_TEST_DATA_DIR) + "/image/" + name; }
 }  // namespace image_samples_test
 
 TEST_CASE("samples of PGM and PBM images") {
   using namespace image_samples_test;
-  const auto [extents, samples] = lacuna::io::read_netpbm_samples(std::filesystem::path(data("gradient.pgm")));
+  const auto [extents, samples] = lacuna::io::read_netpbm_samples(std::filesystem::path(samples_data("gradient.pgm")));
   CHECK(extents == std::array<std::size_t, 2>{5, 2});
   CHECK(samples == std::vector<std::int32_t>{0, 1, 2, 3, 4, 5, 6, 7, 8, 9});  // as written in the file
   // P5 with 16-bit big-endian samples: 0x0102 = 258 and 0xFFFF = 65535
@@ -31,14 +31,14 @@ TEST_CASE("samples of PGM and PBM images") {
   std::istringstream p1("P1 3 1\n1 0 1\n");
   CHECK(lacuna::io::read_netpbm_samples(p1, "p1.pbm").second == std::vector<std::int32_t>{1, 0, 1});
   // the errors of the complex reader
-  CHECK_THROWS_AS(lacuna::io::read_netpbm_samples(std::filesystem::path(data("truncated.pgm"))), lacuna::parse_error);
-  CHECK_THROWS_AS(lacuna::io::read_netpbm_samples(std::filesystem::path(data("sample_above_maxval.pgm"))),
+  CHECK_THROWS_AS(lacuna::io::read_netpbm_samples(std::filesystem::path(samples_data("truncated.pgm"))), lacuna::parse_error);
+  CHECK_THROWS_AS(lacuna::io::read_netpbm_samples(std::filesystem::path(samples_data("sample_above_maxval.pgm"))),
                   lacuna::parse_error);
 }
 
 TEST_CASE("samples of NRRD volumes") {
   using namespace image_samples_test;
-  const auto [extents, samples] = lacuna::io::read_nrrd_samples<3>(std::filesystem::path(data("hollow.nrrd")));
+  const auto [extents, samples] = lacuna::io::read_nrrd_samples<3>(std::filesystem::path(samples_data("hollow.nrrd")));
   CHECK(extents == std::array<std::size_t, 3>{3, 3, 3});
   REQUIRE(samples.size() == 27);
   CHECK(samples[13] == 0);  // the centre of the shell
@@ -50,5 +50,5 @@ TEST_CASE("samples of NRRD volumes") {
   const auto [e2, s2] = lacuna::io::read_nrrd_samples<3>(v, "v.nrrd");
   CHECK(e2 == std::array<std::size_t, 3>{2, 1, 1});
   CHECK(s2 == std::vector<std::int32_t>{-2, 300});
-  CHECK_THROWS_AS(lacuna::io::read_nrrd_samples<3>(std::filesystem::path(data("truncated.nrrd"))), lacuna::parse_error);
+  CHECK_THROWS_AS(lacuna::io::read_nrrd_samples<3>(std::filesystem::path(samples_data("truncated.nrrd"))), lacuna::parse_error);
 }

@@ -19,18 +19,18 @@
 
 namespace values_reader_test {
 
-inline std::string data(const char* dir, const char* name) {
+inline std::string values_data(const char* dir, const char* name) {
   return std::string(LACUNA_TEST_DATA_DIR) + "/" + dir + "/" + name;
 }
 
-inline lacuna::io::value_list parse(const std::string& text, lacuna::io::values_read_options o = {}) {
+inline lacuna::io::value_list parse_values(const std::string& text, lacuna::io::values_read_options o = {}) {
   std::istringstream in(text);
   return lacuna::io::read_values(in, "test.values", o);
 }
 
-inline std::string error_of(const std::string& text, lacuna::io::values_read_options o = {}) {
+inline std::string values_error(const std::string& text, lacuna::io::values_read_options o = {}) {
   try {
-    parse(text, o);
+    parse_values(text, o);
   } catch (const lacuna::parse_error& e) {
     return e.what();
   }
@@ -38,18 +38,18 @@ inline std::string error_of(const std::string& text, lacuna::io::values_read_opt
 }
 
 inline const lacuna::simplicial_complex<std::string>& triangle() {
-  static const auto c = lacuna::io::read_facets(std::filesystem::path(data("cli", "hollow_triangle.facets")));
+  static const auto c = lacuna::io::read_facets(std::filesystem::path(values_data("cli", "hollow_triangle.facets")));
   return c;
 }
 inline const lacuna::cell_list& plane() {
-  static const auto c = lacuna::io::read_cells(std::filesystem::path(data("cli", "projective_plane.cells")));
+  static const auto c = lacuna::io::read_cells(std::filesystem::path(values_data("cli", "projective_plane.cells")));
   return c;
 }
 
 /// The error of resolving `text` (a value file) against the hollow triangle.
 inline std::string simplex_error(const std::string& text) {
   try {
-    lacuna::io::resolve_values(parse(text, {.names = lacuna::io::value_names::simplex}), triangle(), "tri.facets");
+    lacuna::io::resolve_values(parse_values(text, {.names = lacuna::io::value_names::simplex}), triangle(), "tri.facets");
   } catch (const lacuna::parse_error& e) {
     return e.what();
   }
@@ -57,7 +57,7 @@ inline std::string simplex_error(const std::string& text) {
 }
 inline std::string cell_error(const std::string& text) {
   try {
-    lacuna::io::resolve_values(parse(text), plane(), "rp2.cells");
+    lacuna::io::resolve_values(parse_values(text), plane(), "rp2.cells");
   } catch (const lacuna::parse_error& e) {
     return e.what();
   }
@@ -68,9 +68,9 @@ inline std::string cell_error(const std::string& text) {
 
 TEST_CASE("values: a cell list's values, resolved by name") {
   using namespace values_reader_test;
-  const auto list = lacuna::io::read_values(std::filesystem::path(data("persistence", "projective_plane.values")));
+  const auto list = lacuna::io::read_values(std::filesystem::path(values_data("persistence", "projective_plane.values")));
   REQUIRE(list.size() == 3);
-  CHECK(list.file() == data("persistence", "projective_plane.values"));
+  CHECK(list.file() == values_data("persistence", "projective_plane.values"));
   CHECK(list.name(2, 0) == "r");
   CHECK(list.value(2) == 2.5);
   CHECK(list.line(0) == 2);
@@ -84,7 +84,7 @@ TEST_CASE("values: a cell list's values, resolved by name") {
 
 TEST_CASE("values: a facet list's values, labels in any order") {
   using namespace values_reader_test;
-  const auto list = lacuna::io::read_values(std::filesystem::path(data("persistence", "triangle.values")),
+  const auto list = lacuna::io::read_values(std::filesystem::path(values_data("persistence", "triangle.values")),
                                             {.names = lacuna::io::value_names::simplex});
   REQUIRE(list.size() == 4);
   CHECK(list.name_count(3) == 2);
@@ -97,55 +97,55 @@ TEST_CASE("values: a facet list's values, labels in any order") {
   CHECK(v[3].value == 2);
   CHECK(triangle().cell_name(0, v[2].index) == "z");
   // blanks and tabs separate; comments, blank lines, CRLF
-  const auto w = parse("\r\n# c\r\n x\ty   0.5 # c\r\n", {.names = lacuna::io::value_names::simplex});
+  const auto w = parse_values("\r\n# c\r\n x\ty   0.5 # c\r\n", {.names = lacuna::io::value_names::simplex});
   CHECK(w.size() == 1);
   CHECK(w.line(0) == 3);
   CHECK(w.value(0) == 0.5);
-  CHECK(parse("").empty());
+  CHECK(parse_values("").empty());
 }
 
 TEST_CASE("values: errors of the file alone, at their line") {
   using namespace values_reader_test;
   try {
-    lacuna::io::read_values(std::filesystem::path(data("persistence", "values_no_value.values")));
+    lacuna::io::read_values(std::filesystem::path(values_data("persistence", "values_no_value.values")));
     FAIL("must throw");
   } catch (const lacuna::parse_error& e) {
-    CHECK(e.file() == data("persistence", "values_no_value.values"));
+    CHECK(e.file() == values_data("persistence", "values_no_value.values"));
     CHECK(e.line() == 2);
     CHECK(e.message() == "no value after 'q': write the name of the cell, then its value");
   }
-  CHECK(error_of("0.5\n") == "test.values:1: a value with no cell before it: write the name of the cell, then its value");
-  CHECK(error_of("0.5\n", {.names = lacuna::io::value_names::simplex}) ==
+  CHECK(values_error("0.5\n") == "test.values:1: a value with no cell before it: write the name of the cell, then its value");
+  CHECK(values_error("0.5\n", {.names = lacuna::io::value_names::simplex}) ==
         "test.values:1: a value with no simplex before it: write the labels of the simplex, then its value");
-  CHECK(error_of("p 0\nq r 1\n") ==
+  CHECK(values_error("p 0\nq r 1\n") ==
         "test.values:2: 3 fields, but a line of values for a cell list is a cell name and its value");
-  CHECK(error_of("p x\n") == "test.values:1: the value 'x' is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
-  CHECK(error_of("0.5 p\n") == "test.values:1: the value 'p' is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
-  CHECK(error_of("p .5\n") == "test.values:1: the value '.5' is not a number (write a digit on both sides of the "
+  CHECK(values_error("p x\n") == "test.values:1: the value 'x' is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
+  CHECK(values_error("0.5 p\n") == "test.values:1: the value 'p' is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
+  CHECK(values_error("p .5\n") == "test.values:1: the value '.5' is not a number (write a digit on both sides of the "
                               "decimal point, as in 0.5 or 1.0)");
-  CHECK(error_of("p -inf\n") == "test.values:1: the value '-inf' is not a number (every number must be finite)");
-  CHECK(error_of("p 1\rq 2\n") ==
+  CHECK(values_error("p -inf\n") == "test.values:1: the value '-inf' is not a number (every number must be finite)");
+  CHECK(values_error("p 1\rq 2\n") ==
         "test.values:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF");
-  CHECK(error_of(std::string("p 1\nq\0 2\n", 9)) ==
+  CHECK(values_error(std::string("p 1\nq\0 2\n", 9)) ==
         "test.values:2: a control character (byte 0x00) in column 2: the file is not text");
-  CHECK(parse("\xEF\xBB\xBFp 1\n").name(0, 0) == "p");  // a byte-order mark at the start is skipped
+  CHECK(parse_values("\xEF\xBB\xBFp 1\n").name(0, 0) == "p");  // a byte-order mark at the start is skipped
   // negative values are values like any other
-  CHECK(parse("p -2.5e1\n").value(0) == -25);
+  CHECK(parse_values("p -2.5e1\n").value(0) == -25);
 }
 
 TEST_CASE("values: errors found against the complex, at their line of the value file") {
   using namespace values_reader_test;
   try {
-    lacuna::io::resolve_values(lacuna::io::read_values(std::filesystem::path(data("persistence", "values_unknown.values"))),
+    lacuna::io::resolve_values(lacuna::io::read_values(std::filesystem::path(values_data("persistence", "values_unknown.values"))),
                                plane(), "projective_plane.cells");
     FAIL("must throw");
   } catch (const lacuna::parse_error& e) {
-    CHECK(e.file() == data("persistence", "values_unknown.values"));
+    CHECK(e.file() == values_data("persistence", "values_unknown.values"));
     CHECK(e.line() == 2);
     CHECK(e.message() == "'s' is not a cell of projective_plane.cells");
   }
   try {
-    lacuna::io::resolve_values(lacuna::io::read_values(std::filesystem::path(data("persistence", "values_twice.values")),
+    lacuna::io::resolve_values(lacuna::io::read_values(std::filesystem::path(values_data("persistence", "values_twice.values")),
                                                        {.names = lacuna::io::value_names::simplex}),
                                triangle(), "hollow_triangle.facets");
     FAIL("must throw");
@@ -154,7 +154,7 @@ TEST_CASE("values: errors found against the complex, at their line of the value 
     CHECK(e.message() == "the cell 'x y' is listed twice (first on line 2)");
   }
   try {
-    lacuna::io::resolve_values(lacuna::io::read_values(std::filesystem::path(data("persistence", "values_not_simplex.values")),
+    lacuna::io::resolve_values(lacuna::io::read_values(std::filesystem::path(values_data("persistence", "values_not_simplex.values")),
                                                        {.names = lacuna::io::value_names::simplex}),
                                triangle(), "hollow_triangle.facets");
     FAIL("must throw");
@@ -169,7 +169,7 @@ TEST_CASE("values: errors found against the complex, at their line of the value 
   CHECK(cell_error("P 0\n") == "test.values:1: 'P' is not a cell of rp2.cells");  // names are case-sensitive
   // a list read for a facet list, resolved against a cell list
   try {
-    lacuna::io::resolve_values(parse("p q 1\n", {.names = lacuna::io::value_names::simplex}), plane(), "rp2.cells");
+    lacuna::io::resolve_values(parse_values("p q 1\n", {.names = lacuna::io::value_names::simplex}), plane(), "rp2.cells");
     FAIL("must throw");
   } catch (const lacuna::parse_error& e) {
     CHECK(e.message() == "3 fields, but a line of values for a cell list is a cell name and its value");
@@ -177,16 +177,16 @@ TEST_CASE("values: errors found against the complex, at their line of the value 
   // names that are not UTF-8 are escaped in the message
   CHECK(cell_error("\xC3\x28 1\n") == "test.values:1: '\\xc3(' is not a cell of rp2.cells");
   CHECK(cell_error("\xCE\xB1 1\n") == "test.values:1: '\xCE\xB1' is not a cell of rp2.cells");
-  CHECK(lacuna::io::resolve_values(parse(""), plane(), "rp2.cells").empty());
+  CHECK(lacuna::io::resolve_values(parse_values(""), plane(), "rp2.cells").empty());
 }
 
 TEST_CASE("values: the line of a cell in its complex file") {
   using namespace values_reader_test;
-  std::ifstream cells(data("cli", "projective_plane.cells"));
+  std::ifstream cells(values_data("cli", "projective_plane.cells"));
   CHECK(lacuna::io::line_of_cell(cells, lacuna::io::value_names::cell, "q") == 2);
   std::istringstream cells2("# c\n0 p\n\n1 q:p-p\n");
   CHECK(lacuna::io::line_of_cell(cells2, lacuna::io::value_names::cell, "q") == 4);
-  std::ifstream facets(data("cli", "hollow_triangle.facets"));
+  std::ifstream facets(values_data("cli", "hollow_triangle.facets"));
   CHECK(lacuna::io::line_of_cell(facets, lacuna::io::value_names::simplex, "z") == 3);
   std::istringstream none("a b\n");
   CHECK(lacuna::io::line_of_cell(none, lacuna::io::value_names::simplex, "c") == 0);
@@ -194,11 +194,11 @@ TEST_CASE("values: the line of a cell in its complex file") {
 
 TEST_CASE("values: limits") {
   using namespace values_reader_test;
-  CHECK(error_of("a 1\nb 2\nc 3\n", {.max_records = 2}) ==
+  CHECK(values_error("a 1\nb 2\nc 3\n", {.max_records = 2}) ==
         "test.values:3: more than 2 lines of values (the limit of the reader)");
-  CHECK(error_of("a b c 1\n", {.names = lacuna::io::value_names::simplex, .max_labels = 2}) ==
+  CHECK(values_error("a b c 1\n", {.names = lacuna::io::value_names::simplex, .max_labels = 2}) ==
         "test.values:1: a simplex of 3 labels, more than the limit of 2 (the limit of the reader)");
-  CHECK(error_of("abc 1\ndef 2\n", {.max_name_bytes = 5}) ==
+  CHECK(values_error("abc 1\ndef 2\n", {.max_name_bytes = 5}) ==
         "test.values:2: more than 5 bytes of names in all (the limit of the reader)");
   io_endless_stream::endless_stream in("", "vertex 0.5\n");
   CHECK_THROWS_WITH_AS(lacuna::io::read_values(in, "endless", {.max_records = 5000}),

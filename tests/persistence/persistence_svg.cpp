@@ -49,7 +49,7 @@ struct document {
 };
 
 /// Parses an SVG document with expat, keeping every element, its attributes and its text.
-inline document parse(const std::string& svg) {
+inline document parse_svg(const std::string& svg) {
   document doc;
   std::vector<std::size_t> open;
   struct state {
@@ -202,7 +202,7 @@ inline std::pair<double, double> centre(const element& e) {
 /// All checks of a persistence diagram picture.
 inline void check_diagram(const diagrams& d, const lacuna::io::persistence_picture_options& o = {}) {
   const std::string svg = lacuna::io::persistence_diagram_svg(d, o);
-  const auto doc = parse(svg);
+  const auto doc = parse_svg(svg);
   INFO(doc.error);
   check_coordinates(svg, doc);
   CHECK(count_class(doc, "mark") == classes(d));
@@ -248,7 +248,7 @@ inline void check_diagram(const diagrams& d, const lacuna::io::persistence_pictu
 /// All checks of a barcode picture.
 inline void check_barcode(const diagrams& d, const lacuna::io::persistence_picture_options& o = {}) {
   const std::string svg = lacuna::io::barcode_svg(d, o);
-  const auto doc = parse(svg);
+  const auto doc = parse_svg(svg);
   INFO(doc.error);
   const auto vb = check_coordinates(svg, doc);
   CHECK(count_class(doc, "bar") == classes(d));
@@ -290,7 +290,7 @@ TEST_CASE("pictures: an ordinary diagram and barcode") {
   check_diagram(d, {.title = "a test"});
   check_barcode(d, {.title = "a test"});
   // the order of the filtration: a later death is higher up
-  const auto doc = parse(lacuna::io::persistence_diagram_svg({{{0, 1}, {0, 2}}}));
+  const auto doc = parse_svg(lacuna::io::persistence_diagram_svg({{{0, 1}, {0, 2}}}));
   std::vector<double> ys;
   for (const auto& e : doc.elements)
     if (e.has_class("mark")) ys.push_back(centre(e).second);
@@ -308,7 +308,7 @@ TEST_CASE("pictures: superlevel filtrations run downwards") {
   check_diagram(d, {.title = "superlevel", .superlevel = true});
   check_barcode(d, {.title = "superlevel", .superlevel = true});
   // the larger birth is further left
-  const auto doc = parse(lacuna::io::persistence_diagram_svg({{{200, 0}, {100, 0}}}, {.superlevel = true}));
+  const auto doc = parse_svg(lacuna::io::persistence_diagram_svg({{{200, 0}, {100, 0}}}, {.superlevel = true}));
   std::vector<double> xs;
   for (const auto& e : doc.elements)
     if (e.has_class("mark")) xs.push_back(centre(e).first);
@@ -361,7 +361,7 @@ TEST_CASE("pictures: titles are escaped, cleaned and shortened") {
   for (const bool barcode : {false, true}) {
     const auto svg = barcode ? lacuna::io::barcode_svg({{{0, 1}}}, {.title = hostile})
                              : lacuna::io::persistence_diagram_svg({{{0, 1}}}, {.title = hostile});
-    const auto doc = parse(svg);
+    const auto doc = parse_svg(svg);
     INFO(doc.error);
     REQUIRE(doc.well_formed);
     // expat gives the text back unescaped: the markup characters as given, control characters
@@ -376,7 +376,7 @@ TEST_CASE("pictures: titles are escaped, cleaned and shortened") {
     CHECK(found);
   }
   // a long title is shortened with an ellipsis
-  const auto doc = parse(lacuna::io::persistence_diagram_svg({}, {.title = std::string(500, 'x')}));
+  const auto doc = parse_svg(lacuna::io::persistence_diagram_svg({}, {.title = std::string(500, 'x')}));
   for (const auto& e : doc.elements)
     if (e.has_class("title")) {
       CHECK(e.text.size() < 100);
