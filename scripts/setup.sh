@@ -13,6 +13,7 @@ packages=(
   nlohmann-json3-dev    # JSON output of the command-line tool
   libcli11-dev          # argument parsing of the command-line tool
   zlib1g-dev            # gzip-encoded NRRD volumes
+  libexpat1-dev         # tests: the SVG pictures of persistence are parsed back as XML
   clang                 # libFuzzer targets
   libclang-rt-14-dev    # sanitizer and fuzzer runtimes for clang
 )

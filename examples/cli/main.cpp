@@ -19,6 +19,8 @@
 #include <lacuna/ring/rational.hpp>
 #include <lacuna/ring/z2.hpp>
 
+#include "persistence.hpp"
+
 #include <CLI/CLI.hpp>
 #include <pthread.h>
 #include <unistd.h>
@@ -858,6 +860,7 @@ int main(int argc, char** argv) {
       ->check(count_validator);
   seq->add_option("SUB", so.relative, "the subcomplex, in FILE's format (.facets or .cells)")->required();
   seq->add_option("FILE", so.file, "the complex: .facets or .cells")->required();
+  lacuna_cli::persistence_command pers(app);
   try {
     try {
       app.parse(argc, argv);
@@ -874,6 +877,10 @@ int main(int argc, char** argv) {
     }
     o.co = parse_coefficients(coeff_text);
     if (!interrupts) interrupts = new interrupt_watch;  // one per process, never deleted: its thread may outlive main
+    if (pers.parsed())
+      return pers.run({.stop = interrupts->token(),
+                       .begin_output = [] { return interrupts->begin_output(); },
+                       .interrupted = [] { return interrupts->stopped(); }});
     if (hom->parsed()) run_homology(o);
     if (seq->parsed()) {
       o.file = so.file;  // for messages

@@ -40,6 +40,7 @@
 #include <lacuna/homology/euler_checks.hpp>
 #include <lacuna/homology/mayer_vietoris.hpp>
 #include <lacuna/homology/clique_homology.hpp>
+#include <lacuna/persistence/diagram_distance.hpp>
 
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/cells.hpp>
@@ -47,3 +48,7 @@
 #include <lacuna/io/obj.hpp>
 #include <lacuna/io/netpbm.hpp>
 #include <lacuna/io/nrrd.hpp>
+#include <lacuna/io/points.hpp>
+#include <lacuna/io/distances.hpp>
+#include <lacuna/io/values.hpp>
+#include <lacuna/io/persistence_svg.hpp>

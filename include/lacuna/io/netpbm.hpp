@@ -18,6 +18,7 @@
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/io/read_limits.hpp>
 
+#include <array>
 #include <cstddef>
 #include <cstdint>
 #include <filesystem>
@@ -26,6 +27,7 @@
 #include <ostream>
 #include <span>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace lacuna::io {
@@ -83,10 +85,19 @@ class netpbm_reader {
 
     w_ = static_cast<std::size_t>(w);
     h_ = static_cast<std::size_t>(h);
-    bit_sink bits(static_cast<std::size_t>(*pixels), left.has_value());
+    bit_sink bits(samples_ ? 0 : static_cast<std::size_t>(*pixels), left.has_value());
+    if (samples_ && left) samples_->reserve(static_cast<std::size_t>(*pixels));
     if (kind_ == 1 || kind_ == 2) read_plain(bits);
     else read_binary(bits, static_cast<std::size_t>(row_bytes), static_cast<unsigned>(bytes_per_sample));
+    if (samples_) return cubical_complex<2>();
     return cubical_complex<2>({w_, h_}, bits.take());
+  }
+
+  /// Reads the samples instead (P1 and P4: 1 for black), row by row; returns {width, height}.
+  std::array<std::size_t, 2> read_samples(std::vector<std::int32_t>& samples) {
+    samples_ = &samples;
+    read();
+    return {w_, h_};
   }
 
  private:
@@ -98,6 +109,12 @@ class netpbm_reader {
   [[noreturn]] void fail(std::size_t line, const std::string& msg) const { throw parse_error(name_, line, msg); }
   [[noreturn]] void fail_at(std::uint64_t offset, const std::string& msg) const {
     throw parse_error(name_, 0, "byte offset " + std::to_string(offset) + ": " + msg);
+  }
+  void push(bit_sink& bits, std::uint64_t v) {
+    if (samples_)
+      samples_->push_back(static_cast<std::int32_t>(v));  // at most 65535
+    else
+      bits.push(foreground(v));
   }
   bool foreground(std::uint64_t v) const {
     return opt_.threshold ? static_cast<std::int64_t>(v) >= *opt_.threshold : v != 0;
@@ -141,7 +158,7 @@ class netpbm_reader {
       if (kind_ == 1) {
         src_.get();
         if (c != '0' && c != '1') fail(src_.line(), "bad pixel " + quote_token(std::string(1, static_cast<char>(c))) + " (PBM pixels are 0 or 1)");
-        bits.push(foreground(c == '1' ? 1 : 0));
+        push(bits, c == '1' ? 1 : 0);
       } else {
         const std::size_t line = src_.line();
         std::string digits;
@@ -150,7 +167,7 @@ class netpbm_reader {
         const auto v = parse_unsigned(digits);
         if (!v) fail(line, "bad sample " + quote_token(digits));
         if (*v > maxval_) fail(line, "sample " + std::to_string(*v) + " exceeds maxval " + std::to_string(maxval_));
-        bits.push(foreground(*v));
+        push(bits, *v);
       }
     }
   }
@@ -169,13 +186,13 @@ class netpbm_reader {
         done += got;
         if (kind_ == 4) {
           for (std::size_t b = 0; b < got; ++b, ++x)
-            for (unsigned k = 0; k < 8 && 8 * x + k < w_; ++k) bits.push(foreground((buf[b] >> (7 - k)) & 1));
+            for (unsigned k = 0; k < 8 && 8 * x + k < w_; ++k) push(bits, (buf[b] >> (7 - k)) & 1);
           continue;
         }
         for (std::size_t b = 0; b < got; b += bps, ++x) {
           const std::uint64_t v = bps == 1 ? buf[b] : (std::uint64_t{buf[b]} << 8) | buf[b + 1];
           if (v > maxval_) fail_at(start + b, "sample " + std::to_string(v) + " exceeds maxval " + std::to_string(maxval_));
-          bits.push(foreground(v));
+          push(bits, v);
         }
       }
     }
@@ -188,6 +205,7 @@ class netpbm_reader {
   std::uint64_t maxval_ = 1;
   std::size_t w_ = 0, h_ = 0;
   std::size_t last_token_line_ = 1;
+  std::vector<std::int32_t>* samples_ = nullptr;  // set: read the samples, not the foreground
 };
 
 }  // namespace detail
@@ -202,6 +220,24 @@ inline cubical_complex<2> read_netpbm(std::istream& in, const std::string& name,
 inline cubical_complex<2> read_netpbm(const std::filesystem::path& path, const image_options& options = {}) {
   auto in = detail::open_input(path);
   return read_netpbm(in, path.string(), options);
+}
+
+/// The samples of a PBM or PGM image, row by row from the top, as integers (P1 and P4: 1 for
+/// black), with the extents {width, height}: the input of a sublevel or superlevel
+/// filtration. The same checks and limits as read_netpbm. Throws lacuna::parse_error.
+inline std::pair<std::array<std::size_t, 2>, std::vector<std::int32_t>> read_netpbm_samples(
+    std::istream& in, const std::string& name, const read_limits& limits = {}) {
+  std::vector<std::int32_t> samples;
+  const image_options options{.limits = limits};
+  auto extents = detail::netpbm_reader(in, name, options).read_samples(samples);
+  return {extents, std::move(samples)};
+}
+
+/// Reads the samples of a PBM or PGM file (see above).
+inline std::pair<std::array<std::size_t, 2>, std::vector<std::int32_t>> read_netpbm_samples(
+    const std::filesystem::path& path, const read_limits& limits = {}) {
+  auto in = detail::open_input(path);
+  return read_netpbm_samples(in, path.string(), limits);
 }
 
 /// Writes samples (row by row, top row first) as a binary PGM (P5); 16-bit big-endian samples

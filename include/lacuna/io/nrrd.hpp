@@ -41,6 +41,7 @@
 #include <span>
 #include <string>
 #include <string_view>
+#include <utility>
 #include <vector>
 
 namespace lacuna::io {
@@ -175,19 +176,34 @@ class nrrd_reader {
     }
     threshold_ = opt.threshold;
     header_ = &h;
+    sizes_ = h.sizes;
     needed_ = static_cast<std::uint64_t>(voxels) * h.bytes_per_sample();
     if (h.encoding == nrrd_header::data_encoding::raw) {
       const auto left = remaining_bytes(src_.stream());
       if (left && *left < needed_)
         fail_at(h.data_offset + *left, "data truncated: the sizes need " + std::to_string(needed_) +
                                            " bytes, the file holds " + std::to_string(*left) + " after the header");
-      bit_sink bits(voxels, left.has_value());
+      bit_sink bits(samples_ ? 0 : voxels, left.has_value());
+      if (samples_) samples_->reserve(voxels);
       read_raw(bits);
+      if (samples_) return cubical_complex<D>();
       return cubical_complex<D>(extents, bits.take());
     }
-    bit_sink bits(voxels, false);  // the decompressed size is unknown until it is decompressed
+    bit_sink bits(samples_ ? 0 : voxels, false);  // the decompressed size is unknown until it is decompressed
     read_gzip(bits);
+    if (samples_) return cubical_complex<D>();
     return cubical_complex<D>(extents, bits.take());
+  }
+
+  /// Reads the samples instead (axis 0 fastest); returns the extents (1 beyond the file's axes).
+  template <std::size_t D>
+  std::array<std::size_t, D> read_samples(std::vector<std::int32_t>& samples) {
+    samples_ = &samples;
+    read<D>(image_options{.limits = limits_});
+    std::array<std::size_t, D> extents;
+    extents.fill(1);
+    for (std::size_t a = 0; a < sizes_.size(); ++a) extents[a] = static_cast<std::size_t>(sizes_[a]);
+    return extents;
   }
 
  private:
@@ -246,7 +262,10 @@ class nrrd_reader {
           have_half_ = false;
         }
       }
-      bits.push(threshold_ ? v >= *threshold_ : v != 0);
+      if (samples_)
+        samples_->push_back(static_cast<std::int32_t>(v));
+      else
+        bits.push(threshold_ ? v >= *threshold_ : v != 0);
     }
   }
 
@@ -318,6 +337,8 @@ class nrrd_reader {
   const nrrd_header* header_ = nullptr;
   std::optional<std::int64_t> threshold_;
   std::uint64_t needed_ = 0;
+  std::vector<std::int32_t>* samples_ = nullptr;  // set: read the samples, not the foreground
+  std::vector<std::uint64_t> sizes_;
   unsigned half_ = 0;
   bool have_half_ = false;
 };
@@ -342,6 +363,26 @@ template <std::size_t D = 3>
 cubical_complex<D> read_nrrd(const std::filesystem::path& path, const image_options& options = {}) {
   auto in = detail::open_input(path);
   return read_nrrd<D>(in, path.string(), options);
+}
+
+/// The samples of a NRRD volume of dimension at most D, axis 0 fastest, as integers (8- and
+/// 16-bit, signed or not), with the extents (1 beyond the file's axes): the input of a
+/// sublevel or superlevel filtration. The same checks and limits as read_nrrd.
+template <std::size_t D = 3>
+std::pair<std::array<std::size_t, D>, std::vector<std::int32_t>> read_nrrd_samples(std::istream& in,
+                                                                                  const std::string& name,
+                                                                                  const read_limits& limits = {}) {
+  std::vector<std::int32_t> samples;
+  auto extents = detail::nrrd_reader(in, name, limits).template read_samples<D>(samples);
+  return {extents, std::move(samples)};
+}
+
+/// Reads the samples of a NRRD file (see above).
+template <std::size_t D = 3>
+std::pair<std::array<std::size_t, D>, std::vector<std::int32_t>> read_nrrd_samples(const std::filesystem::path& path,
+                                                                                  const read_limits& limits = {}) {
+  auto in = detail::open_input(path);
+  return read_nrrd_samples<D>(in, path.string(), limits);
 }
 
 /// Writes the foreground of a cubical complex as a raw uint8 NRRD (1 = foreground).

@@ -1,0 +1,410 @@
+// `lacuna persistence [OPTIONS] FILE`: persistent homology of a point cloud, a distance
+// matrix, an image or volume, or a complex with values, as the Persistence section of the
+// tool's contract fixes it (docs/persistence-cli.md): the options, their defaults, the JSON
+// layout, the order of the pairs, values as the shortest decimal that reads back as the same
+// double, and exit status 2 with one line on stderr for every bad input.
+#include "persistence.hpp"
+
+#include <lacuna/complex/cell_list.hpp>
+#include <lacuna/complex/simplicial_complex.hpp>
+#include <lacuna/persistence/cubical_filtration.hpp>
+#include <lacuna/persistence/persistence.hpp>
+#include <lacuna/persistence/rips_filtration.hpp>
+#include <lacuna/persistence/values_filtration.hpp>
+#include <lacuna/ring/mod_p.hpp>
+#include <lacuna/ring/primality.hpp>
+#include <lacuna/ring/rational.hpp>
+#include <lacuna/ring/z2.hpp>
+#include <lacuna/io/cells.hpp>
+#include <lacuna/io/facets.hpp>
+#include <lacuna/io/distances.hpp>
+#include <lacuna/io/netpbm.hpp>
+#include <lacuna/io/nrrd.hpp>
+#include <lacuna/io/persistence_svg.hpp>
+#include <lacuna/io/points.hpp>
+#include <lacuna/io/values.hpp>
+
+#include <algorithm>
+#include <array>
+#include <cctype>
+#include <cmath>
+#include <charconv>
+#include <cstdint>
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+#include <limits>
+#include <new>
+#include <stdexcept>
+#include <string>
+#include <type_traits>
+#include <utility>
+#include <vector>
+
+namespace lacuna_cli {
+
+namespace {
+
+/// Exit status 2 with this line (already "FILE:LINE: ..." or "lacuna: ...").
+struct bad_input : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
+
+/// The highest --max-dimension accepted (a diagram per dimension is printed, empty or not).
+constexpr long long max_dimension_limit = 1000;
+
+struct field_choice {
+  enum kind_t { z2, mod_p, rationals } kind = z2;
+  std::uint64_t p = 2;
+  std::string text = "Z/2";
+};
+
+field_choice parse_field(const std::string& s) {
+  field_choice f;
+  if (s == "Q") {
+    f.kind = field_choice::rationals;
+    f.text = "Q";
+    return f;
+  }
+  if (s == "Z")
+    throw bad_input("lacuna: --coefficients Z: persistence needs a field (barcodes exist over a field only): use Z/p "
+                    "for a prime p, or Q");
+  if (s.size() > 2 && s.rfind("Z/", 0) == 0) {
+    const std::string digits = s.substr(2);
+    if (digits.find_first_not_of("0123456789") != std::string::npos || digits.size() > 19)
+      throw bad_input("lacuna: --coefficients " + s + ": expected Z/p for a prime p, or Q");
+    const std::uint64_t p = std::stoull(digits);
+    if (p >= lacuna::mod_p_modulus_limit)
+      throw bad_input("lacuna: --coefficients " + s + ": the prime must be below 2^62");
+    if (!lacuna::is_prime(p)) throw bad_input("lacuna: --coefficients " + s + ": " + digits + " is not a prime");
+    f.kind = p == 2 ? field_choice::z2 : field_choice::mod_p;
+    f.p = p;
+    f.text = "Z/" + std::to_string(p);
+    return f;
+  }
+  throw bad_input("lacuna: --coefficients " + s + ": expected Z/p for a prime p, or Q");
+}
+
+/// Runs fn(unit) with the one of the chosen field.
+template <class Fn>
+void with_field(const field_choice& f, Fn&& fn) {
+  switch (f.kind) {
+    case field_choice::z2:
+      return fn(lacuna::one<lacuna::z2>());
+    case field_choice::mod_p:
+      return fn(lacuna::mod_p_dynamic(1, f.p));
+    case field_choice::rationals:
+      return fn(lacuna::one<lacuna::rational>());
+  }
+}
+
+/// A value as a JSON number: integers (image samples) in decimal, doubles as the shortest
+/// decimal that reads back as the same double.
+template <class V>
+std::string value_text(const V& v) {
+  if constexpr (std::is_floating_point_v<V>) {
+    char buf[64];
+    const auto r = std::to_chars(buf, buf + sizeof buf, v);
+    return std::string(buf, r.ptr);
+  } else {
+    return std::to_string(v);
+  }
+}
+
+/// The diagrams as printed: per dimension, the pairs' values as text and as doubles (for the
+/// pictures).
+struct outcome {
+  std::string filtration;
+  bool superlevel = false;
+  std::vector<std::vector<std::pair<std::string, std::optional<std::string>>>> text;
+  std::vector<std::vector<lacuna::io::diagram_interval>> values;
+};
+
+/// Copies the diagrams of a result (pairs of persistence zero already dropped) into `out`, with
+/// empty diagrams up to dimension `top` where the result has fewer.
+template <class Result>
+void collect(const Result& r, long long top, outcome& out) {
+  out.text.assign(static_cast<std::size_t>(top + 1), {});
+  out.values.assign(static_cast<std::size_t>(top + 1), {});
+  for (const auto& d : r.diagrams) {
+    if (d.dimension < 0 || d.dimension > top) continue;
+    const auto k = static_cast<std::size_t>(d.dimension);
+    for (const auto& p : d.pairs) {
+      std::optional<std::string> death;
+      std::optional<double> death_value;
+      if (!p.essential()) {
+        death = value_text(*p.death);
+        death_value = static_cast<double>(*p.death);
+      }
+      out.text[k].emplace_back(value_text(p.birth), std::move(death));
+      out.values[k].emplace_back(static_cast<double>(p.birth), death_value);
+    }
+  }
+}
+
+/// The persistence of f over the field of `unit`, diagrams 0..top, pairs of persistence zero
+/// dropped, cut after `last` when given.
+template <class F, class R, class V = lacuna::filtration_value_t<F>>
+void compute(const F& f, long long top, const std::optional<V>& last, const run_context& context, const R& unit,
+             outcome& out) {
+  lacuna::persistence_options o{.max_dimension = static_cast<int>(top)};
+  o.control.stop = context.stop;
+  auto r = lacuna::persistence<R>(f, o, lacuna::automatic_persistence{}, unit);
+  if (last) r = lacuna::up_to(std::move(r), *last);
+  collect(lacuna::without_zero_persistence(std::move(r)), top, out);
+}
+
+std::string extension_of(const std::string& file) {
+  std::string ext = std::filesystem::path(file).extension().string();
+  for (auto& ch : ext) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+  return ext;
+}
+
+void check_input(const std::string& f) {
+  if (!std::filesystem::exists(f)) throw bad_input(f + ": no such file");
+  if (std::filesystem::is_directory(f)) throw bad_input(f + ": is a directory, not a file");
+}
+
+/// --up-to V as a double (a decimal of the file formats).
+double parse_up_to(const std::string& v) {
+  double x = 0;
+  if (lacuna::io::text_detail::parse_decimal(v, x) != lacuna::io::text_detail::decimal_status::ok)
+    throw bad_input("lacuna: --up-to " + lacuna::io::text_detail::quote(v) +
+                    " is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
+  return x;
+}
+
+// ---- the inputs ---------------------------------------------------------------------------
+
+void run_rips(const persistence_command::settings& s, const field_choice& field, const run_context& context,
+              outcome& out) {
+  const std::string ext = extension_of(s.file);
+  const long long top = s.max_dimension.value_or(1);
+  lacuna::rips_options ro{.max_dimension = static_cast<int>(top + 1)};
+  if (s.up_to) ro.threshold = parse_up_to(*s.up_to);
+  ro.control = nullptr;
+  out.filtration = "vietoris-rips";
+  lacuna::rips_filtration f;
+  if (ext == ".distances") {
+    const auto m = lacuna::io::read_distances(std::filesystem::path(s.file));
+    std::vector<double> full(m.size() * m.size());
+    for (std::size_t i = 0; i < m.size(); ++i)
+      for (std::size_t j = 0; j < m.size(); ++j) full[i * m.size() + j] = m(i, j);
+    f = lacuna::rips_filtration::from_distances(m.size(), full, ro);
+  } else {
+    const auto c = lacuna::io::read_points(std::filesystem::path(s.file));
+    if (!c.empty()) f = lacuna::rips_filtration::from_points(c.coordinates, c.dimension, ro);
+  }
+  with_field(field, [&](const auto& unit) {
+    compute(f, top, std::optional<double>{}, context, unit, out);
+  });
+}
+
+/// The values of VALUES resolved against the complex, checked into a filtration; errors at the
+/// lines of VALUES (or of FILE, for a cell with no value and no faces).
+template <class C>
+void run_values(const C& complex, lacuna::io::value_names kind, const persistence_command::settings& s,
+                const field_choice& field, const run_context& context, outcome& out) {
+  const auto list = lacuna::io::read_values(std::filesystem::path(s.values), {.names = kind});
+  const auto resolved = lacuna::io::resolve_values(list, complex, s.file);
+  const int dims = lacuna::top_dimension(complex) + 1;
+  std::vector<std::vector<std::optional<double>>> partial(static_cast<std::size_t>(std::max(dims, 0)));
+  std::vector<std::vector<std::size_t>> line(partial.size());
+  for (int k = 0; k < dims; ++k) {
+    partial[static_cast<std::size_t>(k)].resize(lacuna::cell_count(complex, k));
+    line[static_cast<std::size_t>(k)].resize(lacuna::cell_count(complex, k), 0);
+  }
+  for (const auto& v : resolved) {
+    partial[static_cast<std::size_t>(v.dimension)][v.index] = v.value;
+    line[static_cast<std::size_t>(v.dimension)][v.index] = v.line;
+  }
+  using filtration_t = lacuna::values_filtration<C, double>;
+  std::optional<filtration_t> f;
+  try {
+    f.emplace(filtration_t::from_partial_values(complex, partial));
+  } catch (const lacuna::filtration_error& e) {
+    const auto k = e.dimension();
+    const auto i = e.index();
+    if (k < 0 || k >= dims) throw;
+    const std::string name = lacuna::cell_name(complex, k, i);
+    const std::size_t at = line[static_cast<std::size_t>(k)][i];
+    if (e.face_index() != lacuna::filtration_error::npos && at != 0) {
+      // the library's message names the cell, its value, the face and the face's value
+      std::string message = e.what();
+      if (message.rfind("lacuna: ", 0) == 0) message.erase(0, 8);
+      throw lacuna::parse_error(s.values, at, message);
+    }
+    if (at == 0 && e.face_index() == lacuna::filtration_error::npos) {
+      std::ifstream in(s.file, std::ios::binary);
+      const std::size_t file_line = lacuna::io::line_of_cell(in, kind, name);
+      throw lacuna::parse_error(s.file, file_line,
+                                "the cell '" + name + "' has no value in " + s.values + " and no faces to take one from");
+    }
+    throw;
+  }
+  const long long top = s.max_dimension.value_or(lacuna::top_dimension(complex));
+  std::optional<double> last;
+  if (s.up_to) last = parse_up_to(*s.up_to);
+  out.filtration = "values";
+  with_field(field, [&](const auto& unit) { compute(*f, top, last, context, unit, out); });
+}
+
+/// The sublevel (or superlevel) filtration of an image's or a volume's samples. --up-to V keeps
+/// the cells entering at V or before in the filtration: samples <= V, or >= V with
+/// --superlevel; the cut is made on the pairs, which is the persistence of the cut filtration.
+template <std::size_t D>
+void run_samples(const std::array<std::size_t, D>& extents, std::vector<std::int32_t> samples,
+                 const persistence_command::settings& s, const field_choice& field, const run_context& context,
+                 outcome& out) {
+  const auto direction = s.superlevel ? lacuna::level_sets::superlevel : lacuna::level_sets::sublevel;
+  const lacuna::cubical_filtration<D, std::int32_t> f(extents, std::move(samples), direction);
+  const long long top = s.max_dimension.value_or(lacuna::top_dimension(f));
+  out.filtration = s.superlevel ? "superlevel" : "sublevel";
+  std::optional<std::int32_t> last;
+  bool nothing = false;  // no sample enters at V or before
+  if (s.up_to) {
+    const double v = parse_up_to(*s.up_to);
+    // the last sample value that enters: floor(V) going up, ceil(V) going down
+    const double lo = std::numeric_limits<std::int32_t>::min(), hi = std::numeric_limits<std::int32_t>::max();
+    const double cut = s.superlevel ? std::ceil(v) : std::floor(v);
+    if (s.superlevel ? cut > hi : cut < lo)
+      nothing = true;
+    else
+      last = static_cast<std::int32_t>(std::clamp(cut, lo, hi));
+  }
+  if (nothing) {
+    out.text.assign(static_cast<std::size_t>(std::max<long long>(top + 1, 0)), {});
+    out.values.assign(out.text.size(), {});
+    return;
+  }
+  with_field(field, [&](const auto& unit) { compute(f, top, last, context, unit, out); });
+}
+
+// ---- output -------------------------------------------------------------------------------
+
+std::string json_of(const outcome& o, const field_choice& field) {
+  std::string s = "{\n  \"coefficients\": \"" + field.text + "\",\n  \"filtration\": \"" + o.filtration +
+                  "\",\n  \"diagrams\": [";
+  for (std::size_t k = 0; k < o.text.size(); ++k) {
+    s += k ? ",\n    " : "\n    ";
+    s += "{\"dimension\": " + std::to_string(k) + ", \"pairs\": [";
+    for (std::size_t j = 0; j < o.text[k].size(); ++j) {
+      const auto& [b, d] = o.text[k][j];
+      s += (j ? ", [" : "[") + b + ", " + (d ? *d : std::string("null")) + "]";
+    }
+    s += "]}";
+  }
+  s += o.text.empty() ? "]\n}\n" : "\n  ]\n}\n";
+  return s;
+}
+
+std::string text_of(const outcome& o, const field_choice& field, const std::string& file) {
+  std::string s = "persistence of " + file + " over " + field.text + " (" + o.filtration + " filtration";
+  s += o.superlevel ? ", values decreasing)\n" : ")\n";
+  if (o.text.empty()) s += "no cells: no diagrams\n";
+  for (std::size_t k = 0; k < o.text.size(); ++k) {
+    const auto n = o.text[k].size();
+    s += "dimension " + std::to_string(k) + ": " + std::to_string(n) + (n == 1 ? " class" : " classes") + "\n";
+    for (const auto& [b, d] : o.text[k]) s += "  born " + b + ", " + (d ? "dies " + *d : std::string("never dies")) + "\n";
+  }
+  return s;
+}
+
+void write_file(const std::string& path, const std::string& content) {
+  std::ofstream out(path, std::ios::binary | std::ios::trunc);
+  if (out) out << content;
+  if (!out || !out.flush()) throw bad_input(path + ": cannot write the file");
+}
+
+}  // namespace
+
+persistence_command::persistence_command(CLI::App& app) {
+  sub_ = app.add_subcommand("persistence", "persistent homology: diagrams of a filtration over a field");
+  sub_->add_option("--coefficients", s_.coefficients, "Z/p for a prime p (default Z/2), or Q");
+  sub_->add_option("--max-dimension", s_.max_dimension,
+                   "diagrams of dimensions 0..D (default: 1 for point clouds and distance matrices, the top "
+                   "dimension otherwise)")
+      ->type_name("D");
+  sub_->add_option("--up-to", s_.up_to, "keep only the cells entering at V or before (Vietoris-Rips: edges <= V)")
+      ->type_name("V");
+  sub_->add_option("--values", s_.values, ".facets and .cells: the value at which each listed cell enters")
+      ->type_name("VALUES");
+  sub_->add_flag("--superlevel", s_.superlevel, "images and volumes: the filtration runs from the largest value down");
+  sub_->add_flag("--json", s_.json, "one JSON object");
+  sub_->add_option("--diagram", s_.diagram, "also write the persistence diagram as SVG")->type_name("OUT.svg");
+  sub_->add_option("--barcode", s_.barcode, "also write the barcode as SVG")->type_name("OUT.svg");
+  sub_->add_option("FILE", s_.file, "input: .points .csv .distances .pgm .nrrd, or .facets .cells with --values")
+      ->required();
+}
+
+bool persistence_command::parsed() const { return sub_ && sub_->parsed(); }
+
+int persistence_command::run(const run_context& context) const {
+  const auto& s = s_;
+  const auto one_line = [](std::string m) {
+    for (auto& ch : m)
+      if (static_cast<unsigned char>(ch) < 0x20 || ch == 0x7f) ch = '?';
+    return m;
+  };
+  try {
+    const field_choice field = parse_field(s.coefficients);
+    if (s.max_dimension && (*s.max_dimension < 0 || *s.max_dimension > max_dimension_limit))
+      throw bad_input("lacuna: --max-dimension " + std::to_string(*s.max_dimension) + ": expected 0 to " +
+                      std::to_string(max_dimension_limit));
+    check_input(s.file);
+    const std::string ext = extension_of(s.file);
+    const bool cloud = ext == ".points" || ext == ".csv" || ext == ".distances";
+    const bool complex = ext == ".facets" || ext == ".cells";
+    const bool image = ext == ".pgm" || ext == ".nrrd";
+    if (!cloud && !complex && !image)
+      throw bad_input(s.file + ": unknown file type '" + ext +
+                      "' for persistence (expected .points, .csv, .distances, .pgm, .nrrd, or .facets or .cells "
+                      "with --values)");
+    if (complex && s.values.empty())
+      throw bad_input("lacuna: persistence of " + s.file + " needs --values VALUES (the value at which each cell enters)");
+    if (!complex && !s.values.empty())
+      throw bad_input("lacuna: --values applies to .facets and .cells files, not to " + s.file);
+    if (s.superlevel && !image)
+      throw bad_input("lacuna: --superlevel applies to images and volumes (.pgm, .nrrd), not to " + s.file);
+    if (s.up_to) parse_up_to(*s.up_to);
+    if (!s.values.empty()) check_input(s.values);
+    outcome out;
+    out.superlevel = s.superlevel;
+    if (cloud) {
+      run_rips(s, field, context, out);
+    } else if (ext == ".facets") {
+      const auto c = lacuna::io::read_facets(std::filesystem::path(s.file));
+      run_values(c, lacuna::io::value_names::simplex, s, field, context, out);
+    } else if (ext == ".cells") {
+      const auto c = lacuna::io::read_cells(std::filesystem::path(s.file));
+      run_values(c, lacuna::io::value_names::cell, s, field, context, out);
+    } else if (ext == ".pgm") {
+      auto [extents, samples] = lacuna::io::read_netpbm_samples(std::filesystem::path(s.file));
+      run_samples<2>(extents, std::move(samples), s, field, context, out);
+    } else {
+      auto [extents, samples] = lacuna::io::read_nrrd_samples<3>(std::filesystem::path(s.file));
+      run_samples<3>(extents, std::move(samples), s, field, context, out);
+    }
+    const std::string title = s.file + " (" + out.filtration + ", " + field.text + ")";
+    const lacuna::io::persistence_picture_options pictures{.title = title, .superlevel = out.superlevel};
+    if (!s.diagram.empty()) write_file(s.diagram, lacuna::io::persistence_diagram_svg(out.values, pictures));
+    if (!s.barcode.empty()) write_file(s.barcode, lacuna::io::barcode_svg(out.values, pictures));
+    const std::string result = s.json ? json_of(out, field) : text_of(out, field, s.file);
+    if (context.begin_output && !context.begin_output()) throw lacuna::computation_stopped();
+    std::cout << result << std::flush;
+    return 0;
+  } catch (const lacuna::computation_stopped&) {
+    return context.interrupted ? context.interrupted() : 130;
+  } catch (const bad_input& e) {
+    std::cerr << one_line(e.what()) << "\n";
+  } catch (const lacuna::parse_error& e) {
+    std::cerr << one_line(e.what()) << "\n";
+  } catch (const std::bad_alloc&) {
+    std::cerr << one_line(s.file + ": not enough memory for this input") << "\n";
+  } catch (const std::exception& e) {
+    std::cerr << one_line(s.file + ": " + e.what()) << "\n";
+  }
+  return 2;
+}
+
+}  // namespace lacuna_cli
