@@ -53,8 +53,10 @@ inline std::int64_t checked_mul(std::int64_t a, std::int64_t b, const std::strin
   return r;
 }
 
-/// Sorts terms by face, adds the coefficients of equal faces (overflow-checked), drops zeros.
-inline void normalize_chain(std::vector<incidence>& terms, const std::string& what) {
+/// Sorts terms by face, adds the coefficients of equal faces (overflow-checked), drops zeros;
+/// the faces dropped (written, but adding up to zero) are appended to `dropped` if given.
+inline void normalize_chain(std::vector<incidence>& terms, const std::string& what,
+                            std::vector<std::size_t>* dropped = nullptr) {
   std::stable_sort(terms.begin(), terms.end(),
                    [](const incidence& a, const incidence& b) { return a.face < b.face; });
   std::size_t o = 0;
@@ -62,14 +64,17 @@ inline void normalize_chain(std::vector<incidence>& terms, const std::string& wh
     std::int64_t sum = 0;
     const std::size_t f = terms[t].face;
     for (; t < terms.size() && terms[t].face == f; ++t) sum = checked_add(sum, terms[t].coefficient, what);
-    if (sum != 0) terms[o++] = incidence{f, sum};
+    if (sum != 0)
+      terms[o++] = incidence{f, sum};
+    else if (dropped)
+      dropped->push_back(f);
   }
   terms.resize(o);
 }
 
 /// Sorts terms by face; if every sum of the coefficients of one face fits in int64, adds them
 /// up, drops zeros and returns true; otherwise leaves the (sorted) terms and returns false.
-inline bool normalize_chain_if_fits(std::vector<incidence>& terms) {
+inline bool normalize_chain_if_fits(std::vector<incidence>& terms, std::vector<std::size_t>* dropped = nullptr) {
   std::stable_sort(terms.begin(), terms.end(),
                    [](const incidence& a, const incidence& b) { return a.face < b.face; });
   bool merge = false;
@@ -80,12 +85,13 @@ inline bool normalize_chain_if_fits(std::vector<incidence>& terms) {
       if (__builtin_add_overflow(sum, terms[t].coefficient, &sum)) return false;
     merge = merge || sum == 0 || t - t0 > 1;
   }
-  if (merge) normalize_chain(terms, std::string());
+  if (merge) normalize_chain(terms, std::string(), dropped);
   return true;
 }
 
-/// Sorts terms by face, adds the coefficients of equal faces exactly, drops zeros.
-inline void normalize_chain(std::vector<exact_incidence>& terms) {
+/// Sorts terms by face, adds the coefficients of equal faces exactly, drops zeros (and
+/// appends the faces dropped to `dropped` if given).
+inline void normalize_chain(std::vector<exact_incidence>& terms, std::vector<std::size_t>* dropped = nullptr) {
   std::stable_sort(terms.begin(), terms.end(),
                    [](const exact_incidence& a, const exact_incidence& b) { return a.face < b.face; });
   std::size_t o = 0;
@@ -93,7 +99,10 @@ inline void normalize_chain(std::vector<exact_incidence>& terms) {
     integer sum;
     const std::size_t f = terms[t].face;
     for (; t < terms.size() && terms[t].face == f; ++t) sum += terms[t].coefficient;
-    if (sum.sign() != 0) terms[o++] = exact_incidence{f, std::move(sum)};
+    if (sum.sign() != 0)
+      terms[o++] = exact_incidence{f, std::move(sum)};
+    else if (dropped)
+      dropped->push_back(f);
   }
   terms.resize(o);
 }
@@ -197,6 +206,21 @@ class cell_list {
                                 "-cells have incidence numbers beyond 64 bits; use boundary()");
     return {d.terms.data() + d.offsets[i], d.offsets[i + 1] - d.offsets[i]};
   }
+  /// The faces the boundary of the i-th k-cell was written with, increasing: those of
+  /// boundary(k, i) and those whose coefficients added up to zero (the cell 'q' of
+  /// add_cell(1, "q", {{p, 1}, {p, -1}}) has the face p, although its boundary is 0). These
+  /// are the faces a subcomplex must hold with the cell (shared/FORMATS.md). Cost: the size of
+  /// the boundary, plus a binary search among the cells that have such faces.
+  std::vector<std::size_t> written_faces(int k, std::size_t i) const {
+    std::vector<std::size_t> out;
+    for (const auto& t : boundary(k, i)) out.push_back(t.face);
+    const auto& c = dims_[static_cast<std::size_t>(k)].cancelled;
+    auto it = std::lower_bound(c.begin(), c.end(), std::pair<std::size_t, std::size_t>{i, 0});
+    const std::size_t before = out.size();
+    for (; it != c.end() && it->first == i; ++it) out.push_back(it->second);
+    if (out.size() != before) std::sort(out.begin(), out.end());
+    return out;
+  }
   /// True if some k-cell has an incidence number that does not fit in std::int64_t.
   bool has_big_coefficients(int k) const noexcept {
     return k >= 0 && static_cast<std::size_t>(k) < dims_.size() && dims_[static_cast<std::size_t>(k)].exact;
@@ -213,13 +237,15 @@ class cell_list {
   /// lacuna::validate).
   std::size_t add_cell(int k, std::string name, std::vector<incidence> boundary_terms) {
     auto& d = prepare(k, name);
-    if (!detail::normalize_chain_if_fits(boundary_terms) || d.exact) {  // a sum beyond int64: exactly
+    dropped_.clear();
+    if (!detail::normalize_chain_if_fits(boundary_terms, &dropped_) || d.exact) {  // a sum beyond int64: exactly
       std::vector<exact_incidence> exact;
       exact.reserve(boundary_terms.size());
       for (const auto& t : boundary_terms) exact.push_back({t.face, integer(t.coefficient)});
       return add_exact(k, std::move(name), std::move(exact));
     }
     check_faces(k, name, boundary_terms);
+    record_dropped(d, k, name);
     d.terms.insert(d.terms.end(), boundary_terms.begin(), boundary_terms.end());
     return finish(d, std::move(name));
   }
@@ -227,6 +253,7 @@ class cell_list {
   /// coefficient of the dimension fits.
   std::size_t add_cell(int k, std::string name, std::vector<exact_incidence> boundary_terms) {
     prepare(k, name);
+    dropped_.clear();
     return add_exact(k, std::move(name), std::move(boundary_terms));
   }
   std::size_t add_cell(int k, std::string name, std::initializer_list<incidence> boundary_terms = {}) {
@@ -360,9 +387,12 @@ class cell_list {
     std::vector<incidence> terms;              // while !exact
     std::vector<exact_incidence> exact_terms;  // once a coefficient does not fit in int64
     std::vector<std::string> names;
+    /// (cell, face): faces written in a boundary whose coefficients added up to zero, by cell
+    std::vector<std::pair<std::size_t, std::size_t>> cancelled;
     bool exact = false;
   };
   std::vector<dimension> dims_;
+  std::vector<std::size_t> dropped_;  // scratch of add_cell
 
   /// The dimension record of k (created if needed), and the default name of the new cell.
   dimension& prepare(int k, std::string& name) {
@@ -385,6 +415,17 @@ class cell_list {
                                   std::to_string(cell_count(k - 1)) + " " + std::to_string(k - 1) + "-cells",
                               k, index);
   }
+  // the faces of the new cell whose terms added up to zero: checked like the others, kept for
+  // written_faces()
+  void record_dropped(dimension& d, int k, const std::string& name) {
+    std::vector<incidence> probe;
+    for (std::size_t f : dropped_) probe.push_back({f, 1});
+    check_faces(k, name, probe);
+    std::sort(dropped_.begin(), dropped_.end());
+    dropped_.erase(std::unique(dropped_.begin(), dropped_.end()), dropped_.end());
+    for (std::size_t f : dropped_) d.cancelled.emplace_back(d.names.size(), f);
+    dropped_.clear();
+  }
   std::size_t finish(dimension& d, std::string name) {
     d.offsets.push_back(d.exact ? d.exact_terms.size() : d.terms.size());
     d.names.push_back(std::move(name));
@@ -392,8 +433,9 @@ class cell_list {
   }
   std::size_t add_exact(int k, std::string name, std::vector<exact_incidence> terms) {
     auto& d = dims_[static_cast<std::size_t>(k)];
-    detail::normalize_chain(terms);
+    detail::normalize_chain(terms, &dropped_);
     check_faces(k, name, terms);
+    record_dropped(d, k, name);
     const bool fits = std::ranges::all_of(terms, [](const exact_incidence& t) { return t.coefficient.is_small(); });
     if (fits && !d.exact) {
       for (const auto& t : terms) d.terms.push_back({t.face, t.coefficient.small_value()});
