@@ -4,9 +4,9 @@
 //
 // It runs on the boundary matrices as indexed (in the working coefficients W, so over Z/p a
 // fault that is a multiple of p is not seen: the chain complex mod p is then a chain complex),
-// one pass over each k-cell's faces' faces with a dense accumulator: O(sum over cells of
-// |∂c| |∂ of a face|) time, O(cells of one dimension) memory — about what building the complex
-// costs again for simplicial and cubical complexes (docs/reliability.md has the figures).
+// one pass over each k-cell's faces' faces: O(sum over cells of |∂c| |∂ of a face|) time (for
+// a cell with few of them, times their number), O(cells of one dimension) memory at most.
+// docs/reliability.md has its cost: a few percent of homology().
 #pragma once
 
 #include <lacuna/chain/reducible_complex.hpp>
@@ -24,28 +24,20 @@ namespace lacuna::detail {
 /// cell is left out: ε∂ = 0 is not asked of a complex.
 template <class W>
 std::optional<std::pair<int, std::uint32_t>> first_nonzero_boundary_squared(const reducible_complex<W>& rc) {
-  std::vector<W> acc;
-  std::vector<std::uint32_t> touched;
+  std::vector<W> acc;  // over the cells two levels down, zero between cells
   for (int L = 2; L < rc.levels(); ++L) {
-    if (rc.dimension_of_level(L - 2) < 0 && !rc.is_dual()) continue;  // the empty cell
+    if (rc.dimension_of_level(L - 2) < 0) continue;  // the empty cell of the augmentation
     acc.assign(rc.size(L - 2), zero<W>());
-    std::vector<char> seen(rc.size(L - 2), 0);
     for (std::uint32_t i = 0; i < rc.size(L); ++i) {
-      touched.clear();
+      for (const auto& e : rc.boundary(L, i))
+        for (const auto& g : rc.boundary(L - 1, e.index)) acc[g.index] += e.value * g.value;
+      // the same terms again: each sum read, then cleared for the next cell
+      bool bad = false;
       for (const auto& e : rc.boundary(L, i))
         for (const auto& g : rc.boundary(L - 1, e.index)) {
-          if (!seen[g.index]) {
-            seen[g.index] = 1;
-            touched.push_back(g.index);
-          }
-          acc[g.index] += e.value * g.value;
+          bad = bad || !(acc[g.index] == zero<W>());
+          acc[g.index] = zero<W>();
         }
-      bool bad = false;
-      for (const auto t : touched) {
-        bad = bad || !(acc[t] == zero<W>());
-        acc[t] = zero<W>();
-        seen[t] = 0;
-      }
       if (bad) return std::pair<int, std::uint32_t>{L, i};
     }
   }
