@@ -304,11 +304,13 @@ void set_memory_budget(std::optional<std::uint64_t> requested, const std::string
   // Few malloc arenas (each reserves 64 MB of address space), a stack that needs no growing.
   ::mallopt(M_ARENA_MAX, 2);
   touch_stack();
+#ifndef LACUNA_CLI_NO_ADDRESS_LIMIT  // defined where main.cpp runs inside another program (a fuzzer)
   if (known && (now.rlim_cur == RLIM_INFINITY || b < now.rlim_cur)) {
     rlimit lim = now;
     lim.rlim_cur = b;
     ::setrlimit(RLIMIT_AS, &lim);  // if it fails, the estimate alone guards
   }
+#endif
 }
 
 // ---- output -----------------------------------------------------------------------------
@@ -743,6 +745,8 @@ void with_input(const run_options& o, Fn&& fn) {
     if (extension_of(o.relative) != ext)
       throw usage_error(o.relative + ": SUB must be in the format of FILE (a " + ext + " file)");
   }
+  // the budget, before anything is read (fuzz/fuzz_cli never gets here: it names no file)
+  set_memory_budget(o.max_memory, o.file);
   if (ext == ".facets") {
     const auto X = lacuna::io::read_facets(std::filesystem::path(o.file), facets_options(o));
     if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
@@ -1046,8 +1050,6 @@ int main(int argc, char** argv) {
       o.co = parse_coefficients(coeff_text);
     }
     if (seq->parsed()) read_numbers(so, std::nullopt, seq_max_cells_text, seq_max_facet_text, seq_max_memory_text);
-    if (hom->parsed()) set_memory_budget(o.max_memory, o.file);
-    if (seq->parsed()) set_memory_budget(so.max_memory, so.file);
     if (!interrupts) interrupts = new interrupt_watch;  // one per process, never deleted: its thread may outlive main
     if (hom->parsed()) run_homology(o);
     if (seq->parsed()) {
