@@ -5,7 +5,7 @@
 //   line_reader lines(stream, file_name [, line_reader_options]);
 //   for (std::string_view line; lines.next(line);) { ... lines.line_number() ... lines.fail("...") }
 //
-// The rules, the same for every reader that uses it (docs/formats.md, *Text files*):
+// The rules, the same for every reader that uses it (docs/cli.md, *Text files*):
 //   * lines end in LF or CRLF; the line handed out has neither. A carriage return anywhere
 //     else (a bare CR, as old Mac files end their lines) is an error naming its line: such a
 //     file would otherwise read as one long line;
