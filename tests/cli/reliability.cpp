@@ -240,6 +240,15 @@ TEST_CASE("issue 14.8: an endless stream ends in an error at line 1, within 1 GB
   const auto line = expect_error(r);
   CHECK(line.rfind(fifo + ":1: ", 0) == 0);
   CHECK(line.find("longer than") != std::string::npos);
+  // endless headers of short lines or of one comment: NRRD through a pipe, a P5 image file
+  const auto nrrd = (dir.path() / "endless.nrrd").string();
+  REQUIRE(::mkfifo(nrrd.c_str(), 0600) == 0);
+  const auto r2 = cli_test::run_program(
+      "/bin/sh", {"-c", "((printf 'NRRD0004\\n'; yes '# c') > \"$1\" 2>/dev/null &) ; ulimit -v 1048576 && exec \"$0\" homology \"$1\"",
+                  cli_test::tool().string(), nrrd});
+  CHECK(expect_error(r2).find("header longer than") != std::string::npos);
+  const auto pgm = dir.write("comment.pgm", "P5\n#" + std::string(3 << 20, 'x'));
+  CHECK(expect_error(run({"homology", pgm})).find("header longer than") != std::string::npos);
 }
 
 // ---- 10. messages of --coefficients ---------------------------------------------------------

@@ -129,6 +129,10 @@ class netpbm_reader {
   }
   int get() {
     if (!plain_) {
+      // a binary image's header is short: an endless one (spaces, a comment that never
+      // ends) is refused instead of read for ever
+      if (src_.offset() > (std::uint64_t{1} << 20))
+        fail(src_.line(), "a header longer than 1 MiB (an endless stream?)");
       const int c = src_.get();
       // the text rules of every reader in a binary image's header too: CR only before LF
       if (c == '\r' && src_.peek() != '\n')

@@ -207,6 +207,8 @@ class nrrd_reader {
   // reads past the line: the samples follow the header at once; false at the end of the file
   bool next_line(std::string& line) {
     std::string_view v;
+    if (lines_.bytes_consumed() > (std::uint64_t{1} << 24))
+      fail(line_ + 1, "a header longer than 16 MiB (an endless stream?)");
     if (!lines_.next(v)) return false;
     line.assign(v);
     line_ = lines_.line_number();
