@@ -21,12 +21,11 @@
 #include <lacuna/ring/rational.hpp>
 #include <lacuna/ring/z2.hpp>
 
+#include "memory_budget.hpp"
 #include "options.hpp"
 
 #include <CLI/CLI.hpp>
-#include <malloc.h>
 #include <pthread.h>
-#include <sys/resource.h>
 #include <unistd.h>
 
 #include <atomic>
@@ -237,81 +236,6 @@ class interrupt_watch {
 };
 
 interrupt_watch* interrupts = nullptr;  // set by main for the subcommands that compute
-
-// ---- the memory budget -------------------------------------------------------------------
-
-/// The memory the tool may use (docs/cli.md, *Memory budget*): --max-memory, by default a
-/// quarter of the machine's memory, and never more than an address-space limit the tool was
-/// started under (ulimit -v). Before a computation the tool adds its estimate
-/// (lacuna::estimate_homology_memory) to the address space the process holds and refuses
-/// above the budget; the process's address space is also limited to the budget, so that
-/// whatever the estimate missed ends in the same refusal (std::bad_alloc), never in a crash,
-/// and the process never holds more than the budget.
-struct memory_budget {
-  std::uint64_t bytes = 0;
-  std::uint64_t committed = 0;  ///< held and estimated at the last check
-  std::string file;  ///< for messages
-
-  /// "3.2", in GB of 2^30 bytes.
-  static std::string gigabytes(std::uint64_t b) {
-    char buf[32];
-    const double g = static_cast<double>(b) / static_cast<double>(std::uint64_t{1} << 30);
-    std::snprintf(buf, sizeof buf, g >= 10 ? "%.0f" : "%.1f", std::max(g, 0.1));
-    return buf;
-  }
-  /// The one line of a refusal by estimate.
-  std::string would_need(std::uint64_t needed) const {
-    return file + ": would need about " + gigabytes(needed) + " GB; --max-memory raises the limit (now " +
-           gigabytes(bytes) + " GB)";
-  }
-  /// The one line when an allocation failed at the limit.
-  std::string ran_out() const {
-    return (file.empty() ? std::string("lacuna") : file) + ": would need more than the limit of " +
-           gigabytes(bytes) + " GB; --max-memory raises the limit";
-  }
-};
-
-memory_budget budget;  // set by main
-
-/// The address space this process holds now, in bytes (0 if unknown): what the limit counts.
-std::uint64_t address_space_bytes() {
-  std::FILE* f = std::fopen("/proc/self/statm", "r");
-  if (!f) return 0;
-  unsigned long long size = 0;
-  const int got = std::fscanf(f, "%llu", &size);
-  std::fclose(f);
-  return got == 1 ? size * static_cast<std::uint64_t>(::sysconf(_SC_PAGESIZE)) : 0;
-}
-
-/// Touches a megabyte of stack, so that the stack never has to grow under the address-space
-/// limit (a failed stack growth would be a crash, not an exception).
-[[gnu::noinline]] void touch_stack() {
-  volatile char block[1 << 20];
-  for (std::size_t i = 0; i < sizeof block; i += 4096) block[i] = 0;
-}
-
-/// Sets the budget: `requested` (--max-memory) or a quarter of the machine's memory, within
-/// what an address-space limit already in force leaves; then limits the address space.
-void set_memory_budget(std::optional<std::uint64_t> requested, const std::string& file) {
-  budget.file = file;
-  const auto pages = ::sysconf(_SC_PHYS_PAGES), page = ::sysconf(_SC_PAGESIZE);
-  const std::uint64_t machine = pages > 0 && page > 0 ? static_cast<std::uint64_t>(pages) * static_cast<std::uint64_t>(page) : 0;
-  std::uint64_t b = requested ? *requested : (machine ? machine / 4 : std::uint64_t{4} << 30);
-  rlimit now{};
-  const bool known = ::getrlimit(RLIMIT_AS, &now) == 0;
-  if (known && now.rlim_cur != RLIM_INFINITY) b = std::min<std::uint64_t>(b, now.rlim_cur);
-  budget.bytes = b;
-  // Few malloc arenas (each reserves 64 MB of address space), a stack that needs no growing.
-  ::mallopt(M_ARENA_MAX, 2);
-  touch_stack();
-#ifndef LACUNA_CLI_NO_ADDRESS_LIMIT  // defined where main.cpp runs inside another program (a fuzzer)
-  if (known && (now.rlim_cur == RLIM_INFINITY || b < now.rlim_cur)) {
-    rlimit lim = now;
-    lim.rlim_cur = b;
-    ::setrlimit(RLIMIT_AS, &lim);  // if it fails, the estimate alone guards
-  }
-#endif
-}
 
 // ---- output -----------------------------------------------------------------------------
 
@@ -567,10 +491,10 @@ void write_result(const std::string& out) {
 /// Refuses (exit 2, one line) when what the process holds plus the estimate passes the
 /// budget; otherwise leaves what is left of it to the dense core (run_control::memory_limit).
 void reserve_memory(const lacuna::memory_estimate& e, lacuna::run_control& control) {
-  const std::uint64_t needed = address_space_bytes() + e.bytes;
-  budget.committed = needed;
-  if (needed > budget.bytes) throw usage_error(budget.would_need(needed));
-  control.memory_limit = std::max<std::uint64_t>(budget.bytes - needed, 1);
+  const std::uint64_t needed = lacuna_cli::address_space_bytes() + e.bytes;
+  lacuna_cli::budget.committed = needed;
+  if (needed > lacuna_cli::budget.bytes) throw usage_error(lacuna_cli::budget.would_need(needed));
+  control.memory_limit = std::max<std::uint64_t>(lacuna_cli::budget.bytes - needed, 1);
 }
 
 template <class C>
@@ -746,7 +670,7 @@ void with_input(const run_options& o, Fn&& fn) {
       throw usage_error(o.relative + ": SUB must be in the format of FILE (a " + ext + " file)");
   }
   // the budget, before anything is read (fuzz/fuzz_cli never gets here: it names no file)
-  set_memory_budget(o.max_memory, o.file);
+  lacuna_cli::set_memory_budget(o.max_memory, o.file);
   if (ext == ".facets") {
     const auto X = lacuna::io::read_facets(std::filesystem::path(o.file), facets_options(o));
     if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
@@ -1029,7 +953,11 @@ int main(int argc, char** argv) {
     if (threshold) r.threshold = parse_number<std::int64_t>(*threshold, "--threshold");
     if (max_cells) r.max_cells = parse_number<std::uint64_t>(*max_cells, "--max-cells");
     if (max_facet) r.max_facet_vertices = parse_number<std::uint64_t>(*max_facet, "--max-facet-vertices");
-    if (max_memory) r.max_memory = lacuna_cli::parse_size(*max_memory, "--max-memory");
+    if (max_memory) {
+      r.max_memory = lacuna_cli::parse_size(*max_memory, "--max-memory");
+      if (*r.max_memory < (std::uint64_t{64} << 20))
+        throw lacuna_cli::option_error("lacuna: --max-memory '" + *max_memory + "': at least 64M (the tool itself takes some)");
+    }
   };
   try {
     try {
@@ -1068,12 +996,12 @@ int main(int argc, char** argv) {
   } catch (const lacuna::parse_error& e) {
     std::cerr << one_line(e.what()) << "\n";
   } catch (const std::bad_alloc&) {
-    std::cerr << one_line(budget.ran_out()) << "\n";
+    std::cerr << one_line(lacuna_cli::budget.ran_out()) << "\n";
   } catch (const lacuna::memory_limit_exceeded& e) {  // the dense core, checked in the run
-    std::cerr << one_line(budget.would_need(budget.committed + e.needed())) << "\n";
+    std::cerr << one_line(lacuna_cli::budget.would_need(lacuna_cli::budget.committed + e.needed())) << "\n";
   } catch (const std::system_error& e) {  // a thread that cannot start at the limit, say
     if (e.code() == std::errc::not_enough_memory || e.code() == std::errc::resource_unavailable_try_again)
-      std::cerr << one_line(budget.ran_out()) << "\n";
+      std::cerr << one_line(lacuna_cli::budget.ran_out()) << "\n";
     else
       std::cerr << one_line(o.file + ": " + e.what()) << "\n";
   } catch (const std::exception& e) {
