@@ -7,8 +7,10 @@
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/homology/exact_sequence.hpp>
 #include <lacuna/homology/homology.hpp>
+#include <lacuna/homology/memory_estimate.hpp>
 #include <lacuna/io/cells.hpp>
 #include <lacuna/io/facets.hpp>
+#include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/netpbm.hpp>
 #include <lacuna/io/nrrd.hpp>
 #include <lacuna/io/obj.hpp>
@@ -19,6 +21,8 @@
 #include <lacuna/ring/rational.hpp>
 #include <lacuna/ring/z2.hpp>
 
+#include "memory_budget.hpp"
+#include "options.hpp"
 #include "persistence.hpp"
 
 #include <CLI/CLI.hpp>
@@ -39,6 +43,7 @@
 #include <sstream>
 #include <stop_token>
 #include <string>
+#include <system_error>
 #include <thread>
 #include <variant>
 
@@ -64,13 +69,16 @@ coefficients parse_coefficients(const std::string& s) {
     return c;
   }
   if (s.size() > 2 && s.rfind("Z/", 0) == 0) {
-    const std::string digits = s.substr(2);
-    if (digits.find_first_not_of("0123456789") != std::string::npos || digits.size() > 19)
-      throw usage_error("lacuna: --coefficients " + s + ": expected Z, Q or Z/p for a prime p");
-    const std::uint64_t p = std::stoull(digits);
-    if (p >= lacuna::mod_p_modulus_limit)
+    // the modulus through the tool's one number parser: decimal, leading zeros dropped
+    const auto d = lacuna_cli::parse_decimal(std::string_view(s).substr(2), false);
+    if (d.status == lacuna_cli::number_status::too_large || (d.status == lacuna_cli::number_status::ok &&
+                                                             d.magnitude >= lacuna::mod_p_modulus_limit))
       throw usage_error("lacuna: --coefficients " + s + ": the prime must be below 2^62");
-    if (!lacuna::is_prime(p)) throw usage_error("lacuna: --coefficients " + s + ": " + digits + " is not a prime");
+    if (d.status != lacuna_cli::number_status::ok)
+      throw usage_error("lacuna: --coefficients " + s + ": expected Z, Q or Z/p for a prime p");
+    const std::uint64_t p = d.magnitude;
+    if (!lacuna::is_prime(p))
+      throw usage_error("lacuna: --coefficients " + s + ": " + std::to_string(p) + " is not a prime");
     c.k = coefficients::mod_p;
     c.p = p;
     c.text = "Z/" + std::to_string(p);
@@ -83,7 +91,8 @@ coefficients parse_coefficients(const std::string& s) {
 
 /// Prints the current phase on stderr, once a second, after the first second, when stderr
 /// is a terminal and --quiet is not given; with the library's progress reports, the part of
-/// the phase that is done ("lacuna: eliminating unit pivots, 40% (3 s)").
+/// the phase that is done and, once the phase has run for a second, the time it has left at
+/// the rate so far ("lacuna: eliminating unit pivots, 40%, about 5 s left (3 s)").
 class progress_line {
  public:
   explicit progress_line(bool enabled) : enabled_(enabled && ::isatty(2)) {
@@ -93,19 +102,26 @@ class progress_line {
   void phase(const char* p) {
     std::lock_guard<std::mutex> lock(m_);
     text_ = p;
+    phase_.clear();
+    total_ = 0;
   }
   /// A lacuna::run_control progress callback.
   void report(const lacuna::progress_report& r) {
     if (!enabled_) return;
     std::lock_guard<std::mutex> lock(m_);
-    text_.assign(r.phase);
-    if (r.total > 1) text_ += ", " + std::to_string(r.done * 100 / r.total) + "%";
+    if (r.phase != phase_ || r.done < done_) {  // a new phase (or the same one again): a new clock
+      phase_.assign(r.phase);
+      phase_start_ = std::chrono::steady_clock::now();
+    }
+    done_ = r.done;
+    total_ = r.total;
+    text_ = phase_;
   }
   void stop() {
     if (!enabled_) return;
     {
       std::lock_guard<std::mutex> lock(m_);
-      done_ = true;
+      done_flag_ = true;
     }
     cv_.notify_all();
     if (worker_.joinable()) worker_.join();
@@ -113,24 +129,51 @@ class progress_line {
     enabled_ = false;
   }
 
+  /// The status text: the phase, the part done, and the time left at the rate so far (once
+  /// the phase has run for a second and a part of it is done).
+  static std::string status(const std::string& phase, std::uint64_t done, std::uint64_t total, double phase_seconds) {
+    std::string t = phase;
+    if (total <= 1) return t;
+    t += ", " + std::to_string(done * 100 / total) + "%";
+    if (done > 0 && done < total && phase_seconds >= 1.0) {
+      const double left = phase_seconds * static_cast<double>(total - done) / static_cast<double>(done);
+      char buf[64];
+      if (left < 90)
+        std::snprintf(buf, sizeof buf, ", about %.0f s left", std::max(left, 1.0));
+      else if (left < 5400)
+        std::snprintf(buf, sizeof buf, ", about %.0f min left", left / 60);
+      else
+        std::snprintf(buf, sizeof buf, ", about %.1f h left", left / 3600);
+      t += buf;
+    }
+    return t;
+  }
+
  private:
   void loop() {
     const auto start = std::chrono::steady_clock::now();
     std::unique_lock<std::mutex> lock(m_);
-    while (!cv_.wait_for(lock, std::chrono::milliseconds(250), [this] { return done_; })) {
-      const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    while (!cv_.wait_for(lock, std::chrono::milliseconds(250), [this] { return done_flag_; })) {
+      const auto now = std::chrono::steady_clock::now();
+      const double s = std::chrono::duration<double>(now - start).count();
       if (s < 1.0) continue;
-      std::fprintf(stderr, "\r\033[Klacuna: %s (%.0f s)", text_.c_str(), s);
+      const std::string line =
+          phase_.empty() ? text_
+                         : status(phase_, done_, total_, std::chrono::duration<double>(now - phase_start_).count());
+      std::fprintf(stderr, "\r\033[Klacuna: %s (%.0f s)", line.c_str(), s);
       std::fflush(stderr);
       printed_ = true;
     }
   }
   bool enabled_;
   std::string text_ = "reading";
+  std::string phase_;  // of the last report; empty: text_ alone
+  std::chrono::steady_clock::time_point phase_start_{};
+  std::uint64_t done_ = 0, total_ = 0;
   std::thread worker_;
   std::mutex m_;
   std::condition_variable cv_;
-  bool done_ = false;
+  bool done_flag_ = false;
   bool printed_ = false;
 };
 
@@ -197,10 +240,25 @@ interrupt_watch* interrupts = nullptr;  // set by main for the subcommands that 
 
 // ---- output -----------------------------------------------------------------------------
 
-/// Appends s as a JSON string literal.
+/// Appends s as a JSON string literal, always valid UTF-8: control characters escaped, and
+/// every byte that is not part of a well-formed UTF-8 sequence (a file name in another
+/// encoding) written as U+FFFD, the replacement character (docs/cli.md, *JSON layout*).
 void append_json_string(std::string& out, const std::string& s) {
   out += '"';
-  for (unsigned char ch : s) {
+  for (std::size_t i = 0; i < s.size();) {
+    const auto ch = static_cast<unsigned char>(s[i]);
+    if (ch >= 0x80) {
+      const std::size_t n = lacuna::io::utf8_sequence_length(s, i);
+      if (n == 0) {
+        out += "\uFFFD";
+        ++i;
+      } else {
+        out.append(s, i, n);
+        i += n;
+      }
+      continue;
+    }
+    ++i;
     if (ch >= 0x20 && ch != '"' && ch != '\\') {
       out += static_cast<char>(ch);
       continue;
@@ -288,6 +346,7 @@ struct run_options {
   std::optional<std::uint64_t> max_cells;           ///< unset: each reader's own default
   std::optional<std::uint64_t> max_facet_vertices;  ///< .facets: labels per line; unset: the reader's
   std::string reduction = "auto";  ///< --reduction: auto, none, collapses, coreductions, both, morse
+  std::optional<std::uint64_t> max_memory;  ///< --max-memory in bytes; unset: a quarter of the machine's memory
 };
 
 /// The pre-reduction of --reduction. auto: the Morse complex for images and volumes (implicit,
@@ -430,6 +489,15 @@ void write_result(const std::string& out) {
   write_out(out);
 }
 
+/// Refuses (exit 2, one line) when what the process holds plus the estimate passes the
+/// budget; otherwise leaves what is left of it to the dense core (run_control::memory_limit).
+void reserve_memory(const lacuna::memory_estimate& e, lacuna::run_control& control) {
+  const std::uint64_t needed = lacuna_cli::address_space_bytes() + e.bytes;
+  lacuna_cli::budget.committed = needed;
+  if (needed > lacuna_cli::budget.bytes) throw usage_error(lacuna_cli::budget.would_need(needed));
+  control.memory_limit = std::max<std::uint64_t>(lacuna_cli::budget.bytes - needed, 1);
+}
+
 template <class C>
 void compute_and_report(const C& cx, const run_options& o, progress_line& progress, const marks_t* marks = nullptr) {
   progress.phase("computing homology");
@@ -440,6 +508,7 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
   ho.control.progress = [&progress](const lacuna::progress_report& r) { progress.report(r); };
   std::string out;  // nothing reaches stdout until the whole answer is known
   auto go = [&]<class R>(const R& unit) {
+    reserve_memory(lacuna::estimate_homology_memory<R>(cx, ho, algorithm_for<C>(o)), ho.control);
     if (marks)
       report(cx, lacuna::relative_homology<R>(cx, *marks, ho, algorithm_for<C>(o), unit), o, out, marks);
     else
@@ -471,12 +540,12 @@ std::vector<std::pair<std::size_t, std::string>> content_lines(const std::string
   std::ifstream in(sub, std::ios::binary);
   if (!in) throw usage_error(sub + ": cannot be read");
   std::vector<std::pair<std::size_t, std::string>> out;
-  std::string line;
-  for (std::size_t no = 1; std::getline(in, line); ++no) {
-    if (auto h = line.find('#'); h != std::string::npos) line.resize(h);
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    if (line.find_first_not_of(" \t") == std::string::npos) continue;
-    out.emplace_back(no, line);
+  // the readers' own line reader, so that SUB's lines are numbered and split as FILE's are
+  lacuna::io::line_reader lines(in, sub);
+  for (std::string_view line; lines.next(line);) {
+    line = lacuna::io::strip_comment(line);
+    if (line.find_first_not_of(" \t") == std::string_view::npos) continue;
+    out.emplace_back(lines.line_number(), std::string(line));
   }
   return out;
 }
@@ -545,11 +614,14 @@ marks_t cells_marks(const lacuna::cell_list& X, const std::string& file, const s
       const std::string& name = A.cell_name(k, i);
       const std::size_t j = index_in_x[static_cast<std::size_t>(k)][i];
       std::map<std::size_t, lacuna::integer> in_x, in_a;
+      // the faces as written in FILE, also those whose coefficients add up to zero (a cell
+      // 's : q - q' has the face q): a SUB without q is not a subcomplex
+      for (const std::size_t face : X.faces_as_written(k, j))
+        if (!m[static_cast<std::size_t>(k - 1)][face])
+          throw usage_error(where(name) + ": the cell '" + name + "' is not in a subcomplex: its face '" +
+                            X.cell_name(k - 1, face) + "' in " + file + " is not a cell of " + sub);
       for (auto&& v : X.boundary(k, j)) {
         const auto t = lacuna::as_exact_incidence(v);
-        if (!m[static_cast<std::size_t>(k - 1)][t.face])
-          throw usage_error(where(name) + ": the cell '" + name + "' is not in a subcomplex: its face '" +
-                            X.cell_name(k - 1, t.face) + "' in " + file + " is not a cell of " + sub);
         in_x[t.face] += t.coefficient;
       }
       for (auto&& v : A.boundary(k, i)) {
@@ -598,6 +670,8 @@ void with_input(const run_options& o, Fn&& fn) {
     if (extension_of(o.relative) != ext)
       throw usage_error(o.relative + ": SUB must be in the format of FILE (a " + ext + " file)");
   }
+  // the budget, before anything is read (fuzz/fuzz_cli never gets here: it names no file)
+  lacuna_cli::set_memory_budget(o.max_memory, o.file);
   if (ext == ".facets") {
     const auto X = lacuna::io::read_facets(std::filesystem::path(o.file), facets_options(o));
     if (o.relative.empty()) return fn(X, static_cast<const marks_t*>(nullptr));
@@ -792,7 +866,15 @@ void run_sequence(const run_options& o) {
   with_input(o, [&](const auto& cx, const marks_t* marks) {
     progress.phase("computing the long exact sequence");
     std::string out;
-    auto go = [&]<class R>(const R& unit) { report_sequence(cx, lacuna::long_exact_sequence<R>(cx, *marks, unit), o, out); };
+    auto go = [&]<class R>(const R& unit) {
+      // the sequence computes the homology of X, A and (X, A) with generators: X's estimate
+      // with generators, three times
+      lacuna::run_control unused;
+      auto e = lacuna::estimate_homology_memory<R>(cx, {.generators = true});
+      e.bytes = e.bytes > ~std::uint64_t{0} / 3 ? ~std::uint64_t{0} : 3 * e.bytes;
+      reserve_memory(e, unused);
+      report_sequence(cx, lacuna::long_exact_sequence<R>(cx, *marks, unit), o, out);
+    };
     switch (o.co.k) {
       case coefficients::integers: go(lacuna::one<lacuna::integer>()); break;
       case coefficients::rationals: go(lacuna::one<lacuna::rational>()); break;
@@ -820,26 +902,26 @@ std::string one_line(std::string s) {
 
 int main(int argc, char** argv) {
   CLI::App app{"lacuna: exact homology of cell complexes from files"};
-  // a count: CLI11 would read -1 as 2^64 - 1, and "" as no value at all
-  const CLI::Validator count_validator(
-      [](std::string& v) {
-        return !v.empty() && v.find('-') == std::string::npos ? std::string() : "must be a non-negative integer";
-      },
-      "N");
+  // Numeric options are taken as text and read by lacuna_cli::parse_number (options.hpp), the
+  // tool's one number parser: CLI11's own conversion reads 010 as octal and "" as no value.
   app.require_subcommand(1);
   run_options o;
   std::string coeff_text = "Z";
+  std::optional<std::string> threshold_text, max_cells_text, max_facet_text, max_memory_text;
   auto* hom = app.add_subcommand("homology", "homology groups (ranks and torsion), optionally with generators");
   hom->add_option("--coefficients", coeff_text, "Z (default), Q, or Z/p for a prime p");
   hom->add_flag("--generators", o.generators, "print one cycle per free summand and per torsion factor");
   hom->add_flag("--json", o.json, "one JSON object (shared/FORMATS.md)");
   hom->add_flag("--quiet", o.quiet, "no progress on stderr");
-  hom->add_option("--threshold", o.threshold, "images and volumes: foreground is a value >= T");
-  hom->add_option("--max-facet-vertices", o.max_facet_vertices,
+  hom->add_option("--threshold", threshold_text, "images and volumes: foreground is a value >= T")->type_name("T");
+  hom->add_option("--max-facet-vertices", max_facet_text,
                   ".facets: refuse a line of more labels than this (default 20)")
-      ->check(count_validator);
-  hom->add_option("--max-cells", o.max_cells, "refuse inputs announcing more cells than this")
-      ->check(count_validator);
+      ->type_name("N");
+  hom->add_option("--max-cells", max_cells_text, "refuse inputs announcing more cells than this")->type_name("N");
+  hom->add_option("--max-memory", max_memory_text,
+                  "refuse a computation that would need more memory than this (bytes, or with K, M, G, T; "
+                  "default: a quarter of the machine's memory)")
+      ->type_name("SIZE");
   hom->add_option("--reduction", o.reduction,
                   "before the algebra: auto (default: morse for images and volumes, both otherwise), "
                   "none, collapses, coreductions, both, morse")
@@ -849,17 +931,35 @@ int main(int argc, char** argv) {
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   run_options so;
   std::string seq_coeff_text = "Z";
+  std::optional<std::string> seq_max_cells_text, seq_max_facet_text, seq_max_memory_text;
   auto* seq = app.add_subcommand("sequence", "the long exact sequence of the pair (FILE, SUB): groups, maps, exactness");
   seq->add_option("--coefficients", seq_coeff_text, "Z (default), Q, or Z/p for a prime p");
   seq->add_flag("--json", so.json, "one JSON object (docs/maps-and-sequences.md)");
   seq->add_flag("--quiet", so.quiet, "no progress on stderr");
-  seq->add_option("--max-facet-vertices", so.max_facet_vertices,
+  seq->add_option("--max-facet-vertices", seq_max_facet_text,
                   ".facets: refuse a line of more labels than this (default 20)")
-      ->check(count_validator);
-  seq->add_option("--max-cells", so.max_cells, "refuse inputs announcing more cells than this")
-      ->check(count_validator);
+      ->type_name("N");
+  seq->add_option("--max-cells", seq_max_cells_text, "refuse inputs announcing more cells than this")->type_name("N");
+  seq->add_option("--max-memory", seq_max_memory_text,
+                  "refuse a computation that would need more memory than this (bytes, or with K, M, G, T; "
+                  "default: a quarter of the machine's memory)")
+      ->type_name("SIZE");
   seq->add_option("SUB", so.relative, "the subcomplex, in FILE's format (.facets or .cells)")->required();
   seq->add_option("FILE", so.file, "the complex: .facets or .cells")->required();
+  // the numeric options, read once the command line is parsed
+  const auto read_numbers = [](run_options& r, const std::optional<std::string>& threshold,
+                               const std::optional<std::string>& max_cells, const std::optional<std::string>& max_facet,
+                               const std::optional<std::string>& max_memory) {
+    using lacuna_cli::parse_number;
+    if (threshold) r.threshold = parse_number<std::int64_t>(*threshold, "--threshold");
+    if (max_cells) r.max_cells = parse_number<std::uint64_t>(*max_cells, "--max-cells");
+    if (max_facet) r.max_facet_vertices = parse_number<std::uint64_t>(*max_facet, "--max-facet-vertices");
+    if (max_memory) {
+      r.max_memory = lacuna_cli::parse_size(*max_memory, "--max-memory");
+      if (*r.max_memory < (std::uint64_t{64} << 20))
+        throw lacuna_cli::option_error("lacuna: --max-memory '" + *max_memory + "': at least 64M (the tool itself takes some)");
+    }
+  };
   lacuna_cli::persistence_command pers(app);
   try {
     try {
@@ -875,7 +975,11 @@ int main(int argc, char** argv) {
       if (auto nl = msg.find('\n'); nl != std::string::npos) msg = msg.substr(0, nl);
       throw usage_error("lacuna: " + msg + " (lacuna --help)");
     }
-    o.co = parse_coefficients(coeff_text);
+    if (hom->parsed()) {
+      read_numbers(o, threshold_text, max_cells_text, max_facet_text, max_memory_text);
+      o.co = parse_coefficients(coeff_text);
+    }
+    if (seq->parsed()) read_numbers(so, std::nullopt, seq_max_cells_text, seq_max_facet_text, seq_max_memory_text);
     if (!interrupts) interrupts = new interrupt_watch;  // one per process, never deleted: its thread may outlive main
     if (pers.parsed())
       return pers.run({.stop = interrupts->token(),
@@ -893,10 +997,19 @@ int main(int argc, char** argv) {
     return interrupts ? interrupts->stopped() : 130;
   } catch (const usage_error& e) {
     std::cerr << one_line(e.what()) << "\n";
+  } catch (const lacuna_cli::option_error& e) {
+    std::cerr << one_line(e.what()) << "\n";
   } catch (const lacuna::parse_error& e) {
     std::cerr << one_line(e.what()) << "\n";
   } catch (const std::bad_alloc&) {
-    std::cerr << one_line(o.file + ": not enough memory for this input") << "\n";
+    std::cerr << one_line(lacuna_cli::budget.ran_out()) << "\n";
+  } catch (const lacuna::memory_limit_exceeded& e) {  // the dense core, checked in the run
+    std::cerr << one_line(lacuna_cli::budget.would_need(lacuna_cli::budget.committed + e.needed())) << "\n";
+  } catch (const std::system_error& e) {  // a thread that cannot start at the limit, say
+    if (e.code() == std::errc::not_enough_memory || e.code() == std::errc::resource_unavailable_try_again)
+      std::cerr << one_line(lacuna_cli::budget.ran_out()) << "\n";
+    else
+      std::cerr << one_line(o.file + ": " + e.what()) << "\n";
   } catch (const std::exception& e) {
     std::cerr << one_line(o.file + ": " + e.what()) << "\n";
   }

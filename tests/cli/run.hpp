@@ -66,10 +66,18 @@ struct send_signal {
 /// Runs the tool with `args`. When `stderr_fd` is given, the tool's stderr is that descriptor
 /// (a pseudo-terminal, say) and result::err stays empty. With `sig`, that signal is sent to
 /// the tool once, at the time it names (if the tool is still running).
+inline result run_program(const std::string& program, const std::vector<std::string>& args,
+                          std::optional<int> stderr_fd = std::nullopt, std::optional<send_signal> sig = std::nullopt);
 inline result run(const std::vector<std::string>& args, std::optional<int> stderr_fd = std::nullopt,
                   std::optional<send_signal> sig = std::nullopt) {
   if (!std::filesystem::exists(tool()))
     throw std::runtime_error(tool().string() + " does not exist: build the target lacuna_cli first");
+  return run_program(tool().string(), args, stderr_fd, sig);
+}
+
+/// Runs `program` (a path) with `args`, as run() runs the tool (a shell that sets a ulimit, say).
+inline result run_program(const std::string& program, const std::vector<std::string>& args,
+                          std::optional<int> stderr_fd, std::optional<send_signal> sig) {
   int out_pipe[2], err_pipe[2];
   if (::pipe(out_pipe) != 0 || ::pipe(err_pipe) != 0) throw std::runtime_error("pipe failed");
   posix_spawn_file_actions_t actions;
@@ -78,7 +86,7 @@ inline result run(const std::vector<std::string>& args, std::optional<int> stder
   posix_spawn_file_actions_adddup2(&actions, stderr_fd ? *stderr_fd : err_pipe[1], 2);
   posix_spawn_file_actions_addopen(&actions, 0, "/dev/null", O_RDONLY, 0);
   for (int fd : {out_pipe[0], out_pipe[1], err_pipe[0], err_pipe[1]}) posix_spawn_file_actions_addclose(&actions, fd);
-  std::vector<std::string> argv_text{tool().string()};
+  std::vector<std::string> argv_text{program};
   argv_text.insert(argv_text.end(), args.begin(), args.end());
   std::vector<char*> argv;
   for (auto& a : argv_text) argv.push_back(a.data());

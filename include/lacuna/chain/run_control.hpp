@@ -18,6 +18,7 @@
 #include <functional>
 #include <stdexcept>
 #include <stop_token>
+#include <string>
 #include <string_view>
 
 namespace lacuna {
@@ -37,11 +38,39 @@ class computation_stopped : public std::runtime_error {
   computation_stopped() : std::runtime_error("lacuna: the computation was stopped on request") {}
 };
 
-/// A stop request and a progress callback; both optional (the default stops nothing and
-/// reports nothing, at the cost of one test per few thousand steps).
+/// Thrown when a computation would need more memory than run_control::memory_limit (or a
+/// caller's budget, lacuna/homology/memory_estimate.hpp) allows. Nothing was computed.
+class memory_limit_exceeded : public std::runtime_error {
+ public:
+  memory_limit_exceeded(std::uint64_t needed, std::uint64_t limit, const std::string& what)
+      : std::runtime_error("lacuna: " + what + " would need about " + std::to_string(needed) +
+                           " bytes, more than the limit of " + std::to_string(limit) + " bytes"),
+        needed_(needed),
+        limit_(limit) {}
+  /// The estimate of what the computation needs, in bytes.
+  std::uint64_t needed() const noexcept { return needed_; }
+  /// The limit it passes.
+  std::uint64_t limit() const noexcept { return limit_; }
+
+ private:
+  std::uint64_t needed_, limit_;
+};
+
+/// A stop request, a progress callback and a memory limit; all optional (the default stops
+/// nothing, reports nothing and limits nothing, at the cost of one test per few thousand steps).
 struct run_control {
   std::stop_token stop{};
   std::function<void(const progress_report&)> progress{};
+  /// Bytes one large working allocation whose size is known only during the computation may
+  /// take (0: no limit). Checked before the dense core of a Smith form is allocated (its
+  /// matrix and transforms); what a computation needs before it starts is estimated by
+  /// lacuna::estimate_homology_memory (lacuna/homology/memory_estimate.hpp).
+  std::uint64_t memory_limit = 0;
+
+  /// Throws memory_limit_exceeded if `bytes` pass memory_limit; `what` names the allocation.
+  void require_memory(std::uint64_t bytes, const char* what) const {
+    if (memory_limit != 0 && bytes > memory_limit) throw memory_limit_exceeded(bytes, memory_limit, what);
+  }
 
   /// Throws computation_stopped if a stop was requested. Safe from any thread.
   void check() const {

@@ -213,7 +213,7 @@ class cell_list {
   /// lacuna::validate).
   std::size_t add_cell(int k, std::string name, std::vector<incidence> boundary_terms) {
     auto& d = prepare(k, name);
-    const std::vector<std::size_t> written = written_faces(boundary_terms);
+    const std::vector<std::size_t> written = faces_as_written(boundary_terms);
     if (!detail::normalize_chain_if_fits(boundary_terms) || d.exact) {  // a sum beyond int64: exactly
       std::vector<exact_incidence> exact;
       exact.reserve(boundary_terms.size());
@@ -228,7 +228,7 @@ class cell_list {
   /// coefficient of the dimension fits.
   std::size_t add_cell(int k, std::string name, std::vector<exact_incidence> boundary_terms) {
     prepare(k, name);
-    const std::vector<std::size_t> written = written_faces(boundary_terms);
+    const std::vector<std::size_t> written = faces_as_written(boundary_terms);
     return add_exact(k, std::move(name), std::move(boundary_terms), written);
   }
   std::size_t add_cell(int k, std::string name, std::initializer_list<incidence> boundary_terms = {}) {
@@ -387,7 +387,7 @@ class cell_list {
 
   /// The distinct faces of the terms, sorted.
   template <class Terms>
-  static std::vector<std::size_t> written_faces(const Terms& terms) {
+  static std::vector<std::size_t> faces_as_written(const Terms& terms) {
     std::vector<std::size_t> w;
     w.reserve(terms.size());
     for (const auto& t : terms) w.push_back(t.face);

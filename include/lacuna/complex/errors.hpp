@@ -59,9 +59,12 @@ class parse_error : public std::runtime_error {
   const std::string& message() const noexcept { return message_; }
 
  private:
+  // what() is a C string: a NUL byte that reached a message would cut it short, so it is
+  // written as \x00 (the readers quote input with io::quote_text, which escapes it already)
   static std::string format(const std::string& file, std::size_t line, const std::string& message) {
-    if (line == 0) return file + ": " + message;
-    return file + ":" + std::to_string(line) + ": " + message;
+    std::string s = line == 0 ? file + ": " + message : file + ":" + std::to_string(line) + ": " + message;
+    for (std::size_t p; (p = s.find('\0')) != std::string::npos;) s.replace(p, 1, "\\x00");
+    return s;
   }
 
   std::string file_;

@@ -20,6 +20,7 @@
 #include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
+#include <lacuna/chain/boundary_squared.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
@@ -139,9 +140,18 @@ struct level_result {
   std::vector<R> orders;
 };
 
-// Dense matrix of the boundary from level L to level L-1, restricted to the core cells.
+// Dense matrix of the boundary from level L to level L-1, restricted to the core cells. Its
+// size, with the two transforms of its Smith form, is checked against control->memory_limit
+// before anything is allocated.
 template <class R, class W>
-dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_basis<R>>& lb, int L) {
+dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_basis<R>>& lb, int L,
+                            const run_control* control = nullptr) {
+  const std::uint64_t rows = lb[L - 1].core.size(), cols = lb[L].core.size();
+  if (control && control->memory_limit) {
+    const double bytes = (double(rows) * double(cols) + double(rows) * double(rows) + double(cols) * double(cols)) *
+                         double(sizeof(R));  // in double: the product of two counts may pass 2^64
+    control->require_memory(bytes >= 1.8e19 ? ~std::uint64_t{0} : static_cast<std::uint64_t>(bytes), "the dense core");
+  }
   dense_matrix<R> D(lb[L - 1].core.size(), lb[L].core.size());
   for (std::size_t j = 0; j < lb[L].core.size(); ++j)
     for (const auto& e : rc.boundary(L, lb[L].core[j])) {
@@ -176,7 +186,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
   if (!want_generators && !keep) {
     // Ranks and invariant factors of each core boundary matrix suffice.
     std::vector<smith_decomposition<R>> snf(nl + 1);
-    for (int L = 1; L < nl; ++L) snf[L] = dense_smith_form(core_matrix<R>(rc, lb, L), {.control = control});
+    for (int L = 1; L < nl; ++L) snf[L] = dense_smith_form(core_matrix<R>(rc, lb, L, control), {.control = control});
     for (int L = 0; L < nl; ++L) {
       const std::size_t rL = L >= 1 ? snf[L].rank : 0;
       const std::size_t rN = L + 1 < nl ? snf[L + 1].rank : 0;
@@ -192,7 +202,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
     const std::size_t n = b.core.size();
     smith_decomposition<R> s1;
     if (L >= 1) {
-      s1 = dense_smith_form(core_matrix<R>(rc, lb, L), {.transforms = true, .control = control});
+      s1 = dense_smith_form(core_matrix<R>(rc, lb, L, control), {.transforms = true, .control = control});
     } else {
       s1.rank = 0;
       s1.V = s1.V_inv = dense_matrix<R>::identity(n);
@@ -201,7 +211,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
     const std::size_t kdim = n - b.r;
     dense_matrix<R> M(kdim, L + 1 < nl ? lb[L + 1].core.size() : 0);
     if (L + 1 < nl && M.cols() > 0 && kdim > 0) {
-      const dense_matrix<R> P = s1.V_inv * core_matrix<R>(rc, lb, L + 1);
+      const dense_matrix<R> P = s1.V_inv * core_matrix<R>(rc, lb, L + 1, control);
       for (std::size_t i = 0; i < kdim; ++i)
         for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.r + i, j);
     }
@@ -266,6 +276,16 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     rc = reducible_complex<W>::build(c, build, unit);
   else
     rc = reducible_complex<W>::build(c, build);
+  // Precondition, checked: the boundary of a boundary is zero (chain/boundary_squared.hpp).
+  if (const auto bad = first_nonzero_boundary_squared(rc)) {
+    const int k = rc.dimension_of_level(bad->first);
+    const std::size_t i = rc.original_index(bad->first, bad->second);
+    throw invalid_complex(std::string(rc.is_dual() ? "lacuna: the coboundary of the coboundary of "
+                                                   : "lacuna: the boundary of the boundary of ") +
+                              std::to_string(k) + "-cell " + std::to_string(i) + " ('" + lacuna::cell_name(c, k, i) +
+                              "') is not zero: not a chain complex (lacuna::validate names every fault)",
+                          k, i);
+  }
   control->report("building the chain complex", 1, 1);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
@@ -570,6 +590,12 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
 /// integers give ranks and torsion). Algorithm: sparse_elimination{} (default) or
 /// dense_elimination{} (the small-matrix reference). See homology_options. `unit` is the one
 /// of R, for rings whose elements carry a run-time modulus (mod_p_dynamic(1, p)).
+/// Precondition, checked when the chain complex is built (as are cohomology's and
+/// relative_homology's; chain/boundary_squared.hpp, about a tenth of the build's cost): ∂∂ = 0
+/// in R, else lacuna::invalid_complex naming the first cell where it fails (with
+/// pre_reduction::morse on a complex other than an image or volume, the Morse complex is the
+/// one checked: lacuna::validate checks the complex itself). memory_limit_exceeded when a
+/// dense core passes options.control.memory_limit (homology/memory_estimate.hpp).
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> homology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
                             const R& unit = one<R>()) {

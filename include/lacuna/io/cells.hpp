@@ -20,6 +20,7 @@
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/io/line_reader.hpp>
 #include <lacuna/ring/integer.hpp>
 
 #include <cstddef>
@@ -47,6 +48,9 @@ struct cells_read_options {
   /// costs O(n^2) time, so this bounds the work a single term can ask for; 100000 digits (a
   /// number of about 332000 bits) take well under a second.
   std::size_t max_coefficient_digits = 100000;
+  /// The longest line, in bytes (io/line_reader.hpp): bounds the memory an endless stream
+  /// that never ends a line can take.
+  std::size_t max_line_bytes = std::size_t{1} << 24;
 };
 
 namespace cells_detail {
@@ -70,7 +74,7 @@ inline std::string near(std::string_view rest) {
   std::size_t n = 0;
   while (n < rest.size() && !is_space(rest[n]) && n < 20) ++n;
   if (n == 0) return "the end of the line";
-  return lacuna::detail::concat("'", rest.substr(0, n), "'");
+  return quote_text(rest.substr(0, n));
 }
 
 struct cursor {
@@ -141,15 +145,16 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
   using namespace cells_detail;
   cell_list out;
   std::unordered_map<std::string, declared> names;
-  std::string raw;
   std::size_t line_number = 0, total = 0;
   std::vector<exact_incidence> terms;
   std::unordered_map<std::size_t, integer> dd;
   const auto fail = [&](const std::string& message) { throw parse_error(file_name, line_number, message); };
-  while (std::getline(in, raw)) {
-    ++line_number;
-    std::string_view line(raw);
-    if (const auto hash = line.find('#'); hash != std::string_view::npos) line = line.substr(0, hash);
+  // the shared line reader: LF or CRLF, a leading byte-order mark skipped, a bare CR and an
+  // over-long line refused (io/line_reader.hpp)
+  line_reader lines(in, file_name, {.max_line_bytes = options.max_line_bytes});
+  for (std::string_view line; lines.next(line);) {
+    line_number = lines.line_number();
+    line = strip_comment(line);
     cursor cur{line};
     cur.skip();
     if (cur.done()) continue;
@@ -244,12 +249,14 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
       }
       if (zero_chain) terms.clear();
     }
-    // check ∂∂ = 0 exactly (lacuna::integer: 64-bit arithmetic inline while the numbers fit);
-    // add_cell adds up repeated faces, and keeps the faces whose coefficients cancel as
-    // written faces (cell_list::faces_as_written: a filtration waits for them)
+    // the cell keeps the faces as written (cell_list::faces_as_written: a face whose
+    // coefficients add up to zero is still a face), its boundary the exact sums; then ∂∂ = 0
+    // is checked exactly (lacuna::integer: 64-bit arithmetic inline while the numbers fit)
+    const std::size_t index = out.add_cell(dim, name, std::move(terms));
+    terms.clear();
     if (dim >= 2) {
       dd.clear();
-      for (const auto& t : terms)
+      for (const auto& t : out.boundary(dim, index))
         for (const auto& u : out.boundary(dim - 1, t.face)) dd[u.face] += t.coefficient * u.coefficient;
       std::size_t worst = std::numeric_limits<std::size_t>::max();
       for (const auto& [f, v] : dd)
@@ -258,12 +265,9 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
         fail("the boundary of the boundary of '" + name + "' is not zero (it has '" + out.cell_name(dim - 2, worst) +
              "' in it)");
     }
-    const std::size_t index = out.add_cell(dim, name, std::move(terms));
-    terms.clear();
     names.emplace(name, declared{dim, index, line_number});
     ++total;
   }
-  if (in.bad()) throw parse_error(file_name, line_number, "read error");
   return out;
 }
 

@@ -9,6 +9,8 @@
 // appearance. Errors are lacuna::parse_error, "FILE:LINE: message":
 //   * a label repeated within one line;
 //   * bytes that are not UTF-8;
+//   * the rules of every text format (io/line_reader.hpp): a bare CR, a line longer than
+//     options.max_line_bytes (a leading UTF-8 byte-order mark is skipped);
 //   * a line of more than options.max_facet_vertices labels;
 //   * facets whose closures, counted line by line before duplicates merge (2^n - 1 faces for
 //     n labels), add up to more than options.max_cells (reported at the line that crosses
@@ -21,6 +23,7 @@
 
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
+#include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/read_limits.hpp>
 
 #include <algorithm>
@@ -46,6 +49,9 @@ struct facets_read_options {
   std::size_t max_cells = std::size_t{1} << 28;
   /// The most labels one line may hold: a simplex of n vertices brings 2^n - 1 faces.
   std::size_t max_facet_vertices = 20;
+  /// The longest line, in bytes (io/line_reader.hpp): bounds the memory an endless stream
+  /// that never ends a line can take.
+  std::size_t max_line_bytes = std::size_t{1} << 24;
 };
 
 namespace facets_detail {
@@ -53,41 +59,7 @@ namespace facets_detail {
 inline bool is_space(char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n' || c == '\v' || c == '\f'; }
 
 /// True if s is well-formed UTF-8 (no overlong forms, no surrogates, at most U+10FFFF).
-inline bool valid_utf8(std::string_view s) {
-  std::size_t i = 0;
-  while (i < s.size()) {
-    const auto c = static_cast<unsigned char>(s[i]);
-    std::size_t n;
-    std::uint32_t cp;
-    if (c < 0x80) {
-      ++i;
-      continue;
-    }
-    if ((c & 0xE0) == 0xC0) {
-      n = 1;
-      cp = c & 0x1Fu;
-    } else if ((c & 0xF0) == 0xE0) {
-      n = 2;
-      cp = c & 0x0Fu;
-    } else if ((c & 0xF8) == 0xF0) {
-      n = 3;
-      cp = c & 0x07u;
-    } else {
-      return false;
-    }
-    if (i + n >= s.size()) return false;  // truncated sequence
-    for (std::size_t t = 1; t <= n; ++t) {
-      const auto d = static_cast<unsigned char>(s[i + t]);
-      if ((d & 0xC0) != 0x80) return false;
-      cp = (cp << 6) | (d & 0x3Fu);
-    }
-    if ((n == 1 && cp < 0x80) || (n == 2 && cp < 0x800) || (n == 3 && cp < 0x10000) || cp > 0x10FFFF ||
-        (cp >= 0xD800 && cp <= 0xDFFF))
-      return false;
-    i += n + 1;
-  }
-  return true;
-}
+inline bool valid_utf8(std::string_view s) { return io::valid_utf8(s); }
 
 /// True if the text can be written as a facet-list label.
 inline bool writable_label(std::string_view s) {
@@ -130,7 +102,7 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
     return slot = b.vertex_of_text(l);
   };
   auto process = [&](std::string_view line) {
-    ++line_number;
+    ++line_number;  // the same as the line reader's count
     if (const auto hash = line.find('#'); hash != std::string_view::npos) line = line.substr(0, hash);
     labels.clear();
     bool high = false;  // a byte >= 0x80: the labels need the UTF-8 check
@@ -162,7 +134,7 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
       for (std::size_t j = i + 1; j < n; ++j)
         if (labels[i] == labels[j])
           throw parse_error(file_name, line_number,
-                            "the label '" + std::string(labels[i]) + "' is repeated within one simplex");
+                            "the label " + quote_text(labels[i]) + " is repeated within one simplex");
     ids.clear();
     try {
       for (const auto l : labels) ids.push_back(vertex_of(l));
@@ -171,30 +143,13 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
       throw parse_error(file_name, line_number, e.what());
     }
   };
-  const std::size_t block =
-      left ? static_cast<std::size_t>(std::clamp<std::uint64_t>(*left + 1, 4096, std::uint64_t{1} << 20))
-           : std::size_t{1} << 20;
-  std::string buffer(block, '\0');
-  std::string carry;  // the start of a line that continues in the next block
-  for (;;) {
-    in.read(buffer.data(), static_cast<std::streamsize>(block));
-    const auto got = static_cast<std::size_t>(in.gcount());
-    if (got == 0) break;
-    const std::string_view data(buffer.data(), got);
-    std::size_t start = 0;
-    for (std::size_t nl; (nl = data.find('\n', start)) != std::string_view::npos; start = nl + 1) {
-      if (carry.empty()) {
-        process(data.substr(start, nl - start));
-      } else {
-        carry.append(data.substr(start, nl - start));
-        process(carry);
-        carry.clear();
-      }
-    }
-    carry.append(data.substr(start));
-  }
-  if (in.bad()) throw parse_error(file_name, line_number, "read error");
-  if (!carry.empty()) process(carry);  // a last line without '\n'
+  // The shared line reader (LF or CRLF, a leading byte-order mark skipped, a bare CR and an
+  // over-long line refused) in blocks sized by the file: up to 1 MiB.
+  line_reader lines(in, file_name,
+                    {.max_line_bytes = options.max_line_bytes,
+                     .block_bytes = left ? static_cast<std::size_t>(std::clamp<std::uint64_t>(*left + 1, 4096, std::uint64_t{1} << 20))
+                                         : std::size_t{1} << 20});
+  for (std::string_view line; lines.next(line);) process(line);
   try {
     return std::move(b).finalize();
   } catch (const invalid_complex& e) {

@@ -16,6 +16,7 @@
 
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/read_limits.hpp>
 
 #include <array>
@@ -24,6 +25,7 @@
 #include <filesystem>
 #include <istream>
 #include <limits>
+#include <optional>
 #include <ostream>
 #include <span>
 #include <string>
@@ -40,11 +42,25 @@ class netpbm_reader {
       : src_(in), name_(name), opt_(opt) {}
 
   cubical_complex<2> read() {
-    const int p = src_.get(), k = src_.get();
+    // a UTF-8 byte-order mark before the magic is skipped, as by every text reader
+    // (io/line_reader.hpp); the magic's bytes are read one by one, so nothing is consumed twice
+    int p = src_.get();
+    if (p == 0xEF && src_.peek() == 0xBB) {
+      src_.get();
+      if (src_.get() != 0xBF) fail(1, "not a Netpbm image (the file must begin with P1, P2, P4 or P5)");
+      p = src_.get();
+    }
+    const int k = src_.get();
     if (p != 'P' || k < '1' || k > '7') fail(1, "not a Netpbm image (the file must begin with P1, P2, P4 or P5)");
     if (k == '3' || k == '6') fail(1, "P" + std::string(1, static_cast<char>(k)) + " (colour) images are not supported; use P1, P2, P4 or P5");
     if (k == '7') fail(1, "P7 (PAM) images are not supported; use P1, P2, P4 or P5");
     kind_ = k - '0';
+    // P1 and P2 are text from end to end: the rest goes through the shared line reader (LF or
+    // CRLF, a bare CR refused, bounded lines), handed on byte by byte with '\n' between lines
+    if (kind_ == 1 || kind_ == 2) {
+      plain_size_ = remaining_bytes(src_.stream());
+      plain_.emplace(src_.stream(), name_);
+    }
     const std::uint64_t w = header_number("width"), h = header_number("height");
     const std::size_t size_line = last_token_line_;  // size errors are reported where the sizes are
     if (w == 0 || h == 0) fail(last_token_line_, "the image has no pixels (width " + std::to_string(w) + ", height " + std::to_string(h) + ")");
@@ -74,7 +90,7 @@ class netpbm_reader {
     if (min_bytes > opt_.limits.max_bytes)
       fail(size_line, "the pixel data (" + std::to_string(min_bytes) + " bytes) exceeds the limit of " +
                             std::to_string(opt_.limits.max_bytes) + " bytes");
-    const auto left = remaining_bytes(src_.stream());
+    const auto left = plain_ ? plain_left() : remaining_bytes(src_.stream());
     if (left && *left < min_bytes) {
       if (kind_ == 4 || kind_ == 5)
         fail_at(src_.offset() + *left, "pixel data truncated: the header promises " + std::to_string(min_bytes) +
@@ -116,6 +132,47 @@ class netpbm_reader {
     else
       bits.push(foreground(v));
   }
+  // the header and plain rasters: bytes from the line reader (P1, P2) or from the stream
+  int peek() {
+    if (!plain_) return src_.peek();
+    if (at_ >= text_.size() + 1) {
+      if (plain_ended_ || !plain_->next(text_)) {
+        plain_ended_ = true;
+        return -1;
+      }
+      at_ = 0;
+    }
+    return at_ < text_.size() ? static_cast<unsigned char>(text_[at_]) : '\n';
+  }
+  int get() {
+    if (!plain_) {
+      // a binary image's header is short: an endless one (spaces, a comment that never
+      // ends) is refused instead of read for ever
+      if (src_.offset() > (std::uint64_t{1} << 20))
+        fail(src_.line(), "a header longer than 1 MiB (an endless stream?)");
+      const int c = src_.get();
+      // the text rules of every reader in a binary image's header too: CR only before LF
+      if (c == '\r' && src_.peek() != '\n')
+        fail(src_.line(), "a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone");
+      return c;
+    }
+    const int c = peek();
+    if (c >= 0) ++at_;
+    return c;
+  }
+  // P1, P2: the bytes left after the next one peek() gives, if the stream can tell
+  std::optional<std::uint64_t> plain_left() const {
+    if (!plain_size_) return std::nullopt;
+    const std::uint64_t in_line = at_ <= text_.size() ? text_.size() + 1 - at_ : 0;
+    const std::uint64_t used = plain_->offset();
+    return used > *plain_size_ ? 0 : *plain_size_ - used + in_line;
+  }
+  std::size_t line() const {
+    if (!plain_) return src_.line();
+    // at the end, the line after the last LF (as a byte count of LFs would say)
+    if (plain_ended_) return plain_->line_number() + (plain_->last_line_terminated() ? 1 : 0);
+    return std::max<std::size_t>(plain_->line_number(), 1);
+  }
   bool foreground(std::uint64_t v) const {
     return opt_.threshold ? static_cast<std::int64_t>(v) >= *opt_.threshold : v != 0;
   }
@@ -123,13 +180,13 @@ class netpbm_reader {
   // skips whitespace and comments; returns the next byte (not consumed), -1 at the end
   int skip_blank() {
     for (;;) {
-      const int c = src_.peek();
+      const int c = peek();
       if (c == '#') {
-        while (src_.get() >= 0 && src_.peek() != '\n' && src_.peek() >= 0) {}
+        while (get() >= 0 && peek() != '\n' && peek() >= 0) {}
         continue;
       }
       if (c >= 0 && is_space(c)) {
-        src_.get();
+        get();
         continue;
       }
       return c < 0 ? -1 : c;
@@ -138,14 +195,14 @@ class netpbm_reader {
 
   std::uint64_t header_number(const char* what) {
     const int first = skip_blank();
-    if (first < 0) fail(src_.line(), std::string("the file ends before the ") + what);
-    const std::size_t line = src_.line();
-    last_token_line_ = line;
+    if (first < 0) fail(line(), std::string("the file ends before the ") + what);
+    const std::size_t ln = line();
+    last_token_line_ = ln;
     std::string digits;
-    while (src_.peek() >= 0 && !is_space(src_.peek()) && src_.peek() != '#' && digits.size() < 32)
-      digits.push_back(static_cast<char>(src_.get()));
+    while (peek() >= 0 && !is_space(peek()) && peek() != '#' && digits.size() < 32)
+      digits.push_back(static_cast<char>(get()));
     const auto v = parse_unsigned(digits);
-    if (!v) fail(line, std::string("bad ") + what + " " + quote_token(digits));
+    if (!v) fail(ln, std::string("bad ") + what + " " + quote_token(digits));
     return *v;
   }
 
@@ -154,19 +211,19 @@ class netpbm_reader {
     for (std::size_t i = 0; i < total; ++i) {
       const int c = skip_blank();
       if (c < 0)
-        fail(src_.line(), "the file ends after " + std::to_string(i) + " of " + std::to_string(total) + " pixels");
+        fail(line(), "the file ends after " + std::to_string(i) + " of " + std::to_string(total) + " pixels");
       if (kind_ == 1) {
-        src_.get();
-        if (c != '0' && c != '1') fail(src_.line(), "bad pixel " + quote_token(std::string(1, static_cast<char>(c))) + " (PBM pixels are 0 or 1)");
+        get();
+        if (c != '0' && c != '1') fail(line(), "bad pixel " + quote_token(std::string(1, static_cast<char>(c))) + " (PBM pixels are 0 or 1)");
         push(bits, c == '1' ? 1 : 0);
       } else {
-        const std::size_t line = src_.line();
+        const std::size_t ln = line();
         std::string digits;
-        while (src_.peek() >= 0 && !is_space(src_.peek()) && src_.peek() != '#' && digits.size() < 32)
-          digits.push_back(static_cast<char>(src_.get()));
+        while (peek() >= 0 && !is_space(peek()) && peek() != '#' && digits.size() < 32)
+          digits.push_back(static_cast<char>(get()));
         const auto v = parse_unsigned(digits);
-        if (!v) fail(line, "bad sample " + quote_token(digits));
-        if (*v > maxval_) fail(line, "sample " + std::to_string(*v) + " exceeds maxval " + std::to_string(maxval_));
+        if (!v) fail(ln, "bad sample " + quote_token(digits));
+        if (*v > maxval_) fail(ln, "sample " + std::to_string(*v) + " exceeds maxval " + std::to_string(maxval_));
         push(bits, *v);
       }
     }
@@ -199,6 +256,11 @@ class netpbm_reader {
   }
 
   byte_source src_;
+  std::optional<line_reader> plain_;  // P1, P2: the text after the magic
+  std::optional<std::uint64_t> plain_size_;  // its size, if the stream can tell
+  std::string_view text_;             // its current line
+  bool plain_ended_ = false;
+  std::size_t at_ = 1;                // the next byte of text_; text_.size() stands for its '\n'
   const std::string& name_;
   const image_options& opt_;
   int kind_ = 0;

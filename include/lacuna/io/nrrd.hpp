@@ -36,6 +36,7 @@
 #include <filesystem>
 #include <istream>
 #include <limits>
+#include <new>
 #include <optional>
 #include <ostream>
 #include <span>
@@ -74,7 +75,7 @@ inline std::string_view trim(std::string_view s) {
 class nrrd_reader {
  public:
   nrrd_reader(std::istream& in, const std::string& name, const read_limits& limits)
-      : src_(in), name_(name), limits_(limits) {}
+      : lines_(in, name, {.max_line_bytes = 65536, .read_ahead = false}), src_(in), name_(name), limits_(limits) {}
 
   nrrd_header read_header(int max_dimension) {
     nrrd_header h;
@@ -159,6 +160,7 @@ class nrrd_reader {
     if (!mul(bytes, h.bytes_per_sample()) || bytes > limits_.max_bytes)
       fail(sizes_line, "the data (" + std::to_string(voxels) + " samples) exceeds the limit of " +
                            std::to_string(limits_.max_bytes) + " bytes");
+    src_.set_position(lines_.bytes_consumed(), end + 1);
     h.data_offset = src_.offset();
     h.header_lines = end;
     return h;
@@ -217,16 +219,15 @@ class nrrd_reader {
     throw parse_error(name_, 0, "byte offset " + std::to_string(offset) + ": " + msg);
   }
 
-  // one header line (without its '\n'); false at the end of the file with nothing read
+  // one header line (without its LF or CRLF) through the shared line reader, which never
+  // reads past the line: the samples follow the header at once; false at the end of the file
   bool next_line(std::string& line) {
-    line.clear();
-    if (src_.peek() < 0) return false;
-    ++line_;
-    for (int c = src_.get(); c >= 0 && c != '\n'; c = src_.get()) {
-      if (line.size() >= 65536) fail(line_, "header line longer than 65536 bytes");
-      line.push_back(static_cast<char>(c));
-    }
-    if (!line.empty() && line.back() == '\r') line.pop_back();  // CRLF headers
+    std::string_view v;
+    if (lines_.bytes_consumed() > (std::uint64_t{1} << 24))
+      fail(line_ + 1, "a header longer than 16 MiB (an endless stream?)");
+    if (!lines_.next(v)) return false;
+    line.assign(v);
+    line_ = lines_.line_number();
     return true;
   }
 
@@ -288,7 +289,11 @@ class nrrd_reader {
   void read_gzip(bit_sink& bits) {
 #ifdef LACUNA_NRRD_GZIP
     z_stream zs{};
-    if (inflateInit2(&zs, 15 + 32) != Z_OK) fail_at(header_->data_offset, "cannot start gzip decompression");
+    // zlib's own allocations failing are running out of memory, not bad data
+    if (const int r = inflateInit2(&zs, 15 + 32); r != Z_OK) {
+      if (r == Z_MEM_ERROR) throw std::bad_alloc();
+      fail_at(header_->data_offset, "cannot start gzip decompression");
+    }
     struct guard {
       z_stream* z;
       ~guard() { inflateEnd(z); }
@@ -309,6 +314,7 @@ class nrrd_reader {
       zs.next_out = out.data();
       zs.avail_out = static_cast<uInt>(out.size());
       ret = inflate(&zs, Z_NO_FLUSH);
+      if (ret == Z_MEM_ERROR) throw std::bad_alloc();
       if (ret != Z_OK && ret != Z_STREAM_END && ret != Z_BUF_ERROR)
         fail_at(header_->data_offset + (compressed - zs.avail_in),
                 std::string("gzip data corrupt (") + (zs.msg ? zs.msg : "zlib error " + std::to_string(ret)) + ")");
@@ -330,7 +336,8 @@ class nrrd_reader {
 #endif
   }
 
-  byte_source src_;
+  line_reader lines_;  // the header (io/line_reader.hpp)
+  byte_source src_;    // the samples
   const std::string& name_;
   const read_limits& limits_;
   std::size_t line_ = 0;

@@ -13,6 +13,7 @@
 
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/polygon_mesh.hpp>
+#include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/read_limits.hpp>
 
 #include <array>
@@ -32,7 +33,7 @@ namespace detail {
 class obj_reader {
  public:
   obj_reader(std::istream& in, const std::string& name, const read_limits& limits)
-      : src_(in), name_(name), limits_(limits) {}
+      : lines_(in, name), name_(name), limits_(limits) {}
 
   polygon_mesh read() {
     std::vector<std::array<double, 3>> positions;
@@ -91,15 +92,15 @@ class obj_reader {
   // one logical line, joining lines that end in '\'; remembers the line it starts on
   bool next_statement(std::string& out) {
     out.clear();
-    std::string part;
+    std::string_view part;
     bool any = false;
     for (;;) {
-      if (!read_line(src_, part, name_, line_ + 1)) return any;
-      ++line_;
+      if (!lines_.next(part)) return any;
+      line_ = lines_.line_number();
       if (!any) start_line_ = line_;
       any = true;
       if (!part.empty() && part.back() == '\\') {
-        part.pop_back();
+        part.remove_suffix(1);
         out += part;
         out += ' ';
         if (out.size() > (std::size_t{1} << 24)) fail("statement longer than 16 MiB");
@@ -110,7 +111,7 @@ class obj_reader {
     }
   }
 
-  byte_source src_;
+  line_reader lines_;  // the shared line reader (io/line_reader.hpp)
   const std::string& name_;
   const read_limits& limits_;
   std::size_t line_ = 0, start_line_ = 0;

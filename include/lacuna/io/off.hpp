@@ -18,6 +18,7 @@
 
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/polygon_mesh.hpp>
+#include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/read_limits.hpp>
 
 #include <array>
@@ -25,6 +26,7 @@
 #include <cstdint>
 #include <filesystem>
 #include <istream>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -36,7 +38,7 @@ namespace detail {
 class off_reader {
  public:
   off_reader(std::istream& in, const std::string& name, const read_limits& limits)
-      : src_(in), name_(name), limits_(limits) {}
+      : size_(remaining_bytes(in)), lines_(in, name), name_(name), limits_(limits) {}
 
   polygon_mesh read() {
     // ---- header keyword and counts ----
@@ -80,7 +82,8 @@ class off_reader {
                             " faces, more than the limit of " + std::to_string(limits_.max_cells) + " cells");
     // every vertex and face takes a line of at least 2 bytes (the last may lack its newline); a
     // looser bound than a valid line needs, so that a short file still gets the precise error
-    const auto left = remaining_bytes(src_.stream());
+    const std::optional<std::uint64_t> left =
+        size_ ? std::optional<std::uint64_t>(*size_ - std::min(*size_, lines_.offset())) : std::nullopt;
     if (left && *nv + *nf > (*left + 1) / 2)
       fail(counts_line, "the header claims " + std::to_string(*nv) + " vertices and " + std::to_string(*nf) +
                             " faces, but the file holds only " + std::to_string(*left) + " more bytes");
@@ -143,10 +146,9 @@ class off_reader {
 
   // moves to the next line with a token (comments stripped); false at the end of the file
   bool next_significant() {
-    while (read_line(src_, buf_, name_, line_ + 1)) {
-      ++line_;
-      std::string_view l = buf_;
-      if (const auto hash = l.find('#'); hash != std::string_view::npos) l = l.substr(0, hash);
+    for (std::string_view l; lines_.next(l);) {
+      line_ = lines_.line_number();
+      l = strip_comment(l);
       std::string_view probe = l;
       if (!next_token(probe).empty()) {
         rest_ = l;
@@ -178,10 +180,10 @@ class off_reader {
     if (four_) dim = 4;
   }
 
-  byte_source src_;
+  std::optional<std::uint64_t> size_;  // of the input, when the stream can tell
+  line_reader lines_;                   // the shared line reader (io/line_reader.hpp)
   const std::string& name_;
   const read_limits& limits_;
-  std::string buf_;
   std::string_view rest_;
   std::size_t line_ = 0;
   bool four_ = false, need_dim_ = false;

@@ -8,6 +8,7 @@
 #pragma once
 
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/io/line_reader.hpp>
 
 #include <algorithm>
 #include <charconv>
@@ -106,19 +107,17 @@ inline std::string_view next_token(std::string_view& s) {
   return t;
 }
 
-/// Quotes a token for an error message, shortened when long.
-inline std::string quote_token(std::string_view t) {
-  std::string s = "'";
-  s.append(t.substr(0, 40));
-  if (t.size() > 40) s.append("...");
-  s.push_back('\'');
-  return s;
-}
+/// Quotes a token for an error message, shortened when long; control bytes (NUL included)
+/// and bytes that are not UTF-8 are shown as \xHH (io/line_reader.hpp, quote_text).
+inline std::string quote_token(std::string_view t) { return quote_text(t, 40); }
 
 /// Reads a stream byte by byte through its buffer, counting bytes and lines.
 class byte_source {
  public:
-  explicit byte_source(std::istream& in) : in_(in), sb_(in.rdbuf()) {}
+  /// `offset` and `line`: where the stream stands in the input (after a header read by a
+  /// line_reader, say).
+  explicit byte_source(std::istream& in, std::uint64_t offset = 0, std::size_t line = 1)
+      : in_(in), sb_(in.rdbuf()), offset_(offset), line_(line) {}
   /// The next byte, or -1 at the end.
   int peek() { return sb_ ? sb_->sgetc() : -1; }
   int get() {
@@ -141,6 +140,12 @@ class byte_source {
     offset_ += got;
     return got;
   }
+  /// Says that the stream now stands `offset` bytes into the input, at line `line` (after a
+  /// header read through a line_reader on the same stream).
+  void set_position(std::uint64_t offset, std::size_t line) noexcept {
+    offset_ = offset;
+    line_ = line;
+  }
   /// Bytes consumed so far (from where the reader started).
   std::uint64_t offset() const noexcept { return offset_; }
   /// The 1-based line of the next byte.
@@ -153,20 +158,6 @@ class byte_source {
   std::uint64_t offset_ = 0;
   std::size_t line_ = 1;
 };
-
-/// Reads one line (without '\n'; a final '\r' is dropped) into `line`; false at the end of the
-/// input with nothing read. Lines longer than `cap` bytes are refused with "FILE:LINE: ...".
-inline bool read_line(byte_source& src, std::string& line, const std::string& name, std::size_t line_number,
-                      std::size_t cap = std::size_t{1} << 24) {
-  line.clear();
-  if (src.peek() < 0) return false;
-  for (int c = src.get(); c >= 0 && c != '\n'; c = src.get()) {
-    if (line.size() >= cap) throw parse_error(name, line_number, "line longer than " + std::to_string(cap) + " bytes");
-    line.push_back(static_cast<char>(c));
-  }
-  if (!line.empty() && line.back() == '\r') line.pop_back();
-  return true;
-}
 
 /// Appends bits to a voxel bitmap, growing it only as bits arrive.
 class bit_sink {

@@ -12,11 +12,17 @@
 // from memory). The face relation is read from the non-zero boundary coefficients. Vertex k, i
 // is labelled "{NAME}" with whitespace runs of the name turned into ',' (so a simplicial
 // complex gives the same result through either overload); if two labels collide, every vertex
-// is labelled "{e<k>_<i>}". Regularity is a precondition that is not checked: for the
-// one-vertex torus, say, the order complex is not the torus.
+// is labelled "{e<k>_<i>}". Regularity is a precondition, checked by what it implies and can be
+// seen cheaply (detail::require_regular, in O(sum over cells of |∂c| |∂ of a face|)): every
+// incidence is ±1, an edge has two distinct vertices, and between a cell and a face of its
+// face there are exactly two cells (the diamond property of the face poset of a regular
+// complex; Björner 1984, from memory). A complex failing it — the one-vertex torus, whose
+// edges have boundary v − v — raises lacuna::invalid_complex naming the cell; one that passes
+// it and is still not regular is not caught (a ball's boundary that is not a sphere).
 #pragma once
 
 #include <lacuna/complex/concepts.hpp>
+#include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
 
 #include <unordered_set>
@@ -67,11 +73,70 @@ simplicial_complex<std::string> barycentric_subdivision(const simplicial_complex
   return std::move(b).finalize();
 }
 
+namespace detail {
+
+/// Throws lacuna::invalid_complex naming the first cell (by dimension, then index) where the
+/// face relation of c cannot be that of a regular cell complex (see the top of this header).
+template <cell_complex C>
+void require_regular(const C& c) {
+  const int top = lacuna::top_dimension(c);
+  std::vector<std::pair<std::size_t, std::int64_t>> faces;
+  std::vector<std::size_t> below;
+  for (int k = 1; k <= top; ++k)
+    for (std::size_t i = 0; i < lacuna::cell_count(c, k); ++i) {
+      const auto fail = [&](const std::string& why) {
+        throw invalid_complex("barycentric_subdivision: the complex is not regular: the " + std::to_string(k) +
+                                  "-cell " + std::to_string(i) + " ('" + lacuna::cell_name(c, k, i) + "') " + why,
+                              k, i);
+      };
+      faces.clear();
+      for (const auto& t : lacuna::boundary(c, k, i)) {
+        const incidence f = as_incidence(t);
+        if (f.coefficient != 0) faces.emplace_back(f.face, f.coefficient);
+      }
+      std::sort(faces.begin(), faces.end());
+      std::size_t o = 0;  // repeated faces add up
+      for (std::size_t s = 0; s < faces.size();) {
+        std::int64_t sum = 0;
+        const std::size_t f = faces[s].first;
+        for (; s < faces.size() && faces[s].first == f; ++s) sum += faces[s].second;
+        if (sum != 0) faces[o++] = {f, sum};
+      }
+      faces.resize(o);
+      if (faces.empty()) fail("has no faces (its boundary is zero)");
+      for (const auto& [f, a] : faces)
+        if (a != 1 && a != -1)
+          fail("meets the face '" + lacuna::cell_name(c, k - 1, f) + "' with incidence " + std::to_string(a) +
+               " (a regular complex has incidences 0 and ±1)");
+      if (k == 1) {
+        if (faces.size() != 2) fail("has " + std::to_string(faces.size()) + " end vertex instead of two");
+        continue;
+      }
+      below.clear();  // the faces of the faces, once per path: each must be met exactly twice
+      for (const auto& [f, a] : faces)
+        for (const auto& t : lacuna::boundary(c, k - 1, f))
+          if (as_incidence(t).coefficient != 0) below.push_back(incidence_face(t));
+      std::sort(below.begin(), below.end());
+      for (std::size_t s = 0; s < below.size();) {
+        std::size_t e = s;
+        while (e < below.size() && below[e] == below[s]) ++e;
+        if (e - s != 2)
+          fail("and its face of a face '" + lacuna::cell_name(c, k - 2, below[s]) + "' have " + std::to_string(e - s) +
+               " cells between them instead of two");
+        s = e;
+      }
+    }
+}
+
+}  // namespace detail
+
 /// The barycentric subdivision of a regular cell complex (the order complex of its face
 /// poset) as a simplicial_complex<std::string>; χ(sd X) = χ(X). One facet per maximal chain
-/// τ_top > face > ... > vertex.
+/// τ_top > face > ... > vertex. Throws lacuna::invalid_complex naming a cell when c is seen
+/// not to be regular (see the top of this header).
 template <cell_complex C>
 simplicial_complex<std::string> barycentric_subdivision(const C& c) {
+  detail::require_regular(c);
   using out_t = simplicial_complex<std::string>;
   const int top = lacuna::top_dimension(c);
   std::vector<std::size_t> first;
