@@ -4,6 +4,7 @@
 // layout, the order of the pairs, values as the shortest decimal that reads back as the same
 // double, and exit status 2 with one line on stderr for every bad input.
 #include "persistence.hpp"
+#include "options.hpp"
 
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
@@ -321,7 +322,7 @@ void write_file(const std::string& path, const std::string& content) {
 persistence_command::persistence_command(CLI::App& app) {
   sub_ = app.add_subcommand("persistence", "persistent homology: diagrams of a filtration over a field");
   sub_->add_option("--coefficients", s_.coefficients, "Z/p for a prime p (default Z/2), or Q");
-  sub_->add_option("--max-dimension", s_.max_dimension,
+  sub_->add_option("--max-dimension", s_.max_dimension_text,
                    "diagrams of dimensions 0..D (default: 1 for point clouds and distance matrices, the top "
                    "dimension otherwise)")
       ->type_name("D");
@@ -340,7 +341,7 @@ persistence_command::persistence_command(CLI::App& app) {
 bool persistence_command::parsed() const { return sub_ && sub_->parsed(); }
 
 int persistence_command::run(const run_context& context) const {
-  const auto& s = s_;
+  settings s = s_;
   const auto one_line = [](std::string m) {
     for (auto& ch : m)
       if (static_cast<unsigned char>(ch) < 0x20 || ch == 0x7f) ch = '?';
@@ -348,9 +349,9 @@ int persistence_command::run(const run_context& context) const {
   };
   try {
     const field_choice field = parse_field(s.coefficients);
-    if (s.max_dimension && (*s.max_dimension < 0 || *s.max_dimension > max_dimension_limit))
-      throw bad_input("lacuna: --max-dimension " + std::to_string(*s.max_dimension) + ": expected 0 to " +
-                      std::to_string(max_dimension_limit));
+    // The one number parser of the tool (options.hpp): decimal only, "010" is 10, "" refused.
+    if (s.max_dimension_text)
+      s.max_dimension = parse_number<long long>(*s.max_dimension_text, "--max-dimension", 0, max_dimension_limit);
     check_input(s.file);
     const std::string ext = extension_of(s.file);
     const bool cloud = ext == ".points" || ext == ".csv" || ext == ".distances";
@@ -395,6 +396,9 @@ int persistence_command::run(const run_context& context) const {
     return 0;
   } catch (const lacuna::computation_stopped&) {
     return context.interrupted ? context.interrupted() : 130;
+  } catch (const option_error& e) {
+    std::cerr << one_line(e.what()) << "\n";
+    return 2;
   } catch (const bad_input& e) {
     std::cerr << one_line(e.what()) << "\n";
   } catch (const lacuna::parse_error& e) {

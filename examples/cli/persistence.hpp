@@ -38,7 +38,8 @@ class persistence_command {
   struct settings {
     std::string file;
     std::string coefficients = "Z/2";
-    std::optional<long long> max_dimension{};
+    std::optional<std::string> max_dimension_text{};  ///< as given; read by options.hpp
+    std::optional<long long> max_dimension{};         ///< its value, set by run()
     std::optional<std::string> up_to{};
     std::string values;
     bool superlevel = false;

@@ -226,6 +226,13 @@ TEST_CASE("persistence: every bad input is exit status 2 and one line") {
   CHECK(expect_error(run({"persistence", "--max-dimension", "-1", sq})).find("max-dimension") != std::string::npos);
   CHECK(expect_error(run({"persistence", "--max-dimension", "5000", sq})).find("max-dimension") != std::string::npos);
   CHECK(expect_error(run({"persistence", "--max-dimension", "x", sq})).find("max-dimension") != std::string::npos);
+  // One number parser for every option (issue 14 item 1): decimal only, never octal; empty refused.
+  CHECK(expect_error(run({"persistence", "--max-dimension", "", sq})).find("the value is empty") != std::string::npos);
+  CHECK(expect_error(run({"persistence", "--max-dimension", "0x1", sq})).find("read in base 10") != std::string::npos);
+  CHECK(persistence_cli_test::json_of({"persistence", "--json", "--max-dimension", "010", sq}) ==
+        persistence_cli_test::json_of({"persistence", "--json", "--max-dimension", "10", sq}));
+  CHECK(persistence_cli_test::json_of({"persistence", "--json", "--max-dimension", "01", sq}) ==
+        persistence_cli_test::json_of({"persistence", "--json", "--max-dimension", "1", sq}));
   CHECK(expect_error(run({"persistence", "--up-to", ".5", sq})) ==
         "lacuna: --up-to '.5' is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
   CHECK(expect_error(run({"persistence", "--superlevel", sq})).find("--superlevel applies to images") !=

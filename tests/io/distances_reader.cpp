@@ -111,7 +111,7 @@ TEST_CASE("distances: malformed files give FILE:LINE: message") {
   CHECK(distances_error("0,,1\n") ==
         "test.distances:1: the 2nd field is empty (two commas in a row, or a comma at the start or end of the line)");
   CHECK(distances_error("0 1\r1 0\n") ==
-        "test.distances:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF");
+        "test.distances:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone");
   CHECK(distances_error("0 nan\nnan 0\n") ==
         "test.distances:1: row 1, column 2 'nan' is not a number (every number must be finite)");
 }
@@ -129,7 +129,7 @@ TEST_CASE("distances: limits, checked before the memory they guard is taken") {
   {
     io_endless_stream::endless_stream in("", "0 ");
     CHECK_THROWS_WITH_AS(lacuna::io::read_distances(in, "endless", {.max_line_bytes = 100000}),
-                         "endless:1: a line longer than 100000 bytes (the limit of the reader)", lacuna::parse_error);
+                         "endless:1: a line longer than 100000 bytes (the limit of the reader; lines end in LF or CRLF)", lacuna::parse_error);
     CHECK(in.served() < 100000 + (std::size_t{1} << 17));
   }
   // an endless lower triangle (row i: i - 1 ones, then the zero diagonal) stops at max_numbers:

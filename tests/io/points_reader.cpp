@@ -117,7 +117,7 @@ TEST_CASE("points: malformed files give FILE:LINE: message") {
        "the 2nd field is empty (two commas in a row, or a comma at the start or end of the line)"},
       {"points_infinite.points", 1, "the 2nd coordinate 'inf' is not a number (every number must be finite)"},
       {"points_huge.points", 2, "the 1st coordinate '1e400' is too large for a double (at most about 1.8e308)"},
-      {"points_bare_cr.points", 1, "a carriage return (CR) that does not end the line: lines end in LF or CRLF"},
+      {"points_bare_cr.points", 1, "a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone"},
       {"points_nul.points", 2, "a control character (byte 0x00) in column 3: the file is not text"},
   };
   for (const auto& e : cases) {
@@ -160,10 +160,10 @@ TEST_CASE("points: line ends, byte-order marks and control characters") {
   CHECK(all(parse_points("1 2\r\n3 4\r\n")) == std::vector<double>{1, 2, 3, 4});
   CHECK(all(parse_points("1 2\r\n3 4")) == std::vector<double>{1, 2, 3, 4});
   // a CR not followed by LF is refused, also at the very end of the file
-  CHECK(points_error("1 2\r3 4\n") == "test.points:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF");
-  CHECK(points_error("1 2\n3 4\r") == "test.points:2: a carriage return (CR) that does not end the line: lines end in LF or CRLF");
+  CHECK(points_error("1 2\r3 4\n") == "test.points:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone");
+  CHECK(points_error("1 2\n3 4\r") == "test.points:2: a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone");
   CHECK(points_error("1 2\n3 4\r\r\n") ==
-        "test.points:2: a carriage return (CR) that does not end the line: lines end in LF or CRLF");
+        "test.points:2: a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone");
   // a byte-order mark is skipped at the start of the file only
   CHECK(all(parse_points("\xEF\xBB\xBF" "1 2\n")) == std::vector<double>{1, 2});
   CHECK(points_error("1 2\n\xEF\xBB\xBF" "3 4\n") ==
@@ -185,7 +185,7 @@ TEST_CASE("points: limits, checked before the memory they guard is taken") {
   CHECK(points_error("1 2\n3 4\n5 6\n", {.max_numbers = 5}) ==
         "test.points:3: more than 5 coordinates in all (the limit of the reader)");
   CHECK(points_error("1 2\n3   4\n", {.max_line_bytes = 4}) ==
-        "test.points:2: a line longer than 4 bytes (the limit of the reader)");
+        "test.points:2: a line longer than 4 bytes (the limit of the reader; lines end in LF or CRLF)");
   CHECK(parse_points("1 2\r\n", {.max_line_bytes = 3}).size() == 1);  // the CR of a CRLF is not counted
   // an endless stream of points stops at max_points, having read little more than that
   {
@@ -198,7 +198,7 @@ TEST_CASE("points: limits, checked before the memory they guard is taken") {
   {
     io_endless_stream::endless_stream in("1 2\n", "1 ");
     CHECK_THROWS_WITH_AS(lacuna::io::read_points(in, "endless", {.max_line_bytes = 100000}),
-                         "endless:2: a line longer than 100000 bytes (the limit of the reader)", lacuna::parse_error);
+                         "endless:2: a line longer than 100000 bytes (the limit of the reader; lines end in LF or CRLF)", lacuna::parse_error);
     CHECK(in.served() < 100000 + (std::size_t{1} << 17));
   }
   // an endless run of CRs is one endless line: refused at the line limit

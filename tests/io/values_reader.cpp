@@ -125,7 +125,7 @@ TEST_CASE("values: errors of the file alone, at their line") {
                               "decimal point, as in 0.5 or 1.0)");
   CHECK(values_error("p -inf\n") == "test.values:1: the value '-inf' is not a number (every number must be finite)");
   CHECK(values_error("p 1\rq 2\n") ==
-        "test.values:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF");
+        "test.values:1: a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone");
   CHECK(values_error(std::string("p 1\nq\0 2\n", 9)) ==
         "test.values:2: a control character (byte 0x00) in column 2: the file is not text");
   CHECK(parse_values("\xEF\xBB\xBFp 1\n").name(0, 0) == "p");  // a byte-order mark at the start is skipped

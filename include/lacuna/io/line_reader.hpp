@@ -165,7 +165,7 @@ class line_reader {
   bool finish(std::string_view raw, std::string_view& line) {
     ++line_number_;
     if (line_number_ == 1 && raw.size() >= 3 && raw.substr(0, 3) == "\xEF\xBB\xBF") raw.remove_prefix(3);
-    if (!raw.empty() && raw.back() == '\r') raw.remove_suffix(1);
+    if (terminated_ && !raw.empty() && raw.back() == '\r') raw.remove_suffix(1);  // CRLF; a CR at the very end is bare
     if (raw.size() > opt_.max_line_bytes) fail(too_long_message());
     if (std::memchr(raw.data(), '\r', raw.size()) != nullptr)
       fail("a carriage return (CR) that does not end the line: lines end in LF or CRLF, not in CR alone");

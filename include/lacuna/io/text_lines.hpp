@@ -1,6 +1,6 @@
 // lacuna/io/text_lines.hpp — what the line-oriented text readers of persistence input share
-// (point clouds, distance matrices, value files): a bounded line reader, the field splitter
-// and the decimal numbers of the format.
+// (point clouds, distance matrices, value files): their line rules on top of the one line
+// reader (io/line_reader.hpp), the field splitter and the decimal numbers of the format.
 //
 // The rules every one of these readers applies (docs/persistence-io.md):
 //   * lines end in LF or CRLF; a carriage return anywhere else (a bare CR, as old Mac files
@@ -23,6 +23,7 @@
 #pragma once
 
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/io/line_reader.hpp>
 
 #include <charconv>
 #include <cstddef>
@@ -38,144 +39,43 @@ namespace lacuna::io {
 
 namespace text_detail {
 
-/// Quotes input text for a message: at most `max_bytes` bytes (then "..."), control bytes and
-/// bytes that are not part of well-formed UTF-8 written as \xHH, so a message is always one
-/// line of valid UTF-8 and never cut short by a NUL.
-inline std::string quote(std::string_view s, std::size_t max_bytes = 40) {
-  std::string out = "'";
-  const auto hex = [&](unsigned char c) {
-    constexpr char digits[] = "0123456789abcdef";
-    out += "\\x";
-    out += digits[c >> 4];
-    out += digits[c & 15];
-  };
-  std::size_t i = 0;
-  while (i < s.size() && i < max_bytes) {
-    const auto c = static_cast<unsigned char>(s[i]);
-    if (c < 0x20 || c == 0x7F) {
-      hex(c);
-      ++i;
-      continue;
-    }
-    if (c < 0x80) {
-      out += static_cast<char>(c);
-      ++i;
-      continue;
-    }
-    // a multi-byte sequence: copy it if it is well formed, else escape its first byte
-    std::size_t n = 0;
-    std::uint32_t cp = 0;
-    if ((c & 0xE0) == 0xC0) {
-      n = 1;
-      cp = c & 0x1Fu;
-    } else if ((c & 0xF0) == 0xE0) {
-      n = 2;
-      cp = c & 0x0Fu;
-    } else if ((c & 0xF8) == 0xF0) {
-      n = 3;
-      cp = c & 0x07u;
-    }
-    bool ok = n > 0 && i + n < s.size();
-    for (std::size_t t = 1; ok && t <= n; ++t) {
-      const auto d = static_cast<unsigned char>(s[i + t]);
-      ok = (d & 0xC0) == 0x80;
-      cp = (cp << 6) | (d & 0x3Fu);
-    }
-    ok = ok && !((n == 1 && cp < 0x80) || (n == 2 && cp < 0x800) || (n == 3 && cp < 0x10000) || cp > 0x10FFFF ||
-                 (cp >= 0xD800 && cp <= 0xDFFF));
-    if (ok) {
-      out.append(s.substr(i, n + 1));
-      i += n + 1;
-    } else {
-      hex(c);
-      ++i;
-    }
-  }
-  if (i < s.size()) out += "...";
-  out += '\'';
-  return out;
-}
+/// Quotes input text for a message (the quoting of every reader: io/line_reader.hpp).
+inline std::string quote(std::string_view s, std::size_t max_bytes = 40) { return quote_text(s, max_bytes); }
 
-/// Reads a text stream line by line in blocks, enforcing the rules at the top of this header.
-/// `next` hands out each line without its terminator and without its comment.
+/// The one line reader of the library (io/line_reader.hpp: LF or CRLF, a bare CR refused, a
+/// leading byte-order mark skipped, the line length bounded before it is buffered), with the
+/// two rules these formats add: the comment is removed, and a control character is an error.
 class line_reader {
  public:
   line_reader(std::istream& in, std::string file, std::size_t max_line_bytes)
-      : in_(in), file_(std::move(file)), max_line_(max_line_bytes), buffer_(block_size, '\0') {}
+      : lines_(in, std::move(file), line_reader_options{.max_line_bytes = max_line_bytes}) {}
 
   /// The next line (its comment removed), or false at the end of the input.
   bool next(std::string_view& line) {
-    line_.clear();
-    bool any = false, ended = false;
-    for (;;) {
-      if (pos_ == end_ && !refill()) {
-        if (!any) return false;
-        break;
-      }
-      any = true;
-      const char* start = buffer_.data() + pos_;
-      const void* nl = std::memchr(start, '\n', end_ - pos_);
-      const std::size_t take = nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - start) : end_ - pos_;
-      if (line_.size() + take > max_line_ + 1)  // + 1: a CR before the LF is not counted
-        fail_at(line_number_ + 1, "a line longer than " + std::to_string(max_line_) + " bytes (the limit of the reader)");
-      line_.append(start, take);
-      pos_ += take;
-      if (nl) {
-        ++pos_;
-        ended = true;
-        break;
-      }
-    }
-    ++line_number_;
-    if (ended && !line_.empty() && line_.back() == '\r') line_.pop_back();
-    if (line_.size() > max_line_)
-      fail("a line longer than " + std::to_string(max_line_) + " bytes (the limit of the reader)");
-    if (line_number_ == 1 && line_.size() >= 3 && line_.compare(0, 3, "\xEF\xBB\xBF") == 0) line_.erase(0, 3);
-    std::size_t comment = line_.size();
-    for (std::size_t i = 0; i < line_.size(); ++i) {
-      const auto c = static_cast<unsigned char>(line_[i]);
-      if (c == '#' && comment == line_.size()) comment = i;
-      if (c == '\r')
-        fail("a carriage return (CR) that does not end the line: lines end in LF or CRLF");
+    std::string_view raw;
+    if (!lines_.next(raw)) return false;
+    for (std::size_t i = 0; i < raw.size(); ++i) {
+      const auto c = static_cast<unsigned char>(raw[i]);
       if ((c < 0x20 && c != '\t') || c == 0x7F) {
         constexpr char digits[] = "0123456789abcdef";
         fail(std::string("a control character (byte 0x") + digits[c >> 4] + digits[c & 15] + ") in column " +
              std::to_string(i + 1) + ": the file is not text");
       }
     }
-    line = std::string_view(line_).substr(0, comment);
+    line = strip_comment(raw);
     return true;
   }
 
   /// The 1-based number of the line last returned (0 before the first).
-  std::size_t line_number() const noexcept { return line_number_; }
-  const std::string& file() const noexcept { return file_; }
+  std::size_t line_number() const noexcept { return lines_.line_number(); }
+  const std::string& file() const noexcept { return lines_.file_name(); }
 
   /// Throws parse_error at the line last returned.
-  [[noreturn]] void fail(const std::string& message) const { fail_at(line_number_, message); }
-  [[noreturn]] void fail_at(std::size_t line, const std::string& message) const {
-    throw parse_error(file_, line, message);
-  }
+  [[noreturn]] void fail(const std::string& message) const { lines_.fail(message); }
+  [[noreturn]] void fail_at(std::size_t line, const std::string& message) const { lines_.fail_at(line, message); }
 
  private:
-  static constexpr std::size_t block_size = std::size_t{1} << 16;
-
-  bool refill() {
-    if (!in_.good()) return false;
-    in_.read(buffer_.data(), static_cast<std::streamsize>(buffer_.size()));
-    end_ = static_cast<std::size_t>(in_.gcount());
-    pos_ = 0;
-    if (in_.bad()) fail_at(line_number_ + 1, "read error");
-    return end_ > 0;
-  }
-
-  std::istream& in_;
-  std::string file_;
-  std::size_t max_line_;
-  std::string buffer_;
-  std::size_t pos_ = 0, end_ = 0;
-  std::string line_;
-  std::size_t line_number_ = 0;
+  io::line_reader lines_;
 };
 
 inline bool is_blank(char c) { return c == ' ' || c == '\t'; }
