@@ -23,7 +23,7 @@
 namespace lacuna {
 
 /// The reduction that runs before the algebra, a policy value of sparse_elimination. All of
-/// them give the same groups (tests/homology/random_variants.long.cpp, tests/homology/morse_reduction.cpp); they differ in speed, memory
+/// them give the same groups (all_variants() of tests/homology/support.hpp, used by textbook.cpp and random_variants.long.cpp); they differ in speed, memory
 /// and the shape of the generators (benchmarks/scale.cpp, BM_volume_variants, compares them).
 enum class pre_reduction {
   /// The default: coreductions and collapses as `elimination` says (Mrozek & Batko 2009).
