@@ -3,7 +3,7 @@
 // examples/cli/main.cpp compiled unchanged (its main renamed). The input is split at NUL
 // and newline bytes into arguments after "lacuna".
 // Findings: an exception escaping main, an exit status other than 0 and 2, an error that is
-// not exactly one line on stderr (FORMATS.md's contract), or a sanitizer report.
+// not exactly one line on stderr (the contract of docs/formats.md, *Errors*), or a sanitizer report.
 // Inputs naming an existing file or directory are skipped, so that the fuzzer never reads
 // (or computes the homology of) whatever lies on the disk.
 #include <cstddef>

@@ -1,4 +1,4 @@
-// The lacuna command-line tool: the library's engine on files. shared/FORMATS.md fixes the
+// The lacuna command-line tool: the library's engine on files. docs/formats.md fixes the
 // input formats, the JSON output and the error contract (exit status 2, one line
 // "FILE:LINE: what is wrong"); docs/cli.md describes the rest.
 #include <lacuna/complex/cell_list.hpp>
@@ -26,6 +26,10 @@
 #include "persistence.hpp"
 
 #include <CLI/CLI.hpp>
+
+#ifndef LACUNA_VERSION  // the project version, X.Y.Z, defined by examples/cli/CMakeLists.txt
+#error "define LACUNA_VERSION as the project version (examples/cli/CMakeLists.txt does)"
+#endif
 #include <pthread.h>
 #include <unistd.h>
 
@@ -891,7 +895,7 @@ void run_sequence(const run_options& o) {
 }
 
 /// An error message as one line: control characters (a newline in a file name, say) are
-/// shown as '?', so that the message stays the single line FORMATS.md promises.
+/// shown as '?', so that the message stays the single line docs/formats.md promises.
 std::string one_line(std::string s) {
   for (auto& ch : s)
     if (static_cast<unsigned char>(ch) < 0x20 || ch == 0x7f) ch = '?';
@@ -902,6 +906,8 @@ std::string one_line(std::string s) {
 
 int main(int argc, char** argv) {
   CLI::App app{"lacuna: exact homology of cell complexes from files"};
+  // LACUNA_VERSION is the project version of CMakeLists.txt (examples/cli/CMakeLists.txt)
+  app.set_version_flag("--version", std::string("lacuna ") + LACUNA_VERSION, "print the version (lacuna X.Y.Z) and exit");
   // Numeric options are taken as text and read by lacuna_cli::parse_number (options.hpp), the
   // tool's one number parser: CLI11's own conversion reads 010 as octal and "" as no value.
   app.require_subcommand(1);
@@ -911,7 +917,7 @@ int main(int argc, char** argv) {
   auto* hom = app.add_subcommand("homology", "homology groups (ranks and torsion), optionally with generators");
   hom->add_option("--coefficients", coeff_text, "Z (default), Q, or Z/p for a prime p");
   hom->add_flag("--generators", o.generators, "print one cycle per free summand and per torsion factor");
-  hom->add_flag("--json", o.json, "one JSON object (shared/FORMATS.md)");
+  hom->add_flag("--json", o.json, "one JSON object (docs/formats.md)");
   hom->add_flag("--quiet", o.quiet, "no progress on stderr");
   hom->add_option("--threshold", threshold_text, "images and volumes: foreground is a value >= T")->type_name("T");
   hom->add_option("--max-facet-vertices", max_facet_text,
@@ -969,6 +975,9 @@ int main(int argc, char** argv) {
       return 0;
     } catch (const CLI::CallForAllHelp&) {
       std::cout << app.help("", CLI::AppFormatMode::All);
+      return 0;
+    } catch (const CLI::CallForVersion& e) {
+      std::cout << e.what() << "\n";
       return 0;
     } catch (const CLI::ParseError& e) {
       std::string msg = e.what();

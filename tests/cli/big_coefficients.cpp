@@ -1,4 +1,4 @@
-// `lacuna homology` on .cells files whose coefficients do not fit in 64 bits (FORMATS.md: "a
+// `lacuna homology` on .cells files whose coefficients do not fit in 64 bits (docs/formats.md: "a
 // positive decimal integer of any size"). Expected values:
 //   * M(Z/n, 1) = `0 p / 1 q : p - p / 2 r : n*q` has H_0 = Z, H_1 = Z/n, H_2 = 0 (cellular
 //     homology; Hatcher, Algebraic Topology, 2002, Example 2.40 for the idea — from memory);

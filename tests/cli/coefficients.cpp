@@ -84,7 +84,7 @@ TEST_CASE("the integral results used above, from outside") {
 }
 
 TEST_CASE("Z/p spellings: the prime is written without leading zeros") {
-  // "Z/p for a prime p" (FORMATS.md); 002 is the prime 2
+  // "Z/p for a prime p" (docs/formats.md); 002 is the prime 2
   const auto j = homology_json("Z/002", data("projective_plane.cells").string());
   CHECK(j["coefficients"] == "Z/2");
   CHECK(groups_of(j) == std::vector<group>{{1, {}}, {1, {}}, {1, {}}});

@@ -1,4 +1,4 @@
-// The error contract of shared/FORMATS.md, for every error class: exit status 2, nothing on
+// The error contract of docs/formats.md, for every error class: exit status 2, nothing on
 // stdout, exactly one line on stderr, "FILE:LINE: what is wrong" where a line is known.
 #include "json_checks.hpp"
 #include "run.hpp"
@@ -48,7 +48,7 @@ TEST_CASE("errors: unknown extension, missing file, a directory") {
 
 TEST_CASE("errors: bad coefficients") {
   const auto f = data("hollow_triangle.facets").string();
-  // FORMATS.md: R is Z, Q or Z/p for a prime p; 4 and 0 are not primes, x is not a number, R
+  // docs/formats.md: R is Z, Q or Z/p for a prime p; 4 and 0 are not primes, x is not a number, R
   // is not a ring the tool knows, 1 is not a prime, and an empty modulus is nothing
   for (const char* co : {"Z/4", "Z/0", "Z/1", "Z/x", "R", "Z/", "z", "Z/2/3", "Z/-3", "Z/65520"}) {
     CAPTURE(co);
@@ -86,7 +86,7 @@ TEST_CASE("errors: --threshold on a file that is not an image or volume") {
 
 TEST_CASE("errors: malformed .facets, with the line") {
   temp_dir dir;
-  // FORMATS.md: "a label repeated within one line is an error reported with its line number"
+  // docs/formats.md: a label written twice on one line is an error at that line
   auto f = dir.write("repeat.facets", "# a comment\na b\n\nb c b\n");
   expect_located(expect_error(run({"homology", f})), f, 4);
   f = dir.write("repeat_crlf.facets", "a b\r\nc d\r\nx y x\r\n");
@@ -101,7 +101,7 @@ TEST_CASE("errors: malformed .cells, with the line") {
     int line;
   };
   for (const auto& b : {
-           // a NAME must be declared on an earlier line (FORMATS.md)
+           // a NAME must be declared on an earlier line (docs/formats.md)
            bad{"undeclared.cells", "0 p\n1 q : p - z\n", 2},
            bad{"forward.cells", "0 p\n1 q : p - s\n0 s\n", 2},
            // names are unique

@@ -1,4 +1,4 @@
-// The lacuna tool on every input format of shared/FORMATS.md: its own examples, images and
+// The lacuna tool on every input format of docs/formats.md: its own examples, images and
 // volumes with cell counts counted by hand, meshes. Each expected value names its source.
 #include "json_checks.hpp"
 
@@ -45,16 +45,16 @@ std::string gzip_stored(std::string_view data) {
 
 }  // namespace
 
-TEST_CASE("FORMATS.md: the hollow triangle .facets") {
+TEST_CASE("the hollow triangle .facets") {
   const auto j = homology_json({}, data("hollow_triangle.facets").string());
   CHECK(j["coefficients"] == "Z");
-  // three vertices and three edges, a circle: H_0 = H_1 = Z (FORMATS.md, "a hollow triangle")
+  // three vertices and three edges, a circle: H_0 = H_1 = Z (by hand)
   CHECK(cells_of(j) == std::vector<std::uint64_t>{3, 3});
   CHECK(j["euler_characteristic"] == 0);
   CHECK(groups_of(j) == std::vector<group>{{1, {}}, {1, {}}});
 }
 
-TEST_CASE("FORMATS.md: the projective plane .cells") {
+TEST_CASE("the projective plane .cells") {
   const auto j = homology_json({}, data("projective_plane.cells").string());
   // H(RP^2) = Z, Z/2, 0 (Hatcher, Algebraic Topology, 2002, Example 2.42)
   CHECK(cells_of(j) == std::vector<std::uint64_t>{1, 1, 1});
@@ -64,15 +64,16 @@ TEST_CASE("FORMATS.md: the projective plane .cells") {
   CHECK(j["homology"][1]["torsion"][0].is_number_integer());
 }
 
-TEST_CASE("FORMATS.md: the torus JSON example, from a .cells torus") {
+TEST_CASE("the torus JSON example of docs/cli.md, from a .cells torus") {
   const auto r = run({"homology", "--json", data("torus.cells").string()});
   const auto j = parse_result(r);
-  // FORMATS.md's example: cells [1, 3, 2], euler_characteristic 0, ranks 1, 2, 1
+  // cells [1, 3, 2] counted in the file, euler_characteristic 0; ranks 1, 2, 1 by the Künneth
+  // formula from H(S^1) = Z, Z
   CHECK(j["coefficients"] == "Z");
   CHECK(cells_of(j) == std::vector<std::uint64_t>{1, 3, 2});
   CHECK(j["euler_characteristic"] == 0);
   CHECK(groups_of(j) == std::vector<group>{{1, {}}, {2, {}}, {1, {}}});
-  // and the same JSON value as the example printed in FORMATS.md
+  // and the same JSON value as the example printed in docs/cli.md
   const auto example = ordered_json::parse(R"({
     "coefficients": "Z",
     "cells": [1, 3, 2],
@@ -86,11 +87,11 @@ TEST_CASE("FORMATS.md: the torus JSON example, from a .cells torus") {
   CHECK(j == example);
 }
 
-TEST_CASE("FORMATS.md: empty and comments-only files are the empty complex") {
+TEST_CASE("empty and comments-only files are the empty complex") {
   for (const char* name : {"empty.facets", "empty.cells", "comments_only.facets", "comments_only.cells"}) {
     CAPTURE(name);
     const auto j = homology_json({}, data(name).string());
-    // FORMATS.md: "For the empty complex, cells and homology are both []"
+    // docs/formats.md: for the empty complex, cells and homology are both []
     CHECK(j["cells"] == ordered_json::array());
     CHECK(j["homology"] == ordered_json::array());
     CHECK(j["euler_characteristic"] == 0);
@@ -99,8 +100,8 @@ TEST_CASE("FORMATS.md: empty and comments-only files are the empty complex") {
 
 TEST_CASE(".facets: CRLF line ends, tabs, comments after a simplex; closure of listed faces") {
   temp_dir dir;
-  // a solid triangle listed with a redundant edge and vertex: FORMATS.md, "Listing a face of a
-  // simplex already listed changes nothing"; a disc: H = Z, 0, 0 (by hand)
+  // a solid triangle listed with a redundant edge and vertex: docs/formats.md: listing a face of
+  // a simplex already listed changes nothing; a disc: H = Z, 0, 0 (by hand)
   const auto f = dir.write("disc.facets", "a\tb c   # the triangle\r\nb c\r\n\r\na\r\n");
   const auto j = homology_json({}, f);
   CHECK(cells_of(j) == std::vector<std::uint64_t>{3, 3, 1});
@@ -126,8 +127,8 @@ TEST_CASE(".pbm P1: a ring of 8 pixels, and two pixels meeting at a corner") {
   j = homology_json({}, dir.write("packed.pbm", "P1\n3 3\n111101111\n"));
   CHECK(cells_of(j) == std::vector<std::uint64_t>{16, 24, 8});
   // diagonal pixels: 4 + 4 - 1 = 7 vertices, 8 edges, 2 squares; closed squares share the
-  // corner, so one component (FORMATS.md: "two foreground voxels that share only a corner
-  // are connected")
+  // corner, so one component (docs/formats.md: pixels that share only a corner
+  // are connected)
   j = homology_json({}, dir.write("diag.pbm", "P1\n2 2\n1 0\n0 1\n"));
   CHECK(cells_of(j) == std::vector<std::uint64_t>{7, 8, 2});
   CHECK(groups_of(j) == std::vector<group>{{1, {}}, {0, {}}, {0, {}}});
@@ -159,7 +160,7 @@ TEST_CASE(".pgm P2: foreground is non-zero, or at least --threshold") {
   j = homology_json({"--threshold", "0"}, f);
   CHECK(cells_of(j) == std::vector<std::uint64_t>{8, 10, 3});
   CHECK(groups_of(j) == std::vector<group>{{1, {}}, {0, {}}, {0, {}}});
-  // --threshold 10: no pixel; the empty complex (FORMATS.md: cells and homology both [])
+  // --threshold 10: no pixel; the empty complex (docs/formats.md: cells and homology both [])
   j = homology_json({"--threshold", "10"}, f);
   CHECK(j["cells"] == ordered_json::array());
   CHECK(j["homology"] == ordered_json::array());
@@ -198,7 +199,7 @@ TEST_CASE(".nrrd raw: a hollow 3x3x3 block is a sphere; voxels meeting at a corn
   CHECK(j["euler_characteristic"] == 2);
   CHECK(groups_of(j) == std::vector<group>{{1, {}}, {0, {}}, {1, {}}, {0, {}}});
   // voxels (0,0,0) and (1,1,1) of 2x2x2: 8 + 8 - 1 vertices, 24 edges, 12 squares, 2 cubes;
-  // connected through the shared corner (FORMATS.md)
+  // connected through the shared corner (docs/formats.md)
   std::string diag(8, '\0');
   diag[0] = diag[7] = '\x01';
   j = homology_json({}, dir.write("diag.nrrd", "NRRD0004\ntype: uchar\ndimension: 3\nsizes: 2 2 2\nencoding: raw\n\n" + diag));

@@ -41,7 +41,7 @@ std::vector<std::string> lines_without_comments(const std::string& text) {
   return out;
 }
 
-/// The .cells files of tests/data/cli (FORMATS.md grammar, terms [+|-][N*]NAME or 0).
+/// The .cells files of tests/data/cli (the grammar of docs/formats.md, terms [+|-][N*]NAME or 0).
 model parse_cells(const std::string& path) {
   model m;
   for (const auto& l : lines_without_comments(slurp(path))) {

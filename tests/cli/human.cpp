@@ -1,4 +1,4 @@
-// Output for people (no --json): standard notation, FORMATS.md's "H_1 = Z^2 ⊕ Z/2".
+// Output for people (no --json): standard notation (docs/formats.md: "Z^2", "Z ⊕ Z/2").
 #include "run.hpp"
 
 #include <string>
@@ -28,12 +28,12 @@ TEST_CASE("human-readable: RP^2, the torus, the Klein bottle") {
   CHECK(has_line(out, "H_0 = Z"));
   CHECK(has_line(out, "H_1 = Z/2"));
   CHECK(has_line(out, "H_2 = 0"));
-  // the torus: H_1 = Z^2 (FORMATS.md's JSON example, ranks 1, 2, 1)
+  // the torus: H_1 = Z^2 (ranks 1, 2, 1)
   out = text_of({"homology", data("torus.cells").string()});
   CHECK(has_line(out, "H_1 = Z^2"));
   CHECK(has_line(out, "H_2 = Z"));
   // the Klein bottle: H_1 = Z ⊕ Z/2 (Hatcher, 2002, Example 2.37 with g = 2, from memory),
-  // U+2295 between the summands as FORMATS.md writes it
+  // U+2295 between the summands as docs/formats.md writes it
   out = text_of({"homology", data("klein_bottle.cells").string()});
   CHECK(has_line(out, "H_1 = Z \u2295 Z/2"));
   // Z/6 + Z/4 + Z/2 = Z/2 ⊕ Z/2 ⊕ Z/12 (by hand); the tool writes equal factors as a power

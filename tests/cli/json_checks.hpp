@@ -1,5 +1,5 @@
 // tests/cli/json_checks.hpp — parses the tool's --json output and checks the layout that
-// shared/FORMATS.md fixes, for every result: the keys and their order, one homology entry per
+// docs/formats.md fixes, for every result: the keys and their order, one homology entry per
 // dimension 0..top, the Euler characteristic against the cell counts and the ranks, torsion
 // increasing and each factor dividing the next.
 #pragma once
@@ -31,13 +31,13 @@ inline std::string group_text(const group& g) {
 }
 
 /// Parses r.out (which must be the whole of stdout of a successful run) and checks the
-/// FORMATS.md layout. `generators` says whether --generators was given.
+/// docs/formats.md layout. `generators` says whether --generators was given.
 inline ordered_json parse_result(const result& r, bool generators = false) {
   REQUIRE(r.status == 0);
   CHECK(r.err.empty());
   const ordered_json j = ordered_json::parse(r.out);  // throws (and fails the test) if not JSON
   REQUIRE(j.is_object());
-  // FORMATS.md: the keys coefficients, cells, euler_characteristic, homology, in this order.
+  // docs/formats.md: the keys coefficients, cells, euler_characteristic, homology, in this order.
   std::vector<std::string> keys;
   for (auto it = j.begin(); it != j.end(); ++it) keys.push_back(it.key());
   // --relative SUB adds "relative_to" right after "coefficients" (docs/cli.md).

@@ -7,7 +7,7 @@
 // Expected answers: a lattice of voxel tubes along the axes, every `step` voxels, is a
 // thickening of the grid graph on its crossings (m^3 nodes, 3 (m-1) m^2 edges), so it is
 // connected with H_1 of rank edges - nodes + 1 and nothing above (the cycle rank of a connected
-// graph); an all-zero volume is the empty complex (FORMATS.md: cells and homology []).
+// graph); an all-zero volume is the empty complex (docs/formats.md: cells and homology []).
 #include "json_checks.hpp"
 #include "run.hpp"
 

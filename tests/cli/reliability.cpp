@@ -1,7 +1,7 @@
 // Issue 14, "Reliability, second pass": odd but legal-looking input that gave silent wrong
 // answers, unbounded reads, messages cut short, and the memory budget. Every expected value
 // is worked out by hand beside it (the complexes are a few cells) or is the contract of
-// shared/FORMATS.md and docs/cli.md.
+// docs/formats.md and docs/cli.md.
 #include "json_checks.hpp"
 #include "run.hpp"
 
@@ -85,7 +85,7 @@ TEST_CASE("issue 14.2: a leading byte-order mark is skipped by every text reader
   using namespace cli_reliability_test;
   temp_dir dir;
   const std::string bom = "\xEF\xBB\xBF";
-  // the hollow triangle (FORMATS.md's example): H_0 = Z, H_1 = Z, 3 vertices and 3 edges
+  // the hollow triangle: H_0 = Z, H_1 = Z, 3 vertices and 3 edges
   const std::vector<cli_test::group> circle{{1, {}}, {1, {}}};
   for (const std::string& text : {std::string("x y\ny z\nz x\n"), std::string("# a comment\nx y\ny z\nz x\n")}) {
     const auto f = dir.write("bom.facets", bom + text);
@@ -93,7 +93,7 @@ TEST_CASE("issue 14.2: a leading byte-order mark is skipped by every text reader
     CHECK(groups(r) == circle);
     CHECK(cells(r) == std::vector<std::uint64_t>{3, 3});
   }
-  // the projective plane of FORMATS.md: H_0 = Z, H_1 = Z/2, H_2 = 0
+  // the projective plane from one cell per dimension: H_0 = Z, H_1 = Z/2, H_2 = 0
   const auto rp2 = dir.write("bom.cells", bom + "0 p\n1 q : p - p\n2 r : 2*q\n");
   CHECK(groups(run({"homology", "--quiet", "--json", rp2})) == std::vector<cli_test::group>{{1, {}}, {0, {2}}, {0, {}}});
   // a square as a mesh (one 2-cell): a disk, H_0 = Z

@@ -1,5 +1,5 @@
 // Tests of lacuna/complex/errors.hpp: the place an error names, and the "FILE:LINE: message"
-// form that FORMATS.md ("Errors, for every format and every subcommand") fixes.
+// form that docs/formats.md (*Errors*) fixes.
 #include <doctest/doctest.h>
 
 #include <lacuna/complex/errors.hpp>
@@ -8,7 +8,7 @@
 
 namespace complex_errors_test {
 
-TEST_CASE("parse_error formats FILE:LINE: message (FORMATS.md, Errors)") {
+TEST_CASE("parse_error formats FILE:LINE: message (docs/formats.md, Errors)") {
   const lacuna::parse_error e("torus.cells", 12, "unknown cell 'q'");
   CHECK(std::string(e.what()) == "torus.cells:12: unknown cell 'q'");
   CHECK(e.file() == "torus.cells");

@@ -30,11 +30,11 @@ static_assert(!lacuna::complex_with_coboundary<simplicial_complex<int>>);
 static_assert(lacuna::simplex_label<std::string> && lacuna::simplex_label<long>);
 static_assert(!lacuna::simplex_label<opaque>);
 
-TEST_CASE("hollow triangle from FORMATS.md: numbering, orientation, names, boundaries") {
+TEST_CASE("hollow triangle: numbering, orientation, names, boundaries") {
   const simplicial_complex<std::string> c{{"x", "y"}, {"y", "z"}, {"z", "x"}};
-  CHECK(counts(c) == std::vector<std::size_t>{3, 3});  // FORMATS.md example: three edges, no 2-simplex
+  CHECK(counts(c) == std::vector<std::size_t>{3, 3});  // three edges, no 2-simplex
   CHECK(lacuna::euler_characteristic(c) == 0);         // a circle: chi = 0 (Hatcher 2002, §2.2)
-  CHECK(c.label(0) == "x");  // numbered in order of first appearance (FORMATS.md)
+  CHECK(c.label(0) == "x");  // numbered in order of first appearance (docs/formats.md)
   CHECK(c.label(2) == "z");
   // edges in lexicographic order of vertex ids: [0 1], [0 2], [1 2]
   CHECK(c.cell_name(1, 0) == "x y");
@@ -66,7 +66,7 @@ TEST_CASE("boundary of a 2-simplex follows sum (-1)^j [.. v^j ..]") {
 TEST_CASE("listing a face changes nothing; repeated labels are an error") {
   const simplicial_complex<int> a{{1, 2, 3}};
   const simplicial_complex<int> b{{1, 2, 3}, {2, 3}, {1}, {3, 2, 1}};
-  CHECK(a == b);  // FORMATS.md: listing a face of a listed simplex changes nothing
+  CHECK(a == b);  // docs/formats.md: listing a face of a listed simplex changes nothing
   simplicial_complex<std::string>::builder bad;
   bad.add_facet({"p", "q"});
   try {
@@ -79,7 +79,7 @@ TEST_CASE("listing a face changes nothing; repeated labels are an error") {
 
 TEST_CASE("empty complex and isolated vertices") {
   const simplicial_complex<int> e;
-  CHECK(lacuna::top_dimension(e) == -1);  // FORMATS.md: the empty complex
+  CHECK(lacuna::top_dimension(e) == -1);  // docs/formats.md: the empty complex
   CHECK(lacuna::total_cell_count(e) == 0);
   simplicial_complex<int>::builder b;
   b.vertex(7);

@@ -1,4 +1,4 @@
-// Tests of lacuna/io/cells.hpp against the rules of shared/FORMATS.md ("Cell list"): the
+// Tests of lacuna/io/cells.hpp against the rules of docs/formats.md ("Cell lists"): the
 // examples of the format, the CHAIN syntax, every malformed input in tests/data/complex/cells_*
 // with its FILE:LINE: message, the limits, and round trips.
 #include <doctest/doctest.h>
@@ -49,9 +49,9 @@ bool same_boundaries(const C& a, const lacuna::cell_list& b) {
 }
 }  // namespace
 
-TEST_CASE("the projective plane of FORMATS.md") {
+TEST_CASE("the projective plane from one cell per dimension") {
   const auto c = parse("0 p\n1 q : p - p\n2 r : 2*q\n");
-  CHECK(counts(c) == std::vector<std::size_t>{1, 1, 1});  // FORMATS.md: one cell in each dimension
+  CHECK(counts(c) == std::vector<std::size_t>{1, 1, 1});  // one cell in each dimension
   CHECK(c.boundary(1, 0).empty());                          // p - p = 0
   REQUIRE(c.boundary(2, 0).size() == 1);
   CHECK(c.boundary(2, 0)[0] == lacuna::incidence{0, 2});  // ∂r = 2q (Hatcher 2002, Example 2.42)
@@ -60,7 +60,7 @@ TEST_CASE("the projective plane of FORMATS.md") {
 
 TEST_CASE("CHAIN syntax: signs, coefficients, optional whitespace, repeats add up") {
   const auto c = parse(
-      "# the examples of FORMATS.md\r\n0 a\n0 b\n0 c\n0 v\n"
+      "# the examples of the format\r\n0 a\n0 b\n0 c\n0 v\n"
       "1 e : a + b - c\n1 f : 3*b - 3*a\n1 g:v - v\n1 h : -2*a+2*b\n1 i : 0\n1 j :b-a+a\n"
       "1 k : + a - 1 * a + 007*b - 7 * b\n"
       "2 s : 0\n\t2  t:  e - e  # cancels\n1 big : -9223372036854775808*a + 9223372036854775807*b\n");
@@ -135,7 +135,7 @@ TEST_CASE("malformed inputs: FILE:LINE: message") {
                        lacuna::parse_error);
 }
 
-TEST_CASE("coefficients of any size (FORMATS.md: \"a positive decimal integer of any size\")") {
+TEST_CASE("coefficients of any size (docs/formats.md: \"a positive decimal integer of any size\")") {
   using lacuna::integer;
   const auto big = [](const char* digits) { return integer(integer::big_type(digits)); };
   // just beyond int64 on either side: -2^63 - 1 and 2^63

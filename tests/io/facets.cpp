@@ -1,4 +1,4 @@
-// Tests of lacuna/io/facets.hpp against the rules of shared/FORMATS.md ("Facet list"):
+// Tests of lacuna/io/facets.hpp against the rules of docs/formats.md ("Facet lists"):
 // comments, CRLF, blank lines, labels, numbering; every malformed input in
 // tests/data/complex/facets_* gives its FILE:LINE: message; round trips are exact.
 #include <doctest/doctest.h>
@@ -31,9 +31,9 @@ std::string error_of(const std::string& text, lacuna::io::facets_read_options o 
 }
 }  // namespace
 
-TEST_CASE("the hollow triangle of FORMATS.md") {
+TEST_CASE("the hollow triangle") {
   const auto c = parse("# three edges, no 2-simplex\nx y\ny z\nz x\n");
-  CHECK(counts(c) == std::vector<std::size_t>{3, 3});  // FORMATS.md: three edges, no 2-simplex
+  CHECK(counts(c) == std::vector<std::size_t>{3, 3});  // three edges, no 2-simplex
   CHECK(c.cell_name(1, 1) == "x z");                   // "z x" named in increasing vertex order
 }
 
@@ -43,7 +43,7 @@ TEST_CASE("comments, CRLF, tabs, blank lines, any label characters") {
   CHECK(c.label(0) == "α");
   CHECK(c.label(4) == "2.5");
   CHECK(c.cell_name(2, 1) == "1 2.5 x/y");
-  CHECK(lacuna::top_dimension(parse("")) == -1);                 // FORMATS.md: an empty file is the empty complex
+  CHECK(lacuna::top_dimension(parse("")) == -1);                 // docs/formats.md: an empty file is the empty complex
   CHECK(lacuna::top_dimension(parse("# nothing\n\n#\n")) == -1);  // ... as is one of comments only
   CHECK(counts(parse("a b c")) == std::vector<std::size_t>{3, 3, 1});  // no final newline
 }

@@ -1,7 +1,7 @@
 // Tests of lacuna/io/values.hpp: value files for cell lists (NAME VALUE) and facet lists
 // (labels in any order, then the value), resolved against the complexes of tests/data/cli
-// (the projective plane of FORMATS.md's cell-list example, the hollow triangle of its facet-list
-// example), with every error at its line of the value file.
+// (the projective plane from one cell per dimension, the hollow triangle of three edges),
+// with every error at its line of the value file.
 #include <doctest/doctest.h>
 
 #include "endless_stream.hpp"
@@ -76,7 +76,7 @@ TEST_CASE("values: a cell list's values, resolved by name") {
   CHECK(list.line(0) == 2);
   const auto v = lacuna::io::resolve_values(list, plane(), "projective_plane.cells");
   REQUIRE(v.size() == 3);
-  // the cells of FORMATS.md's projective plane: p in dimension 0, q in 1, r in 2, one each
+  // the cells of that projective plane: p in dimension 0, q in 1, r in 2, one each
   CHECK((v[0].dimension == 0 && v[0].index == 0 && v[0].value == 0 && v[0].line == 2));
   CHECK((v[1].dimension == 1 && v[1].index == 0 && v[1].value == 1 && v[1].line == 3));
   CHECK((v[2].dimension == 2 && v[2].index == 0 && v[2].value == 2.5 && v[2].line == 4));

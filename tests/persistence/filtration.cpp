@@ -92,7 +92,7 @@ TEST_CASE("values of a user's ordered type, and a descending order") {
 }
 
 TEST_CASE("a cell list: a cell waits for the faces written in its boundary, even when they cancel") {
-  // The projective plane with one cell per dimension (FORMATS.md's example): the faces of
+  // The projective plane with one cell per dimension: the faces of
   // q : p - p are p, and of r : 2*q, q.
   std::istringstream in("0 p\n1 q : p - p\n2 r : 2*q\n");
   const auto c = lacuna::io::read_cells(in, "rp2.cells");

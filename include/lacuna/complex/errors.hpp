@@ -6,7 +6,7 @@
 //                             It carries the place: dimension and index of the first offending
 //                             cell (or -1/npos when the fault is not one cell's).
 //   lacuna::parse_error       a reader met bad input; what() is "FILE:LINE: message", the form
-//                             FORMATS.md fixes for every error of the command-line tool.
+//                             docs/formats.md fixes for every error of the command-line tool.
 //                             LINE is 1-based; 0 means "no line known" and what() is then
 //                             "FILE: message".
 // Both derive from std::runtime_error, so a caller may catch either, or both at once.

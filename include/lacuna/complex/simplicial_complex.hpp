@@ -243,7 +243,7 @@ class simplicial_complex {
       d[j] = incidence{face_index(k, i, j), (j % 2 == 0) ? std::int64_t{1} : std::int64_t{-1}};
     return out;
   }
-  /// The labels of the simplex in vertex order, joined by single spaces (FORMATS.md).
+  /// The labels of the simplex in vertex order, joined by single spaces (docs/formats.md).
   std::string cell_name(int k, std::size_t i) const {
     std::string s;
     for (vertex_id v : vertices(k, i)) {

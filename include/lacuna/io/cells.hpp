@@ -1,4 +1,4 @@
-// lacuna/io/cells.hpp — the cell list format (.cells) of shared/FORMATS.md.
+// lacuna/io/cells.hpp — the cell list format (.cells) of docs/formats.md.
 //
 //   read_cells(stream, file_name [, options])  -> cell_list
 //   read_cells(path [, options])               -> cell_list

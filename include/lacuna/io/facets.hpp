@@ -1,4 +1,4 @@
-// lacuna/io/facets.hpp — the facet list format (.facets) of shared/FORMATS.md.
+// lacuna/io/facets.hpp — the facet list format (.facets) of docs/formats.md.
 //
 //   read_facets(stream, file_name [, options])  -> simplicial_complex<std::string>
 //   read_facets(path [, options])               -> simplicial_complex<std::string>
