@@ -10,7 +10,10 @@
 //   bd_pre    coreductions and collapses, then boundary matrices with clearing
 //   bd_nopre  no pre-reduction, boundary matrices with clearing
 // Complexes: chessboard 7x7 (non-attacking rook placements), matching complexes of K_11 and
-// K_12, the 256 x 256 torus, a 128^3 coin-flip cubical volume. One iteration each; peak_MB is
+// K_12 (and K_13, new route only), the 256 x 256 torus, a 128^3 coin-flip cubical volume; on volumes also the route of
+// the command-line tool, old_morse / new_morse (pre_reduction::morse, then either route), at
+// 128^3 and 256^3 (the 256^3 volume is built by the first of those runs before its timing
+// and its peak_MB start). One iteration each; peak_MB is
 // the rise of the resident high-water mark during the run (bench_support.hpp).
 //   build-rel/bin/bench_field_homology
 //   build-rel/bin/bench_field_homology --benchmark_filter='chessboard'
@@ -113,6 +116,22 @@ void route(benchmark::State& state, const C& c, bool field_column_reduction) {
   report_betti<C>(state, betti);
 }
 
+/// The route of the command-line tool on images and volumes: the lower-star Morse complex
+/// first (pre_reduction::morse), then either route on it.
+template <class F, class C>
+void morse_route(benchmark::State& state, const C& c, bool field_column_reduction) {
+  std::vector<std::size_t> betti;
+  const long before = lacuna_bench::begin_peak();
+  for (auto _ : state) {
+    auto h = lacuna::homology<F>(c, {}, lacuna::sparse_elimination{.reduction = lacuna::pre_reduction::morse,
+                                                                      .field_column_reduction = field_column_reduction});
+    betti = h.betti_numbers();
+    benchmark::DoNotOptimize(h);
+  }
+  lacuna_bench::report_peak(state, before, cell_total(c));
+  report_betti<C>(state, betti);
+}
+
 template <class F, class C>
 void variant(benchmark::State& state, const C& c, bool pre, lacuna::reduction_direction direction) {
   std::vector<std::size_t> betti;
@@ -128,6 +147,17 @@ void variant(benchmark::State& state, const C& c, bool pre, lacuna::reduction_di
   }
   lacuna_bench::report_peak(state, before, cell_total(c));
   report_betti<C>(state, betti);
+}
+
+template <class F, class C>
+void register_morse(const std::string& field_name, const std::string& complex_name, const C& c) {
+  auto add = [&](const std::string& what, auto fn) {
+    benchmark::RegisterBenchmark((what + "_" + field_name + "/" + complex_name).c_str(), fn)
+        ->Iterations(1)
+        ->Unit(benchmark::kMillisecond);
+  };
+  add("old_morse", [&c](benchmark::State& s) { morse_route<F>(s, c, false); });
+  add("new_morse", [&c](benchmark::State& s) { morse_route<F>(s, c, true); });
 }
 
 template <class F, class C>
@@ -167,6 +197,41 @@ int main(int argc, char** argv) {
   register_all<z3>("z3", "torus_256", torus, true);
   register_all<lacuna::z2>("z2", "volume_128", volume, true);
   register_all<z3>("z3", "volume_128", volume, true);
+  register_morse<lacuna::z2>("z2", "volume_128", volume);
+  register_morse<z3>("z3", "volume_128", volume);
+  // The matching complex of K_13 (about 8e5 cells), new route only (the old one does not
+  // finish in minutes); built by the first of these runs, before its timing and peak_MB start.
+  for (const char* f : {"z2", "z3"}) {
+    const std::string field = f;
+    benchmark::RegisterBenchmark(("new_" + field + "/matching_K13").c_str(),
+                                 [field](benchmark::State& s) {
+                                   static const complex_t m13 = matching_complex(13);
+                                   if (field == "z2") route<lacuna::z2>(s, m13, true);
+                                   else route<z3>(s, m13, true);
+                                 })
+        ->Iterations(1)
+        ->Unit(benchmark::kMillisecond);
+  }
+  // The 256^3 coin-flip volume (1.1e8 cells) through the Morse route only; built when first run.
+  for (const char* f : {"z2", "z3"}) {
+    const std::string field = f;
+    benchmark::RegisterBenchmark(("old_morse_" + field + "/volume_256").c_str(),
+                                 [field](benchmark::State& s) {
+                                   const auto& v = lacuna_bench::random_volume(256);
+                                   if (field == "z2") morse_route<lacuna::z2>(s, v, false);
+                                   else morse_route<z3>(s, v, false);
+                                 })
+        ->Iterations(1)
+        ->Unit(benchmark::kMillisecond);
+    benchmark::RegisterBenchmark(("new_morse_" + field + "/volume_256").c_str(),
+                                 [field](benchmark::State& s) {
+                                   const auto& v = lacuna_bench::random_volume(256);
+                                   if (field == "z2") morse_route<lacuna::z2>(s, v, true);
+                                   else morse_route<z3>(s, v, true);
+                                 })
+        ->Iterations(1)
+        ->Unit(benchmark::kMillisecond);
+  }
   benchmark::RunSpecifiedBenchmarks();
   benchmark::Shutdown();
   return 0;
