@@ -1,20 +1,20 @@
 // Homology over Z/2 and Z/3 by the two routes of lacuna::homology, side by side:
 //   old       sparse_elimination{.field_column_reduction = false}: unit pivots eliminated,
 //             then dense Smith forms of the core (the route of the integers);
-//   new       the default: coreductions and collapses, then the ranks of the boundary maps
-//             by column reduction with clearing (lacuna/algorithm/field_ranks.hpp);
+//   new       the default: the ranks of the boundary maps by column reduction with clearing
+//             (lacuna/algorithm/field_ranks.hpp), direction chosen from the complex's shape;
 // and, to choose the new route's settings, field_betti_numbers called directly on the chain
 // complex (the build is outside the timed part there, inside it for old/new):
-//   cob_pre   coreductions and collapses, then coboundary matrices with clearing (the default)
-//   cob_nopre no pre-reduction, coboundary matrices with clearing
-//   bd_pre    coreductions and collapses, then boundary matrices with clearing
-//   bd_nopre  no pre-reduction, boundary matrices with clearing
-// Complexes: chessboard 7x7 (non-attacking rook placements), matching complexes of K_11 and
-// K_12 (and K_13, new route only), the 256 x 256 torus, a 128^3 coin-flip cubical volume; on volumes also the route of
-// the command-line tool, old_morse / new_morse (pre_reduction::morse, then either route), at
-// 128^3 and 256^3 (the 256^3 volume is built by the first of those runs before its timing
-// and its peak_MB start). One iteration each; peak_MB is
-// the rise of the resident high-water mark during the run (bench_support.hpp).
+//   cob_pre / cob_nopre   coreductions and collapses first or not, then coboundary matrices
+//   bd_pre / bd_nopre     the same, then boundary matrices
+//   given_* / reversed_*  no pre-reduction, cells in the complex's order or reversed
+// Complexes: chessboard 7x7 (non-attacking rook placements), matching complexes of K_11,
+// K_12 and K_13 (K_13: new route and settings only), the 256 x 256 torus, a 128^3 coin-flip
+// cubical volume; on volumes also the route of the command-line tool, old_morse / new_morse
+// (pre_reduction::morse, then either route), at 128^3 and 256^3 (large complexes are built
+// by the first run that needs them, before its timing and its peak_MB start). One iteration
+// each; peak_MB is the rise of the resident high-water mark during the run
+// (bench_support.hpp).
 //   build-rel/bin/bench_field_homology
 //   build-rel/bin/bench_field_homology --benchmark_filter='chessboard'
 #include "bench_support.hpp"
@@ -161,6 +161,34 @@ void register_morse(const std::string& field_name, const std::string& complex_na
 }
 
 template <class F, class C>
+void order_variant(benchmark::State& state, const C& c, bool reversed, lacuna::reduction_direction direction) {
+  std::vector<std::size_t> betti;
+  const long before = lacuna_bench::begin_peak();
+  for (auto _ : state) {
+    state.PauseTiming();
+    auto rc = lacuna::reducible_complex<F>::build(c);
+    state.ResumeTiming();
+    betti = lacuna::field_betti_numbers(rc, nullptr, {.direction = direction, .reversed = reversed});
+    benchmark::DoNotOptimize(betti);
+  }
+  lacuna_bench::report_peak(state, before, cell_total(c));
+  report_betti<C>(state, betti);
+}
+
+template <class F, class C>
+void register_order(const std::string& field_name, const std::string& complex_name, const C& c) {
+  using lacuna::reduction_direction;
+  for (bool rev : {false, true})
+    for (auto dir : {reduction_direction::coboundary, reduction_direction::boundary}) {
+      const std::string name = std::string(rev ? "reversed_" : "given_") +
+                               (dir == reduction_direction::coboundary ? "cob_" : "bd_") + field_name + "/" + complex_name;
+      benchmark::RegisterBenchmark(name.c_str(), [&c, rev, dir](benchmark::State& s) { order_variant<F>(s, c, rev, dir); })
+          ->Iterations(1)
+          ->Unit(benchmark::kMillisecond);
+    }
+}
+
+template <class F, class C>
 void register_all(const std::string& field_name, const std::string& complex_name, const C& c, bool with_old) {
   auto add = [&](const std::string& what, auto fn) {
     benchmark::RegisterBenchmark((what + "_" + field_name + "/" + complex_name).c_str(), fn)
@@ -199,19 +227,31 @@ int main(int argc, char** argv) {
   register_all<z3>("z3", "volume_128", volume, true);
   register_morse<lacuna::z2>("z2", "volume_128", volume);
   register_morse<z3>("z3", "volume_128", volume);
-  // The matching complex of K_13 (about 8e5 cells), new route only (the old one does not
-  // finish in minutes); built by the first of these runs, before its timing and peak_MB start.
-  for (const char* f : {"z2", "z3"}) {
-    const std::string field = f;
-    benchmark::RegisterBenchmark(("new_" + field + "/matching_K13").c_str(),
-                                 [field](benchmark::State& s) {
-                                   static const complex_t m13 = matching_complex(13);
-                                   if (field == "z2") route<lacuna::z2>(s, m13, true);
-                                   else route<z3>(s, m13, true);
-                                 })
-        ->Iterations(1)
-        ->Unit(benchmark::kMillisecond);
-  }
+  register_order<lacuna::z2>("z2", "chessboard_7x7", chess);
+  register_order<z3>("z3", "chessboard_7x7", chess);
+  register_order<lacuna::z2>("z2", "matching_K12", m12);
+  register_order<z3>("z3", "matching_K12", m12);
+  register_order<lacuna::z2>("z2", "torus_256", torus);
+  register_order<lacuna::z2>("z2", "volume_128", volume);
+  // The matching complex of K_13 (568 503 cells): the new route and its settings only (the
+  // old route does not finish in minutes); built by the first of these runs, before its
+  // timing and peak_MB start.
+  static const auto m13 = [] {
+    static const complex_t m = matching_complex(13);
+    return &m;
+  };
+  using lacuna::reduction_direction;
+  auto add13 = [](const std::string& name, auto fn) {
+    benchmark::RegisterBenchmark((name + "/matching_K13").c_str(), fn)->Iterations(1)->Unit(benchmark::kMillisecond);
+  };
+  add13("new_z2", [](benchmark::State& s) { route<lacuna::z2>(s, *m13(), true); });
+  add13("new_z3", [](benchmark::State& s) { route<z3>(s, *m13(), true); });
+  add13("given_cob_z2", [](benchmark::State& s) { order_variant<lacuna::z2>(s, *m13(), false, reduction_direction::coboundary); });
+  add13("reversed_cob_z2", [](benchmark::State& s) { order_variant<lacuna::z2>(s, *m13(), true, reduction_direction::coboundary); });
+  add13("cob_pre_z2", [](benchmark::State& s) { variant<lacuna::z2>(s, *m13(), true, reduction_direction::coboundary); });
+  add13("given_cob_z3", [](benchmark::State& s) { order_variant<z3>(s, *m13(), false, reduction_direction::coboundary); });
+  add13("reversed_cob_z3", [](benchmark::State& s) { order_variant<z3>(s, *m13(), true, reduction_direction::coboundary); });
+  add13("cob_pre_z3", [](benchmark::State& s) { variant<z3>(s, *m13(), true, reduction_direction::coboundary); });
   // The 256^3 coin-flip volume (1.1e8 cells) through the Morse route only; built when first run.
   for (const char* f : {"z2", "z3"}) {
     const std::string field = f;

@@ -68,7 +68,8 @@ struct homology_options {
   /// A stop request and a progress callback (lacuna/chain/run_control.hpp): a stopped
   /// computation throws lacuna::computation_stopped and returns nothing. Phases reported:
   /// "building the chain complex", "eliminating unit pivots", "Smith form of the core",
-  /// "lifting generators".
+  /// "lifting generators"; over Z/2 and Z/p without generators "building the chain complex",
+  /// then "reducing columns over a field" (lacuna/algorithm/field_ranks.hpp).
   run_control control{};
 };
 
