@@ -294,7 +294,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   const bool want_log = opt.generators || keep;
   if constexpr (std::same_as<Algorithm, sparse_elimination> && std::same_as<R, W> && has_fast_column_reduction<R>)
     if (alg.field_column_reduction && !want_log) {  // over Z/2, Z/p: algorithm/field_ranks.hpp
-      // No coreductions or collapses first: measured slower than reducing at once (field_ranks.hpp).
+      // No coreductions or collapses first: measured slower than reducing at once (docs/performance.md).
       const auto betti = field_betti_numbers(rc, nullptr, {.control = control});
       std::vector<level_result<R>> out(betti.size());
       for (std::size_t L = 0; L < betti.size(); ++L) out[L].rank = betti[L];
