@@ -51,6 +51,11 @@ enum class pre_reduction {
 struct sparse_elimination {
   elimination_options elimination{};
   pre_reduction reduction = pre_reduction::coreductions_and_collapses;
+  /// Homology over Z/2 and Z/p without generators or keep_basis: ranks by column reduction
+  /// with clearing (lacuna/algorithm/field_ranks.hpp) instead of unit pivots and a Smith
+  /// form of the core (`elimination` and `reduction` then do not apply, except
+  /// pre_reduction::morse, whose Morse complex is reduced). false: the route of the integers.
+  bool field_column_reduction = true;
 
   /// The elimination options with `reduction` applied.
   elimination_options effective_elimination() const {

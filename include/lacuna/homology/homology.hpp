@@ -17,6 +17,7 @@
 #include <lacuna/algorithm/cubical_morse.hpp>
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/field_ranks.hpp>
 #include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
@@ -67,7 +68,8 @@ struct homology_options {
   /// A stop request and a progress callback (lacuna/chain/run_control.hpp): a stopped
   /// computation throws lacuna::computation_stopped and returns nothing. Phases reported:
   /// "building the chain complex", "eliminating unit pivots", "Smith form of the core",
-  /// "lifting generators".
+  /// "lifting generators"; over Z/2 and Z/p without generators "building the chain complex",
+  /// then "reducing columns over a field" (lacuna/algorithm/field_ranks.hpp).
   run_control control{};
 };
 
@@ -290,6 +292,14 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
+  if constexpr (std::same_as<Algorithm, sparse_elimination> && std::same_as<R, W> && has_fast_column_reduction<R>)
+    if (alg.field_column_reduction && !want_log) {  // over Z/2, Z/p: algorithm/field_ranks.hpp
+      // No coreductions or collapses first: measured slower than reducing at once (docs/performance.md).
+      const auto betti = field_betti_numbers(rc, nullptr, {.control = control});
+      std::vector<level_result<R>> out(betti.size());
+      for (std::size_t L = 0; L < betti.size(); ++L) out[L].rank = betti[L];
+      return out;
+    }
   if constexpr (std::same_as<Algorithm, sparse_elimination>) {
     auto eo = alg.effective_elimination();
     eo.record = want_log;
