@@ -12,6 +12,7 @@
 #pragma once
 
 #include <lacuna/algorithm/dense_smith.hpp>
+#include <lacuna/algorithm/smith_invariants.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
@@ -78,21 +79,6 @@ struct dense_elimination {};
 
 template <class P>
 concept smith_algorithm = std::same_as<P, sparse_elimination> || std::same_as<P, dense_elimination>;
-
-/// The invariant factors of a matrix: rank r and d_1 | d_2 | ... | d_r, normalized,
-/// units included (so factors.size() == rank).
-template <euclidean_domain R>
-struct smith_invariants {
-  std::size_t rank = 0;
-  std::vector<R> factors;
-  /// The factors that are not units (the torsion of the cokernel).
-  std::vector<R> non_units() const {
-    std::vector<R> out;
-    for (const auto& f : factors)
-      if (!(normalize(f) == one<R>())) out.push_back(f);
-    return out;
-  }
-};
 
 namespace detail {
 template <euclidean_domain R, class W, class Convert>

@@ -1,0 +1,488 @@
+// lacuna/algorithm/modular_smith.hpp — the invariant factors of a dense integer matrix of full
+// rank by modular arithmetic, every number proved; nullopt when a proof does not go through.
+//
+// Dense Euclidean elimination on integers (dense_smith.hpp) lets coefficients grow; on a
+// 150 x 150 matrix of small entries, or a matrix of huge entries, it is slow. This route keeps
+// every computation in 62-bit words or in one exact determinant-sized integer:
+//
+//  1. Rank. The rank mod a prime p is a lower bound of the rank over Q (a minor that is
+//     non-zero mod p is non-zero). Only when it reaches min(rows, cols) is the rank proved;
+//     otherwise the route returns nullopt. The matrix is transposed so that n = rows <= cols
+//     = m (the invariant factors of A and A^T agree). The elimination mod p also picks n
+//     columns J with B = A[:, J] non-singular mod p, hence det B != 0.
+//  2. A multiple of d_1 ... d_n. The product of the invariant factors is the gcd G of the
+//     n x n minors of A (the determinantal divisors, Smith 1861; Newman, "Integral
+//     Matrices", 1972, §II.3 — from memory). D = det B is one of them, so G | D. For m > n,
+//     det(A R) for an integer m x n matrix R is, by Cauchy–Binet, an integer combination of
+//     the n x n minors of A, so G | gcd(D, det(A R_1), det(A R_2)) =: G'. Determinants are
+//     found exactly by the Chinese remainder theorem over 62-bit primes until the product
+//     of the primes passes twice Hadamard's bound (computed as a log2 upper bound with a
+//     margin), as in the determinant-modulus methods of Domich, Kannan & Trotter (1987) and
+//     Hafner & McCurley (1991).
+//  3. Small primes. G' is trial-divided by the primes below 2^16. For each such p with
+//     e = v_p(G'), the Smith form of A over Z/p^(e+1) is found by elimination with pivots of
+//     least p-valuation (local Smith forms, Dumas, Saunders & Villard 2001; Dumas,
+//     Heckenbach, Saunders & Welker 2003). Since v_p(d_1...d_n) <= e, no d_i vanishes mod
+//     p^(e+1) and the pivot valuations are exactly v_p(d_1) <= ... <= v_p(d_n). (The
+//     route returns nullopt if p^(e+1) >= 2^62, or if the valuations do not add up: their
+//     sum must be at most e, and exactly e when m == n, where G = |D|.)
+//  4. The cofactor c: G' without its primes below 2^16 (1, or a number whose factorization
+//     is not known). The adjugate proof: y = adj(B) b for random small integer vectors b is
+//     found by the same CRT (y = det B * B^-1 b mod each prime). Every entry of adj(B) is an
+//     (n-1)-minor of A, so d_1 ... d_(n-1) divides every y_i and so their gcd g. If
+//     gcd(g, c) = 1, no prime of c divides d_1 ... d_(n-1): all of the c-part of G belongs to
+//     d_n. For m == n that c-part is c itself (G = |D|). For m > n with c > 1 the c-part of
+//     G is not known exactly and the route returns nullopt; so it does when gcd(g, c) != 1.
+//
+// Nothing probabilistic reaches the result: random choices (primes, b, R) only decide whether
+// the proofs succeed. The primes are taken downward from 2^62, so the route is deterministic.
+#pragma once
+
+#include <lacuna/algorithm/smith_invariants.hpp>
+#include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/run_control.hpp>
+#include <lacuna/ring/integer.hpp>
+#include <lacuna/ring/mod_p.hpp>
+#include <lacuna/ring/primality.hpp>
+
+#include <lacuna/ring/detail/cpp_int.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <cstddef>
+#include <cstdint>
+#include <optional>
+#include <random>
+#include <vector>
+
+namespace lacuna {
+namespace detail::modular {
+
+using u64 = std::uint64_t;
+__extension__ using u128 = unsigned __int128;
+using big = boost::multiprecision::cpp_int;
+
+/// Multiplication by a fixed w modulo q < 2^63 with a precomputed quotient (Shoup's trick,
+/// as in NTL's MulModPrecon): two word products and one correction instead of a division.
+struct fixed_factor {
+  u64 w, w_shoup;
+  fixed_factor(u64 w_, u64 q) : w(w_), w_shoup(static_cast<u64>((static_cast<u128>(w_) << 64U) / q)) {}
+  u64 times(u64 x, u64 q) const {
+    const u64 h = static_cast<u64>((static_cast<u128>(w_shoup) * x) >> 64U);
+    u64 r = w * x - h * q;
+    return r >= q ? r - q : r;
+  }
+};
+
+inline u64 sub(u64 a, u64 b, u64 q) { return a >= b ? a - b : a + q - b; }
+
+/// The matrix, transposed so that rows <= cols, with its big entries kept as cpp_int once.
+struct source {
+  std::size_t n = 0, m = 0;
+  const dense_matrix<integer>* A = nullptr;
+  bool transposed = false;
+  std::vector<std::int64_t> small;  // n x m; valid where is_big is 0
+  std::vector<char> is_big;
+  std::vector<big> bigs;            // |entry| for big entries, in row-major order
+  std::vector<std::uint32_t> big_index;
+  std::vector<char> big_negative;
+
+  const integer& at(std::size_t i, std::size_t j) const { return transposed ? (*A)(j, i) : (*A)(i, j); }
+
+  explicit source(const dense_matrix<integer>& a) : A(&a) {
+    transposed = a.rows() > a.cols();
+    n = transposed ? a.cols() : a.rows();
+    m = transposed ? a.rows() : a.cols();
+    small.assign(n * m, 0);
+    is_big.assign(n * m, 0);
+    big_index.assign(n * m, 0);
+    for (std::size_t i = 0; i < n; ++i)
+      for (std::size_t j = 0; j < m; ++j) {
+        const integer& x = at(i, j);
+        if (x.is_small()) {
+          small[i * m + j] = x.small_value();
+        } else {
+          is_big[i * m + j] = 1;
+          big_index[i * m + j] = static_cast<std::uint32_t>(bigs.size());
+          big_negative.push_back(x.sign() < 0);
+          bigs.push_back(boost::multiprecision::abs(x.to_big()));
+        }
+      }
+  }
+  /// Entry (i, j) mod q, in [0, q).
+  u64 residue(std::size_t i, std::size_t j, u64 q) const {
+    const std::size_t k = i * m + j;
+    if (!is_big[k]) return detail::reduce_signed(small[k], q);
+    const u64 r = static_cast<u64>(bigs[big_index[k]] % q);
+    return (big_negative[big_index[k]] && r != 0) ? q - r : r;
+  }
+  /// An upper bound of log2 |entry (i, j)| (-inf for zero).
+  double log2_abs(std::size_t i, std::size_t j) const {
+    const std::size_t k = i * m + j;
+    if (!is_big[k]) {
+      if (small[k] == 0) return -INFINITY;
+      const double a = std::fabs(static_cast<double>(small[k]));  // rounding: relative 2^-53
+      return std::log2(a) + 1e-9;
+    }
+    return static_cast<double>(boost::multiprecision::msb(bigs[big_index[k]]) + 1);
+  }
+};
+
+/// log2 of sqrt(sum 2^(2 l_i)) for the given log2 magnitudes, rounded up (with a margin).
+inline double log2_norm(const std::vector<double>& l) {
+  double top = -INFINITY;
+  for (double x : l) top = std::max(top, x);
+  if (top == -INFINITY) return -INFINITY;
+  double s = 0;
+  for (double x : l)
+    if (x != -INFINITY) s += std::exp2(2 * (x - top));
+  return top + 0.5 * std::log2(s) + 1e-6;
+}
+
+/// The next prime below p (p > 2^61 in practice).
+inline u64 prime_below(u64 p) {
+  do --p;
+  while (!is_prime(p));
+  return p;
+}
+
+/// The columns of n independent columns of the n x m matrix a mod p (fewer if its rank mod p
+/// is less than n). Row echelon form row by row: O(n^2 m).
+inline std::vector<std::size_t> pivot_columns(std::vector<u64> a, std::size_t n, std::size_t m, u64 p,
+                                              const run_control* control) {
+  std::vector<std::size_t> cols, rows;  // pivot column and row (normalized to 1 there)
+  for (std::size_t i = 0; i < n; ++i) {
+    if (control) control->check();
+    u64* r = &a[i * m];
+    for (std::size_t k = 0; k < cols.size(); ++k) {
+      const u64 f = r[cols[k]];
+      if (f == 0) continue;
+      const fixed_factor ff(f, p);
+      const u64* s = &a[rows[k] * m];
+      for (std::size_t j = 0; j < m; ++j)
+        if (s[j] != 0) r[j] = sub(r[j], ff.times(s[j], p), p);
+    }
+    std::size_t c = 0;
+    while (c < m && r[c] == 0) ++c;
+    if (c == m) continue;
+    const fixed_factor inv(detail::inv_mod(r[c], p), p);
+    for (std::size_t j = 0; j < m; ++j) r[j] = inv.times(r[j], p);
+    cols.push_back(c);
+    rows.push_back(i);
+  }
+  return cols;
+}
+
+/// Gaussian elimination mod p on the k x k matrix b (row-major) with `extra` right-hand
+/// columns appended to each row (row stride k + extra). Returns det b mod p; when it is not
+/// zero, the right-hand columns are replaced by det(b) * b^-1 * rhs = adj(b) * rhs mod p.
+inline u64 det_and_adjugate_solve(std::vector<u64>& a, std::size_t k, std::size_t extra, u64 p) {
+  const std::size_t w = k + extra;
+  u64 det = 1;
+  for (std::size_t t = 0; t < k; ++t) {
+    std::size_t piv = t;
+    while (piv < k && a[piv * w + t] == 0) ++piv;
+    if (piv == k) return 0;
+    if (piv != t) {
+      std::swap_ranges(a.begin() + static_cast<std::ptrdiff_t>(t * w), a.begin() + static_cast<std::ptrdiff_t>(t * w + w),
+                       a.begin() + static_cast<std::ptrdiff_t>(piv * w));
+      det = det == 0 ? 0 : p - det;
+    }
+    const u64 pv = a[t * w + t];
+    det = detail::mul_mod_u64(det, pv, p);
+    const u64 inv = detail::inv_mod(pv, p);
+    const fixed_factor finv(inv, p);
+    u64* rt = &a[t * w];
+    for (std::size_t j = t; j < w; ++j) rt[j] = finv.times(rt[j], p);  // pivot row normalized
+    for (std::size_t i = t + 1; i < k; ++i) {
+      u64* ri = &a[i * w];
+      const u64 f = ri[t];
+      if (f == 0) continue;
+      const fixed_factor ff(f, p);
+      for (std::size_t j = t; j < w; ++j) ri[j] = sub(ri[j], ff.times(rt[j], p), p);
+    }
+  }
+  // Back substitution on the unit upper triangle, then scale by det.
+  for (std::size_t t = k; t-- > 0;) {
+    for (std::size_t i = 0; i < t; ++i) {
+      u64* ri = &a[i * w];
+      const u64 f = ri[t];
+      if (f == 0) continue;
+      const fixed_factor ff(f, p);
+      for (std::size_t j = k; j < w; ++j) ri[j] = sub(ri[j], ff.times(a[t * w + j], p), p);
+    }
+  }
+  const fixed_factor fd(det, p);
+  for (std::size_t i = 0; i < k; ++i)
+    for (std::size_t j = k; j < w; ++j) a[i * w + j] = fd.times(a[i * w + j], p);
+  return det;
+}
+
+/// Values reconstructed together from residues mod distinct primes (Garner's incremental
+/// Chinese remaindering): after each add, X_i is the residue of value i in [0, M).
+struct crt_values {
+  big M = 1;
+  std::vector<big> X;
+  explicit crt_values(std::size_t count) : X(count, big(0)) {}
+  void add(const std::vector<u64>& r, u64 p) {
+    const u64 m_mod = static_cast<u64>(M % p);
+    const fixed_factor minv(detail::inv_mod(m_mod, p), p);
+    for (std::size_t i = 0; i < X.size(); ++i) {
+      const u64 x_mod = static_cast<u64>(X[i] % p);
+      const u64 t = minv.times(sub(r[i], x_mod, p), p);
+      if (t != 0) X[i] += M * t;
+    }
+    M *= p;
+  }
+  /// Value i in (-M/2, M/2]: the value itself when |value| < M/2.
+  big symmetric(std::size_t i) const {
+    big h = M >> 1;
+    return X[i] > h ? big(X[i] - M) : X[i];
+  }
+};
+
+/// The primes below 2^16, by a sieve.
+inline std::vector<u64> small_primes() {
+  constexpr std::size_t limit = 1U << 16U;
+  std::vector<char> composite(limit, 0);
+  std::vector<u64> out;
+  for (std::size_t i = 2; i < limit; ++i) {
+    if (composite[i]) continue;
+    out.push_back(i);
+    for (std::size_t j = i * i; j < limit; j += i) composite[j] = 1;
+  }
+  return out;
+}
+
+/// The p-valuations of the invariant factors of the n x m matrix mod q = p^k (n <= m), by
+/// elimination with a pivot of least valuation; nullopt if fewer than n pivots are non-zero
+/// mod q (the caller's bound says that cannot happen for a correct k).
+inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, int k, u64 q,
+                                                         const run_control* control) {
+  const std::size_t n = s.n, m = s.m;
+  std::vector<u64> a(n * m);
+  for (std::size_t i = 0; i < n; ++i)
+    for (std::size_t j = 0; j < m; ++j) a[i * m + j] = s.residue(i, j, q);
+  auto valuation = [&](u64 x) {
+    int v = 0;
+    while (x % p == 0) x /= p, ++v;
+    return v;
+  };
+  std::vector<std::size_t> col(m);
+  for (std::size_t j = 0; j < m; ++j) col[j] = j;
+  std::vector<int> out;
+  for (std::size_t t = 0; t < n; ++t) {
+    if (control) control->check();
+    int best_v = k;
+    std::size_t bi = 0, bj = 0;
+    for (std::size_t i = t; i < n && best_v > 0; ++i)
+      for (std::size_t jj = t; jj < m; ++jj) {
+        const u64 x = a[i * m + col[jj]];
+        if (x == 0) continue;
+        const int v = valuation(x);
+        if (v < best_v) {
+          best_v = v, bi = i, bj = jj;
+          if (v == 0) break;
+        }
+      }
+    if (best_v >= k) return std::nullopt;
+    if (bi != t)
+      std::swap_ranges(a.begin() + static_cast<std::ptrdiff_t>(t * m), a.begin() + static_cast<std::ptrdiff_t>(t * m + m),
+                       a.begin() + static_cast<std::ptrdiff_t>(bi * m));
+    std::swap(col[t], col[bj]);
+    u64 pv = 1;
+    for (int i = 0; i < best_v; ++i) pv *= p;
+    const u64* rt = &a[t * m];
+    const u64 unit = rt[col[t]] / pv;  // pivot = p^v * unit, unit prime to p
+    const fixed_factor uinv(detail::inv_mod(unit % q, q), q);
+    for (std::size_t i = t + 1; i < n; ++i) {
+      u64* ri = &a[i * m];
+      const u64 x = ri[col[t]];
+      if (x == 0) continue;
+      // x has valuation >= v, so x = p^v * (x / p^v) and row_i -= (x / p^v) unit^-1 row_t
+      // clears it.
+      const fixed_factor ff(uinv.times((x / pv) % q, q), q);
+      for (std::size_t jj = t; jj < m; ++jj) {
+        const std::size_t j = col[jj];
+        if (rt[j] != 0) ri[j] = sub(ri[j], ff.times(rt[j], q), q);
+      }
+    }
+    out.push_back(best_v);
+  }
+  return out;
+}
+
+}  // namespace detail::modular
+
+/// The rank and invariant factors of the integer matrix A (any shape), or nullopt when the
+/// modular proofs of the header comment do not go through: A not of full rank (rows or
+/// columns), a determinant divisible by every prime tried, a prime power beyond 62 bits, or a
+/// cofactor that the adjugate proof cannot place. The caller then uses another route
+/// (dense_smith_form); a returned value is always exact. Stop requests and progress through
+/// `control` (phase "Smith form of the core", units: primes).
+/// Cost: O(n^2 m) word operations per prime, with about (log2 of Hadamard's bound) / 61
+/// primes, plus one local elimination per small prime dividing the determinant.
+inline std::optional<smith_invariants<integer>> modular_smith_invariants(const dense_matrix<integer>& A,
+                                                                           const run_control* control = nullptr) {
+  namespace md = detail::modular;
+  using md::big;
+  using md::u64;
+  const md::source s(A);
+  const std::size_t n = s.n, m = s.m;
+  smith_invariants<integer> out;
+  if (n == 0) return out;
+
+  // 1. Rank and the columns J, mod the first prime that gives full rank (two tries).
+  u64 p = mod_p_modulus_limit;
+  std::vector<std::size_t> J;
+  for (int attempt = 0; attempt < 2 && J.size() < n; ++attempt) {
+    p = md::prime_below(p);
+    std::vector<u64> a(n * m);
+    for (std::size_t i = 0; i < n; ++i)
+      for (std::size_t j = 0; j < m; ++j) a[i * m + j] = s.residue(i, j, p);
+    J = md::pivot_columns(std::move(a), n, m, p, control);
+  }
+  if (J.size() < n) return std::nullopt;  // rank not proved full
+  if (n == 1) {                            // d_1 = gcd of the entries
+    integer g = 0;
+    for (std::size_t j = 0; j < m; ++j) g = gcd(g, s.at(0, j));
+    out.rank = 1;
+    out.factors = {normalize(g)};
+    return out;
+  }
+
+  // 2. The exact determinant of B = A[:, J], adj(B) b for two vectors b, and for m > n the
+  //    determinants of A R for two R, by CRT past twice Hadamard's bound.
+  std::mt19937_64 rng(0x5eed'0001'2026ULL);
+  constexpr int n_b = 2, n_r = 2;
+  std::vector<std::vector<std::int64_t>> bvec(n_b, std::vector<std::int64_t>(n));
+  for (auto& b : bvec)
+    for (auto& x : b) x = static_cast<std::int64_t>(rng() % 101) - 50;
+  const bool wide = m > n;
+  std::vector<std::vector<std::int64_t>> rmat(wide ? n_r : 0, std::vector<std::int64_t>(m * n));
+  for (auto& r : rmat)
+    for (auto& x : r) x = static_cast<std::int64_t>(rng() % 7) - 3;
+  // Hadamard: |det| <= product of column norms. For y_i = det(B with column i replaced by b),
+  // each column norm is at most max(||B_j||, ||b||); ||b|| <= 50 sqrt(n).
+  const double log2_b = std::log2(50.0) + 0.5 * std::log2(static_cast<double>(n)) + 1e-6;
+  double bits_b = 0;
+  for (std::size_t jj = 0; jj < n; ++jj) {
+    std::vector<double> l(n);
+    for (std::size_t i = 0; i < n; ++i) l[i] = s.log2_abs(i, J[jj]);
+    bits_b += std::max(md::log2_norm(l), log2_b);
+  }
+  // |det(A R)| <= product over rows of ||a_i R|| <= product of ||a_i|| ||R||_F, ||R||_F <= 3 sqrt(mn).
+  double bits_r = 0;
+  if (wide) {
+    const double log2_rf = std::log2(3.0) + 0.5 * std::log2(static_cast<double>(m) * static_cast<double>(n)) + 1e-6;
+    for (std::size_t i = 0; i < n; ++i) {
+      std::vector<double> l(m);
+      for (std::size_t j = 0; j < m; ++j) l[j] = s.log2_abs(i, j);
+      bits_r += md::log2_norm(l) + log2_rf;
+    }
+  }
+  // Each prime is above 2^61; the product must exceed 2 * bound (+ a margin for rounding).
+  const double need = std::max(bits_b, bits_r) * (1 + 1e-9) + 8;
+  const std::size_t values = 1 + n_b * n + (wide ? n_r : 0);
+  md::crt_values crt(values);
+  double have = 0;
+  detail::progress_ticker ticker(control, "Smith form of the core", static_cast<std::uint64_t>(need / 61) + 1);
+  std::vector<u64> r(values), work, ar;
+  std::size_t skipped = 0;
+  while (have < need) {
+    p = md::prime_below(p);
+    ticker();
+    // B | b_1 | b_2 mod p.
+    const std::size_t w = n + n_b;
+    work.assign(n * w, 0);
+    for (std::size_t i = 0; i < n; ++i) {
+      for (std::size_t jj = 0; jj < n; ++jj) work[i * w + jj] = s.residue(i, J[jj], p);
+      for (int k = 0; k < n_b; ++k) work[i * w + n + k] = detail::reduce_signed(bvec[k][i], p);
+    }
+    const u64 det = md::det_and_adjugate_solve(work, n, n_b, p);
+    if (det == 0) {  // p | det B: adj(B) b is not found this way; take another prime
+      if (++skipped > 64) return std::nullopt;
+      continue;
+    }
+    r[0] = det;
+    for (int k = 0; k < n_b; ++k)
+      for (std::size_t i = 0; i < n; ++i) r[1 + k * n + i] = work[i * w + n + k];
+    if (wide) {
+      std::vector<u64> ap(n * m);
+      for (std::size_t i = 0; i < n; ++i)
+        for (std::size_t j = 0; j < m; ++j) ap[i * m + j] = s.residue(i, j, p);
+      for (int k = 0; k < n_r; ++k) {
+        ar.assign(n * n, 0);
+        for (std::size_t i = 0; i < n; ++i)
+          for (std::size_t j = 0; j < m; ++j) {
+            const u64 x = ap[i * m + j];
+            if (x == 0) continue;
+            const md::fixed_factor fx(x, p);
+            for (std::size_t c = 0; c < n; ++c)
+              ar[i * n + c] = detail::add_mod(ar[i * n + c], fx.times(detail::reduce_signed(rmat[k][j * n + c], p), p), p);
+          }
+        r[1 + n_b * n + k] = md::det_and_adjugate_solve(ar, n, 0, p);
+      }
+    }
+    crt.add(r, p);
+    have += std::log2(static_cast<double>(p));
+  }
+  ticker.finish();
+  const big D = crt.symmetric(0);
+  if (D == 0) return std::nullopt;  // cannot happen: B is non-singular mod a prime
+  big Gc = boost::multiprecision::abs(D);
+  for (int k = 0; wide && k < n_r; ++k) Gc = boost::multiprecision::gcd(Gc, big(boost::multiprecision::abs(crt.symmetric(1 + n_b * n + k))));
+  big g = 0;
+  for (std::size_t i = 1; i < 1 + n_b * n; ++i) g = boost::multiprecision::gcd(g, big(boost::multiprecision::abs(crt.symmetric(i))));
+
+  // 3. Primes below 2^16: valuations from local Smith forms.
+  std::vector<std::vector<int>> val;  // per small prime dividing G', valuations of d_1..d_n
+  std::vector<u64> val_prime;
+  big c = Gc;
+  {
+    const auto primes = md::small_primes();
+    for (std::size_t i = 0; i < primes.size();) {
+      // Three primes at a time: one pass over c for their product (< 2^48).
+      std::size_t e = std::min(primes.size(), i + 3);
+      u64 prod = 1;
+      for (std::size_t k = i; k < e; ++k) prod *= primes[k];
+      const u64 rem = static_cast<u64>(c % prod);
+      for (std::size_t k = i; k < e; ++k) {
+        const u64 q = primes[k];
+        if (rem % q != 0) continue;
+        int ev = 0;
+        while (c % q == 0) c /= q, ++ev;
+        // Z/q^(ev+1) must fit the word arithmetic.
+        u64 qk = 1;
+        for (int t = 0; t <= ev; ++t) {
+          if (qk > (mod_p_modulus_limit - 1) / q) return std::nullopt;
+          qk *= q;
+        }
+        auto v = md::local_valuations(s, q, ev + 1, qk, control);
+        if (!v) return std::nullopt;
+        int sum = 0;
+        for (int x : *v) sum += x;
+        // v_q(G) = sum <= v_q(G') = ev, with equality when m == n (G = |D| = G').
+        if (sum > ev || (!wide && sum != ev)) return std::nullopt;
+        val.push_back(std::move(*v));
+        val_prime.push_back(q);
+      }
+      i = e;
+    }
+  }
+
+  // 4. The cofactor: all of it in d_n when the adjugate proof holds (m == n only).
+  if (c != 1) {
+    if (wide) return std::nullopt;
+    if (boost::multiprecision::gcd(g, c) != 1) return std::nullopt;
+  }
+  out.rank = n;
+  out.factors.assign(n, integer(1));
+  for (std::size_t t = 0; t < val.size(); ++t)
+    for (std::size_t i = 0; i < n; ++i)
+      for (int k = 0; k < val[t][i]; ++k) out.factors[i] *= integer(static_cast<std::int64_t>(val_prime[t]));
+  if (c != 1) out.factors[n - 1] *= integer(c);
+  return out;
+}
+
+}  // namespace lacuna
