@@ -76,6 +76,27 @@ struct fixed_factor {
 
 inline u64 sub(u64 a, u64 b, u64 q) { return a >= b ? a - b : a + q - b; }
 
+/// |x| mod q for 1 < q < 2^62: Horner over the 64-bit limbs, most significant first, with a
+/// precomputed multiplication by 2^64 mod q (a word product per limb instead of a division).
+inline u64 abs_mod(const big& x, u64 q) {
+  const auto& b = x.backend();
+  const std::size_t k = b.size();
+  const auto* limb = b.limbs();
+  static_assert(sizeof(*limb) == sizeof(u64), "64-bit limbs");
+  const fixed_factor base(static_cast<u64>((static_cast<u128>(1) << 64U) % q), q);
+  u64 r = 0;
+  for (std::size_t i = k; i-- > 0;) {
+    u64 l = static_cast<u64>(limb[i]);
+    if (q > (u64{1} << 61U))
+      while (l >= q) l -= q;  // at most 7 steps
+    else
+      l %= q;
+    r = base.times(r, q) + l;
+    if (r >= q) r -= q;
+  }
+  return r;
+}
+
 /// The matrix, transposed so that rows <= cols, with its big entries kept as cpp_int once.
 struct source {
   std::size_t n = 0, m = 0;
@@ -113,7 +134,7 @@ struct source {
   u64 residue(std::size_t i, std::size_t j, u64 q) const {
     const std::size_t k = i * m + j;
     if (!is_big[k]) return detail::reduce_signed(small[k], q);
-    const u64 r = static_cast<u64>(bigs[big_index[k]] % q);
+    const u64 r = abs_mod(bigs[big_index[k]], q);
     return (big_negative[big_index[k]] && r != 0) ? q - r : r;
   }
   /// An upper bound of log2 |entry (i, j)| (-inf for zero).
@@ -225,10 +246,10 @@ struct crt_values {
   std::vector<big> X;
   explicit crt_values(std::size_t count) : X(count, big(0)) {}
   void add(const std::vector<u64>& r, u64 p) {
-    const u64 m_mod = static_cast<u64>(M % p);
+    const u64 m_mod = abs_mod(M, p);
     const fixed_factor minv(detail::inv_mod(m_mod, p), p);
     for (std::size_t i = 0; i < X.size(); ++i) {
-      const u64 x_mod = static_cast<u64>(X[i] % p);
+      const u64 x_mod = abs_mod(X[i], p);
       const u64 t = minv.times(sub(r[i], x_mod, p), p);
       if (t != 0) X[i] += M * t;
     }
@@ -313,6 +334,17 @@ inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, 
 }
 
 }  // namespace detail::modular
+
+/// Whether modular_smith_invariants is worth trying on A before dense_smith_form: A is not
+/// tiny (min(rows, cols) >= 8; below that dense elimination is as fast, benchmarks/
+/// modular_smith.cpp) or an entry passes 64 bits (where dense elimination grows fastest).
+inline bool prefer_modular_smith(const dense_matrix<integer>& A) {
+  if (std::min(A.rows(), A.cols()) >= 8) return true;
+  for (std::size_t i = 0; i < A.rows(); ++i)
+    for (std::size_t j = 0; j < A.cols(); ++j)
+      if (!A(i, j).is_small()) return true;
+  return false;
+}
 
 /// The rank and invariant factors of the integer matrix A (any shape), or nullopt when the
 /// modular proofs of the header comment do not go through: A not of full rank (rows or

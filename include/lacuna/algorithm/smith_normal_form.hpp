@@ -3,7 +3,9 @@
 //   dense_elimination{}   the small-matrix reference (lacuna/algorithm/dense_smith.hpp);
 //   sparse_elimination{}  unit pivots first, fill-reducing (zero-fill singletons, then the
 //                         least Markowitz count), through eliminate_unit_pivots; then the
-//                         non-unit core by dense_smith_form, whose least-size pivoting
+//                         non-unit core (over the integers first by
+//                         modular_smith_invariants when the core has full rank,
+//                         modular_smith.hpp), else by dense_smith_form, whose least-size pivoting
 //                         and Euclidean reduction keep entries small (Havas, Holt & Rees
 //                         1993) and whose integers widen instead of overflowing. This is
 //                         the scheme of Dumas, Heckenbach, Saunders & Welker (2003) for
@@ -12,6 +14,7 @@
 #pragma once
 
 #include <lacuna/algorithm/dense_smith.hpp>
+#include <lacuna/algorithm/modular_smith.hpp>
 #include <lacuna/algorithm/smith_invariants.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
@@ -105,8 +108,17 @@ smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimina
         else
           core(static_cast<std::size_t>(rpos[e.index]), static_cast<std::size_t>(cpos[j])) = e.value;
       }
-  const auto d = dense_smith_form(std::move(core));
   smith_invariants<R> out;
+  if constexpr (std::same_as<R, integer>) {  // a full-rank core: modular, when its proofs go through
+    if (prefer_modular_smith(core))
+      if (auto s = modular_smith_invariants(core)) {
+        out.factors.assign(pivots, one<R>());
+        out.factors.insert(out.factors.end(), s->factors.begin(), s->factors.end());
+        out.rank = out.factors.size();
+        return out;
+      }
+  }
+  const auto d = dense_smith_form(std::move(core));
   out.factors.assign(pivots, one<R>());
   out.factors.insert(out.factors.end(), d.diagonal.begin(), d.diagonal.end());
   out.rank = out.factors.size();
