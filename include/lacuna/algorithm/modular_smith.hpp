@@ -262,17 +262,20 @@ struct crt_values {
   }
 };
 
-/// The primes below 2^16, by a sieve.
-inline std::vector<u64> small_primes() {
-  constexpr std::size_t limit = 1U << 16U;
-  std::vector<char> composite(limit, 0);
-  std::vector<u64> out;
-  for (std::size_t i = 2; i < limit; ++i) {
-    if (composite[i]) continue;
-    out.push_back(i);
-    for (std::size_t j = i * i; j < limit; j += i) composite[j] = 1;
-  }
-  return out;
+/// The primes below 2^16, by a sieve (once; a constant table, not state).
+inline const std::vector<u64>& small_primes() {
+  static const std::vector<u64> table = [] {
+    constexpr std::size_t limit = 1U << 16U;
+    std::vector<char> composite(limit, 0);
+    std::vector<u64> out;
+    for (std::size_t i = 2; i < limit; ++i) {
+      if (composite[i]) continue;
+      out.push_back(i);
+      for (std::size_t j = i * i; j < limit; j += i) composite[j] = 1;
+    }
+    return out;
+  }();
+  return table;
 }
 
 /// The p-valuations of the invariant factors of the n x m matrix mod q = p^k (n <= m), by
@@ -335,15 +338,23 @@ inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, 
 
 }  // namespace detail::modular
 
-/// Whether modular_smith_invariants is worth trying on A before dense_smith_form: A is not
-/// tiny (min(rows, cols) >= 8; below that dense elimination is as fast, benchmarks/
-/// modular_smith.cpp) or an entry passes 64 bits (where dense elimination grows fastest).
+/// Whether modular_smith_invariants is worth trying on A before dense_smith_form, by
+/// measurement (benchmarks/modular_smith.cpp, docs/performance.md): dense elimination wins
+/// on square matrices below about 32 with one-digit entries and below about 8 with 19-digit
+/// entries. So: min(rows, cols) >= 32, or >= 8 with an entry beyond 32 bits, or any entry
+/// beyond 64 bits (where dense elimination grows fastest).
 inline bool prefer_modular_smith(const dense_matrix<integer>& A) {
-  if (std::min(A.rows(), A.cols()) >= 8) return true;
+  const std::size_t k = std::min(A.rows(), A.cols());
+  if (k >= 32) return true;
+  bool wide_entry = false;
   for (std::size_t i = 0; i < A.rows(); ++i)
-    for (std::size_t j = 0; j < A.cols(); ++j)
-      if (!A(i, j).is_small()) return true;
-  return false;
+    for (std::size_t j = 0; j < A.cols(); ++j) {
+      const integer& x = A(i, j);
+      if (!x.is_small()) return true;
+      const std::int64_t v = x.small_value();
+      wide_entry = wide_entry || v > (std::int64_t{1} << 32) || v < -(std::int64_t{1} << 32);
+    }
+  return wide_entry && k >= 8;
 }
 
 /// The rank and invariant factors of the integer matrix A (any shape), or nullopt when the
@@ -472,7 +483,7 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
   std::vector<u64> val_prime;
   big c = Gc;
   {
-    const auto primes = md::small_primes();
+    const auto& primes = md::small_primes();
     for (std::size_t i = 0; i < primes.size();) {
       // Three primes at a time: one pass over c for their product (< 2^48).
       std::size_t e = std::min(primes.size(), i + 3);
