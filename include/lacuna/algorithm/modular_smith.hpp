@@ -1,41 +1,45 @@
-// lacuna/algorithm/modular_smith.hpp — the invariant factors of a dense integer matrix of full
-// rank by modular arithmetic, every number proved; nullopt when a proof does not go through.
+// lacuna/algorithm/modular_smith.hpp — the invariant factors of a dense integer matrix by
+// modular arithmetic, every number proved; nullopt when a proof does not go through.
 //
 // Dense Euclidean elimination on integers (dense_smith.hpp) lets coefficients grow; on a
 // 150 x 150 matrix of small entries, or a matrix of huge entries, it is slow. This route keeps
-// every computation in 62-bit words or in one exact determinant-sized integer:
+// every computation in 62-bit words or in a few exact determinant-sized integers:
 //
-//  1. Rank. The rank mod a prime p is a lower bound of the rank over Q (a minor that is
-//     non-zero mod p is non-zero). Only when it reaches min(rows, cols) is the rank proved;
-//     otherwise the route returns nullopt. The matrix is transposed so that n = rows <= cols
-//     = m (the invariant factors of A and A^T agree). The elimination mod p also picks n
-//     columns J with B = A[:, J] non-singular mod p, hence det B != 0.
-//  2. A multiple of d_1 ... d_n. The product of the invariant factors is the gcd G of the
-//     n x n minors of A (the determinantal divisors, Smith 1861; Newman, "Integral
-//     Matrices", 1972, §II.3 — from memory). D = det B is one of them, so G | D. For m > n,
-//     det(A R) for an integer m x n matrix R is, by Cauchy–Binet, an integer combination of
-//     the n x n minors of A, so G | gcd(D, det(A R_1), det(A R_2)) =: G'. Determinants are
-//     found exactly by the Chinese remainder theorem over 62-bit primes until the product
-//     of the primes passes twice Hadamard's bound (computed as a log2 upper bound with a
-//     margin), as in the determinant-modulus methods of Domich, Kannan & Trotter (1987) and
-//     Hafner & McCurley (1991).
+//  1. Rank. The rank r mod a prime p is a lower bound of the rank over Q (a minor that is
+//     non-zero mod p is non-zero), so r = min(rows, cols) is proved at once. For smaller r,
+//     the rank mod every prime of step 2 must be r as well: every (r+1)-minor is then 0
+//     modulo primes whose product passes twice its Hadamard bound, so it is 0, and the rank
+//     over Q is r. The matrix is transposed so that n = rows <= cols = m (the invariant
+//     factors of A and A^T agree). The elimination mod p picks rows I and columns J with
+//     B = A[I, J] (r x r) non-singular mod p, hence det B != 0.
+//  2. A multiple of d_1 ... d_r. The product of the invariant factors is the gcd G of the
+//     r x r minors of A (the determinantal divisors; Newman, "Integral Matrices", 1972,
+//     §II.3 — from memory). D = det B is one of them, so G | D; G = |D| when A is square of
+//     full rank. Otherwise det(P A Q) for integer P (r x n; the identity when r == n) and Q
+//     (m x r) is, by Cauchy–Binet, an integer combination of r x r minors of A, so
+//     G | gcd(D, det(P_1 A Q_1), det(P_2 A Q_2)) =: G'. Determinants are found exactly by the
+//     Chinese remainder theorem over 62-bit primes until the product of the primes passes
+//     twice Hadamard's bound (a log2 upper bound with a margin), as in the determinant-modulus
+//     methods of Domich, Kannan & Trotter (1987) and Hafner & McCurley (1991).
 //  3. Small primes. G' is trial-divided by the primes below 2^16. For each such p with
 //     e = v_p(G'), the Smith form of A over Z/p^(e+1) is found by elimination with pivots of
 //     least p-valuation (local Smith forms, Dumas, Saunders & Villard 2001; Dumas,
-//     Heckenbach, Saunders & Welker 2003). Since v_p(d_1...d_n) <= e, no d_i vanishes mod
-//     p^(e+1) and the pivot valuations are exactly v_p(d_1) <= ... <= v_p(d_n). (The
-//     route returns nullopt if p^(e+1) >= 2^62, or if the valuations do not add up: their
-//     sum must be at most e, and exactly e when m == n, where G = |D|.)
+//     Heckenbach, Saunders & Welker 2003). Since v_p(d_1...d_r) <= e, no d_i vanishes mod
+//     p^(e+1) and the pivot valuations are exactly v_p(d_1) <= ... <= v_p(d_r). (The route
+//     returns nullopt if p^(e+1) >= 2^62, if the number of pivots is not r, or if the
+//     valuations do not add up: at most e, and exactly e when G = |D|.)
 //  4. The cofactor c: G' without its primes below 2^16 (1, or a number whose factorization
 //     is not known). The adjugate proof: y = adj(B) b for random small integer vectors b is
 //     found by the same CRT (y = det B * B^-1 b mod each prime). Every entry of adj(B) is an
-//     (n-1)-minor of A, so d_1 ... d_(n-1) divides every y_i and so their gcd g. If
-//     gcd(g, c) = 1, no prime of c divides d_1 ... d_(n-1): all of the c-part of G belongs to
-//     d_n. For m == n that c-part is c itself (G = |D|). For m > n with c > 1 the c-part of
-//     G is not known exactly and the route returns nullopt; so it does when gcd(g, c) != 1.
+//     (r-1)-minor of A, so d_1 ... d_(r-1) divides every y_i and so their gcd g. If
+//     gcd(g, c) = 1, no prime of c divides d_1 ... d_(r-1): all of the c-part of G belongs to
+//     d_r. When G = |D| that c-part is c itself. When G' is only a multiple of G and c > 1,
+//     the c-part of G is not known exactly and the route returns nullopt; so it does when
+//     gcd(g, c) != 1.
 //
-// Nothing probabilistic reaches the result: random choices (primes, b, R) only decide whether
-// the proofs succeed. The primes are taken downward from 2^62, so the route is deterministic.
+// Nothing probabilistic reaches the result: random choices (primes, b, P, Q) only decide
+// whether the proofs succeed. The primes are taken downward from 2^62 and the random numbers
+// come from a fixed seed, so the route is deterministic.
 #pragma once
 
 #include <lacuna/algorithm/smith_invariants.hpp>
@@ -167,10 +171,12 @@ inline u64 prime_below(u64 p) {
   return p;
 }
 
-/// The columns of n independent columns of the n x m matrix a mod p (fewer if its rank mod p
-/// is less than n). Row echelon form row by row: O(n^2 m).
-inline std::vector<std::size_t> pivot_columns(std::vector<u64> a, std::size_t n, std::size_t m, u64 p,
-                                              const run_control* control) {
+/// Rows I and columns J of a non-singular r x r submatrix of the n x m matrix a mod p, r its
+/// rank mod p. Row echelon form row by row: O(n^2 m).
+struct pivots_mod_p {
+  std::vector<std::size_t> cols, rows;
+};
+inline pivots_mod_p pivot_columns(std::vector<u64> a, std::size_t n, std::size_t m, u64 p, const run_control* control) {
   std::vector<std::size_t> cols, rows;  // pivot column and row (normalized to 1 there)
   for (std::size_t i = 0; i < n; ++i) {
     if (control) control->check();
@@ -191,7 +197,7 @@ inline std::vector<std::size_t> pivot_columns(std::vector<u64> a, std::size_t n,
     cols.push_back(c);
     rows.push_back(i);
   }
-  return cols;
+  return {cols, rows};
 }
 
 /// Gaussian elimination mod p on the k x k matrix b (row-major) with `extra` right-hand
@@ -278,10 +284,10 @@ inline const std::vector<u64>& small_primes() {
   return table;
 }
 
-/// The p-valuations of the invariant factors of the n x m matrix mod q = p^k (n <= m), by
-/// elimination with a pivot of least valuation; nullopt if fewer than n pivots are non-zero
-/// mod q (the caller's bound says that cannot happen for a correct k).
-inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, int k, u64 q,
+/// The p-valuations of the r non-zero invariant factors of the n x m matrix mod q = p^k
+/// (n <= m), by elimination with a pivot of least valuation; nullopt unless exactly r pivots
+/// are non-zero mod q (the caller's bounds say that every v_p(d_i) < k and the rank is r).
+inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, int k, u64 q, std::size_t r,
                                                          const run_control* control) {
   const std::size_t n = s.n, m = s.m;
   std::vector<u64> a(n * m);
@@ -309,7 +315,11 @@ inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, 
           if (v == 0) break;
         }
       }
-    if (best_v >= k) return std::nullopt;
+    if (best_v >= k) {  // the rest is zero mod q
+      if (t != r) return std::nullopt;
+      return out;
+    }
+    if (t >= r) return std::nullopt;
     if (bi != t)
       std::swap_ranges(a.begin() + static_cast<std::ptrdiff_t>(t * m), a.begin() + static_cast<std::ptrdiff_t>(t * m + m),
                        a.begin() + static_cast<std::ptrdiff_t>(bi * m));
@@ -333,6 +343,7 @@ inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, 
     }
     out.push_back(best_v);
   }
+  if (out.size() != r) return std::nullopt;
   return out;
 }
 
@@ -358,11 +369,10 @@ inline bool prefer_modular_smith(const dense_matrix<integer>& A) {
 }
 
 /// The rank and invariant factors of the integer matrix A (any shape), or nullopt when the
-/// modular proofs of the header comment do not go through: A not of full rank (rows or
-/// columns), a determinant divisible by every prime tried, a prime power beyond 62 bits, or a
-/// cofactor that the adjugate proof cannot place. The caller then uses another route
-/// (dense_smith_form); a returned value is always exact. Stop requests and progress through
-/// `control` (phase "Smith form of the core", units: primes).
+/// modular proofs of the header comment do not go through (a cofactor that cannot be placed,
+/// a prime power beyond 62 bits, a rank that differs between primes). The caller then uses
+/// another route (dense_smith_form); a returned value is always exact. Stop requests and
+/// progress through `control` (phase "Smith form of the core", units: primes).
 /// Cost: O(n^2 m) word operations per prime, with about (log2 of Hadamard's bound) / 61
 /// primes, plus one local elimination per small prime dividing the determinant.
 inline std::optional<smith_invariants<integer>> modular_smith_invariants(const dense_matrix<integer>& A,
@@ -374,19 +384,24 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
   const std::size_t n = s.n, m = s.m;
   smith_invariants<integer> out;
   if (n == 0) return out;
-
-  // 1. Rank and the columns J, mod the first prime that gives full rank (two tries).
-  u64 p = mod_p_modulus_limit;
-  std::vector<std::size_t> J;
-  for (int attempt = 0; attempt < 2 && J.size() < n; ++attempt) {
-    p = md::prime_below(p);
+  auto residues = [&](u64 q) {
     std::vector<u64> a(n * m);
     for (std::size_t i = 0; i < n; ++i)
-      for (std::size_t j = 0; j < m; ++j) a[i * m + j] = s.residue(i, j, p);
-    J = md::pivot_columns(std::move(a), n, m, p, control);
-  }
-  if (J.size() < n) return std::nullopt;  // rank not proved full
-  if (n == 1) {                            // d_1 = gcd of the entries
+      for (std::size_t j = 0; j < m; ++j) a[i * m + j] = s.residue(i, j, q);
+    return a;
+  };
+
+  // 1. The rank r mod a prime, rows I and columns J of a submatrix B non-singular mod p
+  //    (so det B != 0 and r <= rank over Q). Full rank (r == n) is then proved; for r < n
+  //    the rank over Q is proved below by the same rank mod enough primes.
+  u64 p = md::prime_below(mod_p_modulus_limit);
+  const md::pivots_mod_p piv = md::pivot_columns(residues(p), n, m, p, control);
+  const std::size_t r = piv.cols.size();
+  const std::vector<std::size_t>& I = piv.rows;
+  const std::vector<std::size_t>& J = piv.cols;
+  if (r == 0) return std::nullopt;  // zero mod p: not proved zero here
+  const bool exact_product = r == n && n == m;  // then G = |det B| exactly
+  if (n == 1) {  // r == 1: d_1 = gcd of the entries, exactly
     integer g = 0;
     for (std::size_t j = 0; j < m; ++j) g = gcd(g, s.at(0, j));
     out.rank = 1;
@@ -394,92 +409,131 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
     return out;
   }
 
-  // 2. The exact determinant of B = A[:, J], adj(B) b for two vectors b, and for m > n the
-  //    determinants of A R for two R, by CRT past twice Hadamard's bound.
+  // 2. By CRT past twice Hadamard's bound, with 62-bit primes: D = det B, y = adj(B) b for
+  //    two vectors b, and det(P A Q) for two pairs P (r x n; the identity when r == n) and
+  //    Q (m x r; only when B is not all of A): by Cauchy–Binet, an integer combination of
+  //    r x r minors of A, so G = d_1...d_r divides G' = gcd(D, det(P A Q)...). For r < n, the
+  //    rank mod each prime must be r: then every (r+1)-minor is 0 mod primes whose product
+  //    passes twice its Hadamard bound, so it is 0, and the rank over Q is r.
   std::mt19937_64 rng(0x5eed'0001'2026ULL);
-  constexpr int n_b = 2, n_r = 2;
-  std::vector<std::vector<std::int64_t>> bvec(n_b, std::vector<std::int64_t>(n));
+  constexpr int n_b = 2, n_q = 2;
+  std::vector<std::vector<std::int64_t>> bvec(n_b, std::vector<std::int64_t>(r));
   for (auto& b : bvec)
     for (auto& x : b) x = static_cast<std::int64_t>(rng() % 101) - 50;
-  const bool wide = m > n;
-  std::vector<std::vector<std::int64_t>> rmat(wide ? n_r : 0, std::vector<std::int64_t>(m * n));
-  for (auto& r : rmat)
-    for (auto& x : r) x = static_cast<std::int64_t>(rng() % 7) - 3;
-  // Hadamard: |det| <= product of column norms. For y_i = det(B with column i replaced by b),
-  // each column norm is at most max(||B_j||, ||b||); ||b|| <= 50 sqrt(n).
-  const double log2_b = std::log2(50.0) + 0.5 * std::log2(static_cast<double>(n)) + 1e-6;
-  double bits_b = 0;
-  for (std::size_t jj = 0; jj < n; ++jj) {
-    std::vector<double> l(n);
-    for (std::size_t i = 0; i < n; ++i) l[i] = s.log2_abs(i, J[jj]);
-    bits_b += std::max(md::log2_norm(l), log2_b);
+  const bool compress = !exact_product;
+  const bool square_p = r == n;  // P = identity
+  std::vector<std::vector<std::int64_t>> pmat(compress && !square_p ? n_q : 0, std::vector<std::int64_t>(r * n));
+  std::vector<std::vector<std::int64_t>> qmat(compress ? n_q : 0, std::vector<std::int64_t>(m * r));
+  for (auto& x_ : pmat)
+    for (auto& x : x_) x = static_cast<std::int64_t>(rng() % 7) - 3;
+  for (auto& x_ : qmat)
+    for (auto& x : x_) x = static_cast<std::int64_t>(rng() % 7) - 3;
+  std::vector<double> row_log(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    std::vector<double> l(m);
+    for (std::size_t j = 0; j < m; ++j) l[j] = s.log2_abs(i, j);
+    row_log[i] = std::max(md::log2_norm(l), 0.0);
   }
-  // |det(A R)| <= product over rows of ||a_i R|| <= product of ||a_i|| ||R||_F, ||R||_F <= 3 sqrt(mn).
-  double bits_r = 0;
-  if (wide) {
-    const double log2_rf = std::log2(3.0) + 0.5 * std::log2(static_cast<double>(m) * static_cast<double>(n)) + 1e-6;
-    for (std::size_t i = 0; i < n; ++i) {
-      std::vector<double> l(m);
-      for (std::size_t j = 0; j < m; ++j) l[j] = s.log2_abs(i, j);
-      bits_r += md::log2_norm(l) + log2_rf;
+  // y_i = det(B with column i replaced by b): Hadamard by columns, each at most
+  // max(||B_j||, ||b||), ||b|| <= 50 sqrt(r).
+  const double log2_b = std::log2(50.0) + 0.5 * std::log2(static_cast<double>(r)) + 1e-6;
+  double bits = 0;
+  for (std::size_t jj = 0; jj < r; ++jj) {
+    std::vector<double> l(r);
+    for (std::size_t ii = 0; ii < r; ++ii) l[ii] = s.log2_abs(I[ii], J[jj]);
+    bits += std::max(md::log2_norm(l), log2_b);
+  }
+  if (compress) {
+    // |det(P A Q)| <= prod_i ||row i of P A Q|| <= prod_i ||p_i|| ||A||_F ||Q||_F, with
+    // ||p_i|| <= 3 sqrt(n) (1 for the identity), ||Q||_F <= 3 sqrt(m r).
+    double log2_af = 0;
+    {
+      std::vector<double> l(row_log);
+      log2_af = md::log2_norm(l);
     }
+    const double log2_p = square_p ? 0.0 : std::log2(3.0) + 0.5 * std::log2(static_cast<double>(n)) + 1e-6;
+    const double log2_q = std::log2(3.0) + 0.5 * std::log2(static_cast<double>(m) * static_cast<double>(r)) + 1e-6;
+    double bits_pq = static_cast<double>(r) * (log2_p + std::max(log2_af, 0.0) + log2_q);
+    if (square_p) {  // the sharper bound prod_i ||a_i|| ||Q||_F when P is the identity
+      bits_pq = 0;
+      for (std::size_t i = 0; i < n; ++i) bits_pq += row_log[i] + log2_q;
+    }
+    bits = std::max(bits, bits_pq);
+  }
+  if (r < n) {  // (r+1)-minors: the r+1 largest row norms
+    std::vector<double> sorted(row_log);
+    std::sort(sorted.rbegin(), sorted.rend());
+    double bits_rank = 0;
+    for (std::size_t i = 0; i <= r; ++i) bits_rank += sorted[i];
+    bits = std::max(bits, bits_rank);
   }
   // Each prime is above 2^61; the product must exceed 2 * bound (+ a margin for rounding).
-  const double need = std::max(bits_b, bits_r) * (1 + 1e-9) + 8;
-  const std::size_t values = 1 + n_b * n + (wide ? n_r : 0);
+  const double need = bits * (1 + 1e-9) + 8;
+  const std::size_t values = 1 + n_b * r + (compress ? n_q : 0);
   md::crt_values crt(values);
   double have = 0;
   detail::progress_ticker ticker(control, "Smith form of the core", static_cast<std::uint64_t>(need / 61) + 1);
-  std::vector<u64> r(values), work, ar;
+  std::vector<u64> res(values), work, pa, paq;
   std::size_t skipped = 0;
   while (have < need) {
     p = md::prime_below(p);
     ticker();
+    const std::vector<u64> ap = residues(p);
+    if (r < n && md::pivot_columns(ap, n, m, p, control).cols.size() != r) return std::nullopt;
     // B | b_1 | b_2 mod p.
-    const std::size_t w = n + n_b;
-    work.assign(n * w, 0);
-    for (std::size_t i = 0; i < n; ++i) {
-      for (std::size_t jj = 0; jj < n; ++jj) work[i * w + jj] = s.residue(i, J[jj], p);
-      for (int k = 0; k < n_b; ++k) work[i * w + n + k] = detail::reduce_signed(bvec[k][i], p);
+    const std::size_t w = r + n_b;
+    work.assign(r * w, 0);
+    for (std::size_t ii = 0; ii < r; ++ii) {
+      for (std::size_t jj = 0; jj < r; ++jj) work[ii * w + jj] = ap[I[ii] * m + J[jj]];
+      for (int k = 0; k < n_b; ++k) work[ii * w + r + k] = detail::reduce_signed(bvec[k][ii], p);
     }
-    const u64 det = md::det_and_adjugate_solve(work, n, n_b, p);
+    const u64 det = md::det_and_adjugate_solve(work, r, n_b, p);
     if (det == 0) {  // p | det B: adj(B) b is not found this way; take another prime
       if (++skipped > 64) return std::nullopt;
       continue;
     }
-    r[0] = det;
+    res[0] = det;
     for (int k = 0; k < n_b; ++k)
-      for (std::size_t i = 0; i < n; ++i) r[1 + k * n + i] = work[i * w + n + k];
-    if (wide) {
-      std::vector<u64> ap(n * m);
-      for (std::size_t i = 0; i < n; ++i)
-        for (std::size_t j = 0; j < m; ++j) ap[i * m + j] = s.residue(i, j, p);
-      for (int k = 0; k < n_r; ++k) {
-        ar.assign(n * n, 0);
-        for (std::size_t i = 0; i < n; ++i)
-          for (std::size_t j = 0; j < m; ++j) {
-            const u64 x = ap[i * m + j];
-            if (x == 0) continue;
-            const md::fixed_factor fx(x, p);
-            for (std::size_t c = 0; c < n; ++c)
-              ar[i * n + c] = detail::add_mod(ar[i * n + c], fx.times(detail::reduce_signed(rmat[k][j * n + c], p), p), p);
+      for (std::size_t ii = 0; ii < r; ++ii) res[1 + k * r + ii] = work[ii * w + r + k];
+    for (int k = 0; compress && k < n_q; ++k) {
+      // P A (r x m), then (P A) Q (r x r), mod p.
+      if (square_p) {
+        pa = ap;
+      } else {
+        pa.assign(r * m, 0);
+        for (std::size_t i = 0; i < r; ++i)
+          for (std::size_t t = 0; t < n; ++t) {
+            const u64 f = detail::reduce_signed(pmat[k][i * n + t], p);
+            if (f == 0) continue;
+            const md::fixed_factor ff(f, p);
+            for (std::size_t j = 0; j < m; ++j) pa[i * m + j] = detail::add_mod(pa[i * m + j], ff.times(ap[t * m + j], p), p);
           }
-        r[1 + n_b * n + k] = md::det_and_adjugate_solve(ar, n, 0, p);
       }
+      paq.assign(r * r, 0);
+      for (std::size_t i = 0; i < r; ++i)
+        for (std::size_t j = 0; j < m; ++j) {
+          const u64 x = pa[i * m + j];
+          if (x == 0) continue;
+          const md::fixed_factor fx(x, p);
+          for (std::size_t c = 0; c < r; ++c)
+            paq[i * r + c] = detail::add_mod(paq[i * r + c], fx.times(detail::reduce_signed(qmat[k][j * r + c], p), p), p);
+        }
+      res[1 + n_b * r + k] = md::det_and_adjugate_solve(paq, r, 0, p);
     }
-    crt.add(r, p);
+    crt.add(res, p);
     have += std::log2(static_cast<double>(p));
   }
   ticker.finish();
   const big D = crt.symmetric(0);
   if (D == 0) return std::nullopt;  // cannot happen: B is non-singular mod a prime
   big Gc = boost::multiprecision::abs(D);
-  for (int k = 0; wide && k < n_r; ++k) Gc = boost::multiprecision::gcd(Gc, big(boost::multiprecision::abs(crt.symmetric(1 + n_b * n + k))));
+  for (int k = 0; compress && k < n_q; ++k)
+    Gc = boost::multiprecision::gcd(Gc, big(boost::multiprecision::abs(crt.symmetric(1 + n_b * r + k))));
   big g = 0;
-  for (std::size_t i = 1; i < 1 + n_b * n; ++i) g = boost::multiprecision::gcd(g, big(boost::multiprecision::abs(crt.symmetric(i))));
+  for (std::size_t i = 1; i < 1 + n_b * r; ++i) g = boost::multiprecision::gcd(g, big(boost::multiprecision::abs(crt.symmetric(i))));
 
   // 3. Primes below 2^16: valuations from local Smith forms.
-  std::vector<std::vector<int>> val;  // per small prime dividing G', valuations of d_1..d_n
+  std::vector<std::vector<int>> val;  // per small prime dividing G', valuations of d_1..d_r
   std::vector<u64> val_prime;
   big c = Gc;
   {
@@ -501,12 +555,12 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
           if (qk > (mod_p_modulus_limit - 1) / q) return std::nullopt;
           qk *= q;
         }
-        auto v = md::local_valuations(s, q, ev + 1, qk, control);
+        auto v = md::local_valuations(s, q, ev + 1, qk, r, control);
         if (!v) return std::nullopt;
         int sum = 0;
         for (int x : *v) sum += x;
-        // v_q(G) = sum <= v_q(G') = ev, with equality when m == n (G = |D| = G').
-        if (sum > ev || (!wide && sum != ev)) return std::nullopt;
+        // v_q(G) = sum <= v_q(G') = ev, with equality when G = |D| = G'.
+        if (sum > ev || (exact_product && sum != ev)) return std::nullopt;
         val.push_back(std::move(*v));
         val_prime.push_back(q);
       }
@@ -514,17 +568,18 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
     }
   }
 
-  // 4. The cofactor: all of it in d_n when the adjugate proof holds (m == n only).
+  // 4. The cofactor: all of it in d_r when the adjugate proof holds, and only when G = |D|
+  //    (otherwise the c-part of G is not known exactly).
   if (c != 1) {
-    if (wide) return std::nullopt;
+    if (!exact_product) return std::nullopt;
     if (boost::multiprecision::gcd(g, c) != 1) return std::nullopt;
   }
-  out.rank = n;
-  out.factors.assign(n, integer(1));
+  out.rank = r;
+  out.factors.assign(r, integer(1));
   for (std::size_t t = 0; t < val.size(); ++t)
-    for (std::size_t i = 0; i < n; ++i)
+    for (std::size_t i = 0; i < r; ++i)
       for (int k = 0; k < val[t][i]; ++k) out.factors[i] *= integer(static_cast<std::int64_t>(val_prime[t]));
-  if (c != 1) out.factors[n - 1] *= integer(c);
+  if (c != 1) out.factors[r - 1] *= integer(c);
   return out;
 }
 

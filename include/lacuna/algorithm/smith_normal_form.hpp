@@ -4,7 +4,7 @@
 //   sparse_elimination{}  unit pivots first, fill-reducing (zero-fill singletons, then the
 //                         least Markowitz count), through eliminate_unit_pivots; then the
 //                         non-unit core (over the integers first by
-//                         modular_smith_invariants when the core has full rank,
+//                         modular_smith_invariants when its proofs go through,
 //                         modular_smith.hpp), else by dense_smith_form, whose least-size pivoting
 //                         and Euclidean reduction keep entries small (Havas, Holt & Rees
 //                         1993) and whose integers widen instead of overflowing. This is
@@ -109,7 +109,7 @@ smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimina
           core(static_cast<std::size_t>(rpos[e.index]), static_cast<std::size_t>(cpos[j])) = e.value;
       }
   smith_invariants<R> out;
-  if constexpr (std::same_as<R, integer>) {  // a full-rank core: modular, when its proofs go through
+  if constexpr (std::same_as<R, integer>) {  // modular, when its proofs go through
     if (prefer_modular_smith(core))
       if (auto s = modular_smith_invariants(core)) {
         out.factors.assign(pivots, one<R>());

@@ -189,7 +189,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
     std::vector<smith_decomposition<R>> snf(nl + 1);
     for (int L = 1; L < nl; ++L) {
       auto core = core_matrix<R>(rc, lb, L, control);
-      if constexpr (std::same_as<R, integer>)  // full-rank integral cores: modular_smith.hpp
+      if constexpr (std::same_as<R, integer>)  // integral cores: modular_smith.hpp, else dense
         if (auto s = prefer_modular_smith(core) ? modular_smith_invariants(core, control) : std::nullopt) {
           snf[L].rank = s->rank, snf[L].diagonal = std::move(s->factors);
           continue;
