@@ -28,6 +28,7 @@ big random_digits(std::mt19937_64& rng, int digits) {
 
 /// Case 0: n x n, entries -9..9. Case 1: n x n, 19-digit entries. Case 2: n x n, entries
 /// 2..9 off the diagonal pattern of item 9's file, four 20 000-digit entries on the diagonal.
+/// Case 3: rank-deficient, X Y with X n x (n - n/10), Y (n - n/10) x n, entries -3..3.
 const dense_matrix<integer>& input(int which, std::size_t n) {
   static std::map<std::pair<int, std::size_t>, dense_matrix<integer>> cache;
   auto it = cache.find({which, n});
@@ -40,6 +41,18 @@ const dense_matrix<integer>& input(int which, std::size_t n) {
       if (which == 1) a(i, j) = integer(random_digits(rng, 19));
       if (which == 2) a(i, j) = i == j ? integer(random_digits(rng, 20000)) : integer(static_cast<std::int64_t>(rng() % 8) + 2);
     }
+  if (which == 3) {
+    const std::size_t k = n - n / 10;
+    std::vector<std::int64_t> x(n * k), y(k * n);
+    for (auto& v : x) v = static_cast<std::int64_t>(rng() % 7) - 3;
+    for (auto& v : y) v = static_cast<std::int64_t>(rng() % 7) - 3;
+    for (std::size_t i = 0; i < n; ++i)
+      for (std::size_t j = 0; j < n; ++j) {
+        std::int64_t sum = 0;
+        for (std::size_t t = 0; t < k; ++t) sum += x[i * k + t] * y[t * n + j];
+        a(i, j) = sum;
+      }
+  }
   return cache.emplace(std::pair{which, n}, std::move(a)).first->second;
 }
 
@@ -58,8 +71,8 @@ void new_route(benchmark::State& state) {
 
 // Item 9: {0, 150}, {1, 100}, {2, 4}; the rest places the threshold.
 BENCHMARK(old_route)->Args({0, 4})->Args({0, 8})->Args({0, 16})->Args({0, 32})->Args({0, 64})->Args({0, 150})
-    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Unit(benchmark::kMillisecond)->Iterations(1);
+    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Args({3, 40})->Args({3, 100})->Unit(benchmark::kMillisecond)->Iterations(1);
 BENCHMARK(new_route)->Args({0, 4})->Args({0, 8})->Args({0, 16})->Args({0, 32})->Args({0, 64})->Args({0, 150})
-    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Unit(benchmark::kMillisecond);
+    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Args({3, 40})->Args({3, 100})->Unit(benchmark::kMillisecond);
 
 BENCHMARK_MAIN();
