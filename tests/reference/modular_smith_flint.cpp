@@ -167,4 +167,28 @@ TEST_CASE("modular Smith: rank-deficient matrices: FLINT's answer or nullopt; sm
   CHECK_FALSE(lacuna::modular_smith_invariants(dense_matrix<integer>(3, 3)).has_value());
 }
 
+TEST_CASE("modular Smith: Lehmer's gcd agrees with FLINT's fmpz_gcd") {
+  std::mt19937_64 rng(1406);
+  auto to_fmpz_text = [](const cpp_int& a, const cpp_int& b) {
+    fmpz_t x, y, g;
+    fmpz_init(x), fmpz_init(y), fmpz_init(g);
+    fmpz_set_str(x, a.str().c_str(), 10);
+    fmpz_set_str(y, b.str().c_str(), 10);
+    fmpz_gcd(g, x, y);
+    auto out = fmpz_text(g);
+    fmpz_clear(x), fmpz_clear(y), fmpz_clear(g);
+    return out;
+  };
+  for (int digits : {1, 19, 40, 200, 3000}) {
+    for (int rep = 0; rep < 6; ++rep) {
+      const cpp_int common = random_matrix(rng, 1, 1, 1 + digits / 3).a[0][0];
+      const cpp_int a = random_matrix(rng, 1, 1, digits).a[0][0] * (rep % 2 ? common : 1);
+      const cpp_int b = random_matrix(rng, 1, 1, digits + rep).a[0][0] * (rep % 3 ? common : 1);
+      CAPTURE(digits);
+      CHECK(lacuna::detail::modular::lehmer_gcd(a, b).str() == to_fmpz_text(a, b));
+      CHECK(lacuna::detail::modular::lehmer_gcd(b, 0).str() == to_fmpz_text(b, 0));
+    }
+  }
+}
+
 }  // namespace reference_modular_smith_flint_test

@@ -101,6 +101,49 @@ inline u64 abs_mod(const big& x, u64 q) {
   return r;
 }
 
+/// gcd(|a|, |b|) by Lehmer's method (Knuth, TAOCP vol. 2, §4.5.2, Algorithm L): Euclid's
+/// quotients simulated on the leading 62 bits while both bounds agree, then applied to the
+/// full numbers as one 2 x 2 matrix. Each applied matrix is a product of [[0, 1], [1, -q]],
+/// so of determinant +-1: the gcd is preserved whatever the quotients (absolute values and
+/// order are restored after each step). boost's gcd of cpp_int is binary (a shift and a
+/// subtraction per bit), quadratic with a large constant on numbers of 10^5 bits.
+inline big lehmer_gcd(big a, big b) {
+  __extension__ using i128 = __int128;
+  a = boost::multiprecision::abs(a);
+  b = boost::multiprecision::abs(b);
+  if (a < b) std::swap(a, b);
+  while (b != 0) {
+    const std::size_t na = boost::multiprecision::msb(a);
+    if (na < 128) return boost::multiprecision::gcd(a, b);
+    const std::size_t shift = na - 61;  // x < 2^62, y <= x
+    const auto x0 = static_cast<u64>(big(a >> shift)), y0 = static_cast<u64>(big(b >> shift));
+    i128 x = x0, y = y0, A = 1, B = 0, C = 0, D = 1;
+    while (y + C != 0 && y + D != 0) {
+      const i128 q1 = (x + A) / (y + C), q2 = (x + B) / (y + D);
+      if (q1 != q2) break;
+      i128 t = A - q1 * C;
+      A = C, C = t;
+      t = B - q1 * D;
+      B = D, D = t;
+      t = x - q1 * y;
+      x = y, y = t;
+    }
+    if (B == 0) {
+      big r = a % b;
+      a = std::move(b);
+      b = std::move(r);
+      continue;
+    }
+    // |A|, |B|, |C|, |D| <= 2^62 here: the cofactors of x0, y0 < 2^62.
+    big na_ = big(static_cast<std::int64_t>(A)) * a + big(static_cast<std::int64_t>(B)) * b;
+    big nb_ = big(static_cast<std::int64_t>(C)) * a + big(static_cast<std::int64_t>(D)) * b;
+    a = boost::multiprecision::abs(na_);
+    b = boost::multiprecision::abs(nb_);
+    if (a < b) std::swap(a, b);
+  }
+  return a;
+}
+
 /// The matrix, transposed so that rows <= cols, with its big entries kept as cpp_int once.
 struct source {
   std::size_t n = 0, m = 0;
@@ -528,9 +571,9 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
   if (D == 0) return std::nullopt;  // cannot happen: B is non-singular mod a prime
   big Gc = boost::multiprecision::abs(D);
   for (int k = 0; compress && k < n_q; ++k)
-    Gc = boost::multiprecision::gcd(Gc, big(boost::multiprecision::abs(crt.symmetric(1 + n_b * r + k))));
+    Gc = md::lehmer_gcd(Gc, crt.symmetric(1 + n_b * r + k));
   big g = 0;
-  for (std::size_t i = 1; i < 1 + n_b * r; ++i) g = boost::multiprecision::gcd(g, big(boost::multiprecision::abs(crt.symmetric(i))));
+  for (std::size_t i = 1; i < 1 + n_b * r; ++i) g = md::lehmer_gcd(g, crt.symmetric(i));
 
   // 3. Primes below 2^16: valuations from local Smith forms.
   std::vector<std::vector<int>> val;  // per small prime dividing G', valuations of d_1..d_r
@@ -572,7 +615,7 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
   //    (otherwise the c-part of G is not known exactly).
   if (c != 1) {
     if (!exact_product) return std::nullopt;
-    if (boost::multiprecision::gcd(g, c) != 1) return std::nullopt;
+    if (md::lehmer_gcd(g, c) != 1) return std::nullopt;
   }
   out.rank = r;
   out.factors.assign(r, integer(1));
