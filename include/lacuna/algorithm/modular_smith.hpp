@@ -80,6 +80,10 @@ struct fixed_factor {
 
 inline u64 sub(u64 a, u64 b, u64 q) { return a >= b ? a - b : a + q - b; }
 
+/// Word operations beyond which modular_smith_invariants declines at once (a few seconds on
+/// one core): the item-9 matrices need at most 3e8, a 100 x 100 rank-deficient one 2e8.
+inline constexpr double modular_work_limit = 4e9;
+
 /// |x| mod q for 1 < q < 2^62: Horner over the 64-bit limbs, most significant first, with a
 /// precomputed multiplication by 2^64 mod q (a word product per limb instead of a division).
 inline u64 abs_mod(const big& x, u64 q) {
@@ -512,6 +516,17 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
   }
   // Each prime is above 2^61; the product must exceed 2 * bound (+ a margin for rounding).
   const double need = bits * (1 + 1e-9) + 8;
+  // The route's cost is about (number of primes) x (word operations per prime). It declines
+  // before starting when that passes modular_work_limit: a large rank-deficient core (r n m
+  // per prime for P A, and about r log(entries) / 61 primes) would cost far more than a
+  // dense elimination that finds small pivots, so the caller's route is kept for it.
+  {
+    const double primes = need / 61 + 1, dr = static_cast<double>(r), dn = static_cast<double>(n),
+                 dm = static_cast<double>(m);
+    double per_prime = dr * dr * dr / 3 + (r < n ? dn * dn * dm : 0);
+    if (compress) per_prime += n_q * ((square_p ? 0 : dr * dn * dm) + dr * dm * dr + dr * dr * dr / 3);
+    if (primes * per_prime > md::modular_work_limit) return std::nullopt;
+  }
   const std::size_t values = 1 + n_b * r + (compress ? n_q : 0);
   md::crt_values crt(values);
   double have = 0;
