@@ -3,7 +3,9 @@
 //   dense_elimination{}   the small-matrix reference (lacuna/algorithm/dense_smith.hpp);
 //   sparse_elimination{}  unit pivots first, fill-reducing (zero-fill singletons, then the
 //                         least Markowitz count), through eliminate_unit_pivots; then the
-//                         non-unit core by dense_smith_form, whose least-size pivoting
+//                         non-unit core (over the integers first by
+//                         modular_smith_invariants when its proofs go through,
+//                         modular_smith.hpp), else by dense_smith_form, whose least-size pivoting
 //                         and Euclidean reduction keep entries small (Havas, Holt & Rees
 //                         1993) and whose integers widen instead of overflowing. This is
 //                         the scheme of Dumas, Heckenbach, Saunders & Welker (2003) for
@@ -12,6 +14,8 @@
 #pragma once
 
 #include <lacuna/algorithm/dense_smith.hpp>
+#include <lacuna/algorithm/modular_smith.hpp>
+#include <lacuna/algorithm/smith_invariants.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
@@ -84,21 +88,6 @@ struct dense_elimination {};
 template <class P>
 concept smith_algorithm = std::same_as<P, sparse_elimination> || std::same_as<P, dense_elimination>;
 
-/// The invariant factors of a matrix: rank r and d_1 | d_2 | ... | d_r, normalized,
-/// units included (so factors.size() == rank).
-template <euclidean_domain R>
-struct smith_invariants {
-  std::size_t rank = 0;
-  std::vector<R> factors;
-  /// The factors that are not units (the torsion of the cokernel).
-  std::vector<R> non_units() const {
-    std::vector<R> out;
-    for (const auto& f : factors)
-      if (!(normalize(f) == one<R>())) out.push_back(f);
-    return out;
-  }
-};
-
 namespace detail {
 template <euclidean_domain R, class W, class Convert>
 smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimination& alg, Convert convert) {
@@ -124,8 +113,17 @@ smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimina
         else
           core(static_cast<std::size_t>(rpos[e.index]), static_cast<std::size_t>(cpos[j])) = e.value;
       }
-  const auto d = dense_smith_form(std::move(core));
   smith_invariants<R> out;
+  if constexpr (std::same_as<R, integer>) {  // modular, when its proofs go through
+    if (prefer_modular_smith(core))
+      if (auto s = modular_smith_invariants(core)) {
+        out.factors.assign(pivots, one<R>());
+        out.factors.insert(out.factors.end(), s->factors.begin(), s->factors.end());
+        out.rank = out.factors.size();
+        return out;
+      }
+  }
+  const auto d = dense_smith_form(std::move(core));
   out.factors.assign(pivots, one<R>());
   out.factors.insert(out.factors.end(), d.diagonal.begin(), d.diagonal.end());
   out.rank = out.factors.size();

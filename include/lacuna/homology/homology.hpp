@@ -18,6 +18,7 @@
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
 #include <lacuna/algorithm/field_ranks.hpp>
+#include <lacuna/algorithm/modular_smith.hpp>
 #include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
@@ -188,7 +189,15 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
   if (!want_generators && !keep) {
     // Ranks and invariant factors of each core boundary matrix suffice.
     std::vector<smith_decomposition<R>> snf(nl + 1);
-    for (int L = 1; L < nl; ++L) snf[L] = dense_smith_form(core_matrix<R>(rc, lb, L, control), {.control = control});
+    for (int L = 1; L < nl; ++L) {
+      auto core = core_matrix<R>(rc, lb, L, control);
+      if constexpr (std::same_as<R, integer>)  // integral cores: modular_smith.hpp, else dense
+        if (auto s = prefer_modular_smith(core) ? modular_smith_invariants(core, control) : std::nullopt) {
+          snf[L].rank = s->rank, snf[L].diagonal = std::move(s->factors);
+          continue;
+        }
+      snf[L] = dense_smith_form(std::move(core), {.control = control});
+    }
     for (int L = 0; L < nl; ++L) {
       const std::size_t rL = L >= 1 ? snf[L].rank : 0;
       const std::size_t rN = L + 1 < nl ? snf[L + 1].rank : 0;
