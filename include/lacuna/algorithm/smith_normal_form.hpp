@@ -51,6 +51,12 @@ enum class pre_reduction {
 struct sparse_elimination {
   elimination_options elimination{};
   pre_reduction reduction = pre_reduction::coreductions_and_collapses;
+  /// lacuna::homology over the integers, asked for ranks and torsion only (no generators,
+  /// no basis) of a complex that is not an image or volume, with `reduction` left at its
+  /// default, takes the coboundary route instead (coboundary_reduction,
+  /// lacuna/algorithm/integral_reduction.hpp; the rule and its measurements are in
+  /// docs/homology.md). false: always this variant.
+  bool allow_coboundary_route = true;
 
   /// The elimination options with `reduction` applied.
   elimination_options effective_elimination() const {
