@@ -147,6 +147,137 @@ void subtract_multiple(const coboundary_column<W>& a, const W& q, std::span<cons
 
 }  // namespace detail
 
+namespace detail {
+
+/// One unit-pivot pass over the columns of a matrix with `nrow` rows (column(j) gives column j
+/// sorted by row; skip[j] set: the column is cleared). Returns the number of unit pivots |U|,
+/// the rows that are their lows, and the deferred columns reduced fully against U (Rest': no
+/// entry in a row of `pivot_rows`).
+template <class W>
+struct unit_pass_result {
+  std::size_t units = 0, cleared = 0, deferred = 0;
+  std::vector<bool> pivot_rows;
+  std::vector<coboundary_column<W>> rest;
+};
+
+template <class W, class Column>
+unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column, const std::vector<bool>* skip,
+                              progress_ticker* tick, const run_control* control) {
+  using entry = sparse_entry<W>;
+  using col_t = coboundary_column<W>;
+  unit_pass_result<W> out;
+  out.pivot_rows.assign(nrow, false);
+  std::vector<std::int64_t> pivot_of_row(nrow, -1);  // row -> position in `pivots`
+  std::vector<col_t> pivots;
+  col_t work, scratch;
+  // Columns in index order: measured faster than the reverse order on M(K_11) (1.4 s
+  // against 3.7 s), and the low at the largest row faster than at the smallest.
+  for (std::size_t j = 0; j < ncol; ++j) {
+    if (tick) (*tick)();
+    if (skip && (*skip)[j]) {
+      ++out.cleared;
+      continue;
+    }
+    const std::span<const entry> c = column(j);
+    work.assign(c.begin(), c.end());
+    while (!work.empty()) {
+      const entry& low = work.back();
+      const std::int64_t p = pivot_of_row[low.index];
+      if (p >= 0) {
+        const col_t& P = pivots[static_cast<std::size_t>(p)];
+        const W q = divide_by_unit(low.value, P.back().value);
+        subtract_multiple(work, q, std::span<const entry>(P), scratch);
+        work.swap(scratch);
+        continue;
+      }
+      if (working_is_unit(low.value)) {
+        pivot_of_row[low.index] = static_cast<std::int64_t>(pivots.size());
+        // clearing_is_sound: let z_j be the k-cochain whose coboundary is this reduced
+        // column c = δ_k z_j (z_j = e_j plus multiples of earlier columns: the column
+        // operations are unimodular). c = u·e_i + (terms of rows below i), u a unit. In
+        // C^{k+1}, replace each such e_i by δ_k z_j: distinct pivots have distinct i, so
+        // the new basis is the old one times a triangular matrix (in row order) whose
+        // diagonal entries are 1 or such a u — a unimodular change of basis. In the new
+        // basis the column of δ_{k+1} at e_i is δ_{k+1}δ_k z_j = 0, and the other columns
+        // are unchanged; a zero column changes no invariant factor, so SNF(δ_{k+1}) is the
+        // SNF of δ_{k+1} without the columns i. Over Z the step needs u to be a unit: with
+        // a non-unit u the matrix would not be unimodular (Rest lows are never cleared).
+        out.pivot_rows[low.index] = true;
+        pivots.push_back(std::move(work));
+      } else {
+        out.rest.push_back(std::move(work));
+      }
+      work = col_t{};
+      break;
+    }
+  }
+  out.units = pivots.size();
+  out.deferred = out.rest.size();
+
+  // finish_level: reduce every Rest column fully against U, from the bottom up (a pivot
+  // column has no entry below its low, so each step only changes rows above the one it
+  // clears). The result Rest' is zero in every row that is a low of U. Proof that
+  // SNF(δ_k) = I_|U| ⊕ SNF(B), B = Rest' on the rows that are not lows of U: the reduced
+  // matrix [U | Rest'] is δ_k times a unimodular matrix (column operations), so it has the
+  // invariant factors of δ_k. For each U column c with low p (a unit u), add multiples of
+  // row p to the other rows to clear c's other entries: row p of Rest' is zero, so Rest'
+  // does not change; a U column already reduced to its single entry at its own low p' has
+  // a zero in row p, so it does not change either. Afterwards each U column is u·e_p with
+  // distinct p, every other entry of those rows is zero, and the matrix is, up to
+  // permuting rows and columns, diag(units) ⊕ B. Row and column operations are invertible
+  // over the ring, so the invariant factors are |U| ones followed by those of B.
+  // The column is held dense here: each step then costs the length of the pivot column
+  // only, not of the (filling) deferred column.
+  if (!out.rest.empty()) {
+    std::vector<W> acc(nrow, zero<W>());
+    for (auto& c : out.rest) {
+      if (control) control->check();
+      if (c.empty()) continue;
+      for (const auto& e : c) acc[e.index] = e.value;
+      for (std::size_t r = c.back().index + 1; r-- > 0;) {
+        if (acc[r] == zero<W>()) continue;
+        const std::int64_t p = pivot_of_row[r];
+        if (p < 0) continue;
+        const col_t& P = pivots[static_cast<std::size_t>(p)];
+        const W q = divide_by_unit(acc[r], P.back().value);
+        for (const auto& e : P) acc[e.index] -= q * e.value;
+      }
+      c.clear();
+      for (std::size_t r = 0; r < nrow; ++r)
+        if (!(acc[r] == zero<W>())) {
+          c.push_back({static_cast<std::uint32_t>(r), std::move(acc[r])});
+          acc[r] = zero<W>();
+        }
+    }
+  }
+  return out;
+}
+
+/// Rest' as a matrix over R on the rows it meets (zero columns dropped).
+template <class R, class W>
+sparse_matrix<R> compact_remainder(std::vector<coboundary_column<W>>& rest, std::size_t nrow) {
+  std::vector<std::int64_t> row_position(nrow, -1);
+  std::size_t brows = 0, bcols = 0;
+  for (const auto& c : rest) {
+    if (!c.empty()) ++bcols;
+    for (const auto& e : c)
+      if (row_position[e.index] < 0) row_position[e.index] = static_cast<std::int64_t>(brows++);
+  }
+  sparse_matrix<R> B(brows, bcols);
+  std::size_t bc = 0;
+  for (auto& c : rest) {
+    if (c.empty()) continue;
+    for (const auto& e : c)
+      B.columns[bc].push_back({static_cast<std::uint32_t>(row_position[e.index]), working_to_ring<R>(e.value)});
+    std::sort(B.columns[bc].begin(), B.columns[bc].end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+    ++bc;
+    coboundary_column<W>().swap(c);
+  }
+  return B;
+}
+
+}  // namespace detail
+
 /// The Smith form of a remainder matrix, the one place that chooses how: dense_smith_form
 /// when it has at most `dense_limit` entries, else the sparse unit elimination of
 /// smith_normal_form (lacuna/algorithm/smith_normal_form.hpp). Swapping this function is how
@@ -172,13 +303,15 @@ smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dens
 /// torsion at level L is the torsion of δ_L. Throws coefficient_overflow (W = checked_int64)
 /// when a coefficient passes 64 bits, computation_stopped on a stop request.
 /// Cost: one sparse column reduction per level (clearing skips the columns of unit pivots),
-/// then the remainder's Smith form.
+/// the deferred columns reduced against the unit pivots (fill-in: a deferred column may fill
+/// thousands of rows), then finish_remainder. Measured: unit passes on the transpose of a
+/// large remainder found few units and left a denser matrix (matching complex of K_12: the
+/// 17 007 x 137 remainder became 113 x 16 952 and its Smith form slower), so none is made.
 template <euclidean_domain R, class W>
 std::vector<coboundary_invariants<R>> reduce_coboundaries(const reducible_complex<W>& rc,
                                                           const coboundary_reduction& options = {},
                                                           const run_control* control = nullptr) {
   using entry = sparse_entry<W>;
-  using column = detail::coboundary_column<W>;
   const int nl = rc.levels();
   std::vector<coboundary_invariants<R>> out(static_cast<std::size_t>(std::max(nl, 0)));
   std::uint64_t total = 0;
@@ -201,114 +334,25 @@ std::vector<coboundary_invariants<R>> reduce_coboundaries(const reducible_comple
       for (std::uint32_t i = 0; i < nrow; ++i)
         for (const auto& e : rc.boundary(L + 1, i)) data[fill[e.index]++] = {i, e.value};
     }
-
-    std::vector<std::int64_t> pivot_of_row(nrow, -1);  // row -> position in `pivots`
-    std::vector<column> pivots, rest;
-    std::vector<bool> next_skip(nrow, false);
-    column work, scratch;
-    auto& res = out[static_cast<std::size_t>(L)];
-    // Columns in index order: measured faster than the reverse order on M(K_11) (1.4 s
-    // against 3.7 s), and the low at the largest row faster than at the smallest.
-    for (std::uint32_t j = 0; j < ncol; ++j) {
-      tick();
-      if (skip[j]) {
-        ++res.cleared;
-        continue;
-      }
-      work.assign(data.begin() + static_cast<std::ptrdiff_t>(off[j]), data.begin() + static_cast<std::ptrdiff_t>(off[j + 1]));
-      while (!work.empty()) {
-        const entry& low = work.back();
-        const std::int64_t p = pivot_of_row[low.index];
-        if (p >= 0) {
-          const column& P = pivots[static_cast<std::size_t>(p)];
-          const W q = detail::divide_by_unit(low.value, P.back().value);
-          detail::subtract_multiple(work, q, std::span<const entry>(P), scratch);
-          work.swap(scratch);
-          continue;
-        }
-        if (detail::working_is_unit(low.value)) {
-          pivot_of_row[low.index] = static_cast<std::int64_t>(pivots.size());
-          // clearing_is_sound: let z_j be the k-cochain whose coboundary is this reduced
-          // column c = δ_k z_j (z_j = e_j plus multiples of earlier columns: the column
-          // operations are unimodular). c = u·e_i + (terms of rows below i), u a unit. In
-          // C^{k+1}, replace each such e_i by δ_k z_j: distinct pivots have distinct i, so
-          // the new basis is the old one times a triangular matrix (in row order) whose
-          // diagonal entries are 1 or such a u — a unimodular change of basis. In the new
-          // basis the column of δ_{k+1} at e_i is δ_{k+1}δ_k z_j = 0, and the other columns
-          // are unchanged; a zero column changes no invariant factor, so SNF(δ_{k+1}) is the
-          // SNF of δ_{k+1} without the columns i. Over Z the step needs u to be a unit: with
-          // a non-unit u the matrix would not be unimodular (Rest lows are never cleared).
-          next_skip[low.index] = true;
-          pivots.push_back(std::move(work));
-          work = column{};
-        } else {
-          rest.push_back(std::move(work));
-          work = column{};
-        }
-        break;
-      }
-    }
-    res.unit_pivots = pivots.size();
-    res.deferred = rest.size();
+    auto pass = detail::unit_pass<W>(
+        ncol, nrow,
+        [&](std::size_t j) { return std::span<const entry>(data.data() + off[j], data.data() + off[j + 1]); }, &skip,
+        &tick, control);
     std::vector<entry>().swap(data);
     std::vector<std::uint64_t>().swap(off);
-
-    // finish_level: reduce every Rest column fully against U, from the bottom up (a pivot
-    // column has no entry below its low, so each step only changes rows above the one it
-    // clears). The result Rest' is zero in every row that is a low of U. Proof that
-    // SNF(δ_k) = I_|U| ⊕ SNF(B), B = Rest' on the rows that are not lows of U: the reduced
-    // matrix [U | Rest'] is δ_k times a unimodular matrix (column operations), so it has the
-    // invariant factors of δ_k. For each U column c with low p (a unit u), add multiples of
-    // row p to the other rows to clear c's other entries: row p of Rest' is zero, so Rest'
-    // does not change; a U column already reduced to its single entry at its own low p' has
-    // a zero in row p, so it does not change either. Afterwards each U column is u·e_p with
-    // distinct p, every other entry of those rows is zero, and the matrix is, up to
-    // permuting rows and columns, diag(units) ⊕ B. Row and column operations are invertible
-    // over the ring, so the invariant factors are |U| ones followed by those of B.
-    std::size_t nonzero_rest = 0;
-    for (auto& c : rest) {
-      if (control) control->check();
-      std::uint32_t bound = std::numeric_limits<std::uint32_t>::max();
-      for (;;) {
-        // the last entry of c with index below `bound`
-        auto it = std::lower_bound(c.begin(), c.end(), bound, [](const entry& e, std::uint32_t b) { return e.index < b; });
-        if (it == c.begin()) break;
-        --it;
-        const std::uint32_t row = it->index;
-        const std::int64_t p = pivot_of_row[row];
-        if (p >= 0) {
-          const column& P = pivots[static_cast<std::size_t>(p)];
-          const W q = detail::divide_by_unit(it->value, P.back().value);
-          detail::subtract_multiple(c, q, std::span<const entry>(P), scratch);
-          c.swap(scratch);
-        }
-        bound = row;
-      }
-      if (!c.empty()) ++nonzero_rest;
-    }
-    std::vector<column>().swap(pivots);
-    std::vector<std::int64_t> row_position(nrow, -1);
-    std::size_t brows = 0;
-    for (const auto& c : rest)
-      for (const auto& e : c)
-        if (row_position[e.index] < 0) row_position[e.index] = static_cast<std::int64_t>(brows++);
-    sparse_matrix<R> B(brows, nonzero_rest);
-    std::size_t bc = 0;
-    for (auto& c : rest) {
-      if (c.empty()) continue;
-      for (const auto& e : c)
-        B.columns[bc].push_back({static_cast<std::uint32_t>(row_position[e.index]), detail::working_to_ring<R>(e.value)});
-      std::sort(B.columns[bc].begin(), B.columns[bc].end(), [](const auto& x, const auto& y) { return x.index < y.index; });
-      ++bc;
-      column().swap(c);
-    }
+    auto& res = out[static_cast<std::size_t>(L)];
+    res.unit_pivots = pass.units;
+    res.cleared = pass.cleared;
+    res.deferred = pass.deferred;
+    sparse_matrix<R> B = detail::compact_remainder<R>(pass.rest, nrow);
+    const std::size_t units = pass.units;
     res.remainder_rows = B.rows;
     res.remainder_cols = B.cols;
     const auto s = finish_remainder(B, options.dense_limit, control);
-    res.rank = res.unit_pivots + s.rank;
+    res.rank = units + s.rank;
     for (const auto& d : s.factors)
       if (!detail::working_is_unit(d)) res.torsion.push_back(d);
-    skip = std::move(next_skip);
+    skip = std::move(pass.pivot_rows);
   }
   tick.finish();
   return out;
