@@ -60,6 +60,12 @@ struct sparse_elimination {
   /// form of the core (`elimination` and `reduction` then do not apply, except
   /// pre_reduction::morse, whose Morse complex is reduced). false: the route of the integers.
   bool field_column_reduction = true;
+  /// lacuna::homology over the integers, asked for ranks and torsion only (no generators,
+  /// no basis) of a complex that is not an image or volume, with `reduction` left at its
+  /// default, takes the coboundary route instead (coboundary_reduction,
+  /// lacuna/algorithm/integral_reduction.hpp; the rule and its measurements are in
+  /// docs/homology.md). false: always this variant.
+  bool allow_coboundary_route = true;
 
   /// The elimination options with `reduction` applied.
   elimination_options effective_elimination() const {

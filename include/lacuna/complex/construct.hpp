@@ -4,6 +4,7 @@
 #include <lacuna/complex/construct/barycentric_subdivision.hpp>
 #include <lacuna/complex/construct/cone.hpp>
 #include <lacuna/complex/construct/disjoint_union.hpp>
+#include <lacuna/complex/construct/graph_complexes.hpp>
 #include <lacuna/complex/construct/join.hpp>
 #include <lacuna/complex/construct/product.hpp>
 #include <lacuna/complex/construct/quotient.hpp>

@@ -19,6 +19,7 @@
 #include <lacuna/algorithm/elimination_maps.hpp>
 #include <lacuna/algorithm/field_ranks.hpp>
 #include <lacuna/algorithm/modular_smith.hpp>
+#include <lacuna/algorithm/integral_reduction.hpp>
 #include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
@@ -52,8 +53,11 @@ namespace lacuna {
 //                         then dense Smith forms of the small core;
 //   dense_elimination{}   the reference for small complexes: dense Smith forms of the whole
 //                         boundary matrices.
+//   coboundary_reduction{} ranks and torsion by unit-pivot reduction of the coboundaries
+//                         with clearing (lacuna/algorithm/integral_reduction.hpp); what it
+//                         cannot give (generators, a basis, cohomology) runs sparse_elimination{}.
 template <class P>
-concept homology_algorithm = smith_algorithm<P>;
+concept homology_algorithm = smith_algorithm<P> || std::same_as<P, coboundary_reduction>;
 
 /// Options of lacuna::homology and lacuna::cohomology.
 struct homology_options {
@@ -70,7 +74,8 @@ struct homology_options {
   /// computation throws lacuna::computation_stopped and returns nothing. Phases reported:
   /// "building the chain complex", "eliminating unit pivots", "Smith form of the core",
   /// "lifting generators"; over Z/2 and Z/p without generators "building the chain complex",
-  /// then "reducing columns over a field" (lacuna/algorithm/field_ranks.hpp).
+  /// then "reducing columns over a field" (lacuna/algorithm/field_ranks.hpp); over the
+  /// integers on the coboundary route, "reducing coboundaries" instead of the elimination.
   run_control control{};
 };
 
@@ -605,6 +610,94 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
 
 }  // namespace detail
 
+namespace detail {
+
+// ---- the coboundary route (coboundary_reduction; docs/homology.md) ------------------------
+
+/// Whether homology() with sparse_elimination takes the coboundary route by default: over the
+/// integers, ranks and torsion only, the default pre-reduction, and not an image or volume.
+/// Measured (docs/performance.md, bench_torsion and bench_homology): on simplicial complexes
+/// and cell lists the route is as fast or faster (matching complex of K_11: minutes -> under a
+/// second), while on cubical volumes the implicit Morse matching of the old route stays ahead.
+template <class R, class C>
+bool coboundary_route_by_default(const homology_options& opt, const sparse_elimination& alg) {
+  if constexpr (!std::same_as<R, integer> || has_implicit_morse_complex<C>) {
+    return false;
+  } else {
+    return alg.allow_coboundary_route && alg.reduction == pre_reduction::coreductions_and_collapses &&
+           !opt.generators && !opt.keep_basis.value_or(false);
+  }
+}
+
+/// The ∂∂ = 0 precondition on the built complex, as compute_levels checks it.
+template <class W, cell_complex C>
+void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
+  if (const auto bad = first_nonzero_boundary_squared(rc)) {
+    const int k = rc.dimension_of_level(bad->first);
+    const std::size_t i = rc.original_index(bad->first, bad->second);
+    throw invalid_complex("lacuna: the boundary of the boundary of " + std::to_string(k) + "-cell " +
+                              std::to_string(i) + " ('" + lacuna::cell_name(c, k, i) +
+                              "') is not zero: not a chain complex (lacuna::validate names every fault)",
+                          k, i);
+  }
+}
+
+/// The groups from the coboundary route at working coefficients W: rank at level L is
+/// size(L) − rank δ_{L−1} − rank δ_L (rank–nullity; rank δ = rank ∂ of its transpose), the
+/// torsion at level L the non-unit invariant factors of δ_L = ∂_{L+1}^T, as in the Smith form
+/// description at the top of this header.
+template <class R, class W, cell_complex C>
+homology_result<R> coboundary_groups(const C& c, const homology_options& opt, const coboundary_reduction& alg,
+                                     const std::vector<std::vector<bool>>* excluded, const R& unit) {
+  const run_control* control = &opt.control;
+  reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded, .threads = opt.threads,
+                                .control = control};
+  control->report("building the chain complex", 0, 1);
+  reducible_complex<W> rc;
+  if constexpr (std::same_as<R, W>)
+    rc = reducible_complex<W>::build(c, build, unit);
+  else
+    rc = reducible_complex<W>::build(c, build);
+  require_boundary_squared_zero(rc, c);
+  control->report("building the chain complex", 1, 1);
+  const auto inv = reduce_coboundaries<R>(rc, alg, control);
+  homology_result<R> res;
+  res.reduced = opt.reduced;
+  res.level_offset_ = opt.reduced ? -1 : 0;
+  const int top = lacuna::top_dimension(c);
+  res.top_ = top;
+  res.unit_ = unit;
+  for (int k = 0; k <= top; ++k) {
+    const int L = k - res.level_offset_;
+    homology_group<R> g;
+    g.dimension = k;
+    const std::size_t below = L >= 1 ? inv[static_cast<std::size_t>(L - 1)].rank : 0;
+    g.rank = rc.size(L) - below - inv[static_cast<std::size_t>(L)].rank;
+    g.torsion = inv[static_cast<std::size_t>(L)].torsion;
+    res.groups.push_back(std::move(g));
+  }
+  return res;
+}
+
+/// homology / relative_homology with coboundary_reduction; generators or a basis fall back
+/// to sparse_elimination{} (the route keeps no change of basis).
+template <class R, cell_complex C>
+homology_result<R> homology_by_coboundaries(const C& c, const homology_options& opt, const coboundary_reduction& alg,
+                                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
+  if (opt.generators || opt.keep_basis.value_or(false))
+    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, unit);
+  if constexpr (std::same_as<R, integer>) {
+    try {
+      return coboundary_groups<R, checked_int64>(c, opt, alg, excluded, unit);
+    } catch (const coefficient_overflow&) {
+      // Widen: repeat with coefficients that cannot overflow.
+    }
+  }
+  return coboundary_groups<R, R>(c, opt, alg, excluded, unit);
+}
+
+}  // namespace detail
+
 /// The homology of c over R (R models euclidean_domain; fields give dimensions, the
 /// integers give ranks and torsion). Algorithm: sparse_elimination{} (default) or
 /// dense_elimination{} (the small-matrix reference). See homology_options. `unit` is the one
@@ -618,10 +711,17 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> homology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
                             const R& unit = one<R>()) {
-  if constexpr (std::same_as<Algorithm, sparse_elimination>)
-    if (algorithm.reduction == pre_reduction::morse)
-      if (auto r = detail::morse_homology<R>(c, options, algorithm, false, unit)) return std::move(*r);
-  return detail::assemble<R>(c, options, algorithm, false, nullptr, unit);
+  if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
+    return detail::homology_by_coboundaries<R>(c, options, algorithm, nullptr, unit);
+  } else {
+    if constexpr (std::same_as<Algorithm, sparse_elimination>) {
+      if (detail::coboundary_route_by_default<R, C>(options, algorithm))
+        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, nullptr, unit);
+      if (algorithm.reduction == pre_reduction::morse)
+        if (auto r = detail::morse_homology<R>(c, options, algorithm, false, unit)) return std::move(*r);
+    }
+    return detail::assemble<R>(c, options, algorithm, false, nullptr, unit);
+  }
 }
 
 /// The homology of the pair (c, A) over R, A the subcomplex of the cells marked in
@@ -632,7 +732,14 @@ homology_result<R> relative_homology(const C& c, const std::vector<std::vector<b
                                      homology_options options = {}, const Algorithm& algorithm = {},
                                      const R& unit = one<R>()) {
   if (options.reduced) throw std::invalid_argument("lacuna: relative homology is not augmented");
-  return detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, unit);
+  if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
+    return detail::homology_by_coboundaries<R>(c, options, algorithm, &in_subcomplex, unit);
+  } else {
+    if constexpr (std::same_as<Algorithm, sparse_elimination>)
+      if (detail::coboundary_route_by_default<R, C>(options, algorithm))
+        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, &in_subcomplex, unit);
+    return detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, unit);
+  }
 }
 
 /// The cohomology H^k of c over R, with cocycle generators on request (cochains named by
@@ -640,10 +747,14 @@ homology_result<R> relative_homology(const C& c, const std::vector<std::vector<b
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> cohomology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
                               const R& unit = one<R>()) {
-  if constexpr (std::same_as<Algorithm, sparse_elimination>)
-    if (algorithm.reduction == pre_reduction::morse)
-      if (auto r = detail::morse_homology<R>(c, options, algorithm, true, unit)) return std::move(*r);
-  return detail::assemble<R>(c, options, algorithm, true, nullptr, unit);
+  if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
+    return detail::assemble<R>(c, options, sparse_elimination{}, true, nullptr, unit);  // not on this route
+  } else {
+    if constexpr (std::same_as<Algorithm, sparse_elimination>)
+      if (algorithm.reduction == pre_reduction::morse)
+        if (auto r = detail::morse_homology<R>(c, options, algorithm, true, unit)) return std::move(*r);
+    return detail::assemble<R>(c, options, algorithm, true, nullptr, unit);
+  }
 }
 
 }  // namespace lacuna
