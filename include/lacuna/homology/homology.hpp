@@ -1,9 +1,15 @@
 // lacuna/homology/homology.hpp — homology groups, with torsion and generators, of any cell
 // complex over any Euclidean domain; cohomology through the dual complex.
 //
-// Pipeline (shared/DESIGN.md): the complex is indexed into a reducible_complex over working
-// coefficients W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot
-// in), and the small core that is left is finished by dense Smith forms with transforms:
+// Routes (docs/homology.md, "How the engine works"); each one is exact:
+//   * over the integers, ranks and torsion only (no generators, no basis), off images and
+//     volumes: the coboundary route (coboundary_reduction, algorithm/integral_reduction.hpp);
+//   * over Z/2 and Z/p, ranks only: column reductions with clearing (algorithm/field_ranks.hpp);
+//   * everything else (generators, coordinates, Q, images and volumes over Z): the route below.
+// The route below: the complex is indexed into a reducible_complex over working coefficients
+// W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot in), and the
+// small core that is left is finished by Smith forms (modular ones where they pay and only
+// groups are asked for, algorithm/modular_smith.hpp; else dense ones with transforms):
 //   D_k = boundary out of level k, U D_k V = diag(d_1..d_r): ker D_k = V[:, r..];
 //   M = (V^-1 D_{k+1})[r.., :], U' M V' = diag(e_1..e_s): H_k = Z^{n_k - r - s} + sum Z/e_i,
 //   generators = V[:, r..] U'^-1, one per column (columns with a unit e_i are boundaries).
