@@ -10,8 +10,10 @@
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/construct/graph_complexes.hpp>
 #include <lacuna/ring/mod_p.hpp>
+#include <lacuna/ring/rational.hpp>
 #include <lacuna/ring/z2.hpp>
 
+#include <algorithm>
 #include <random>
 #include <string>
 #include <vector>
@@ -152,6 +154,35 @@ TEST_CASE("the route over other rings: Z/2 and Z/3 dimensions equal the old rout
           lacuna::homology<lacuna::z2>(c, {}, old_route).betti_numbers());
     CHECK(lacuna::homology<lacuna::mod_p<3>>(c, {}, lacuna::coboundary_reduction{}).betti_numbers() ==
           lacuna::homology<lacuna::mod_p<3>>(c, {}, old_route).betti_numbers());
+  }
+}
+
+TEST_CASE("over Q: the default takes the integral route; ranks equal the old route's over Q and the free ranks over Z") {
+  // H_k(X; Q) = H_k(X; Z) ⊗ Q (universal coefficients, Hatcher 2002 Theorem 3A.3): the free
+  // rank over Z, no torsion. M(K_7): H̃_1(Z) = Z/3 (Bouc 1992), so H̃_1(Q) = 0.
+  const auto m7 = lacuna::matching_complex(7);
+  const auto q7 = lacuna::homology<lacuna::rational>(m7, {.reduced = true});
+  REQUIRE(q7.groups.size() >= 2);
+  CHECK(q7[1].rank == 0);
+  CHECK(q7[1].torsion.empty());
+  CHECK(q7.betti_numbers() == lacuna::homology<lacuna::rational>(m7, {.reduced = true}, old_route).betti_numbers());
+  std::vector<std::string> phases;
+  lacuna::homology_options watched{};
+  watched.control.progress = [&](const lacuna::progress_report& r) {
+    if (phases.empty() || phases.back() != r.phase) phases.emplace_back(r.phase);
+  };
+  (void)lacuna::homology<lacuna::rational>(lacuna::chessboard_complex(3, 5), watched);
+  CHECK(std::find(phases.begin(), phases.end(), "reducing coboundaries") != phases.end());
+  std::mt19937_64 rng(1203);
+  for (int t = 0; t < 10; ++t) {
+    CAPTURE(t);
+    const auto x = random_test::random_simplicial(rng, 7, 3, 6 + t);
+    const auto q = lacuna::homology<lacuna::rational>(x);
+    CHECK(q.betti_numbers() == lacuna::homology<lacuna::rational>(x, {}, old_route).betti_numbers());
+    CHECK(q.betti_numbers() == lacuna::homology<integer>(x, {}, old_route).betti_numbers());
+    const auto cl = random_test::random_cell_list(rng, t, 3 + t % 5);
+    CHECK(lacuna::homology<lacuna::rational>(cl).betti_numbers() ==
+          lacuna::homology<lacuna::rational>(cl, {}, lacuna::dense_elimination{}).betti_numbers());
   }
 }
 

@@ -41,6 +41,7 @@
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
 #include <lacuna/ring/integer.hpp>
+#include <lacuna/ring/rational.hpp>
 
 #include <cstdint>
 #include <functional>
@@ -625,9 +626,12 @@ namespace detail {
 /// Measured (docs/performance.md, bench_torsion and bench_homology): on simplicial complexes
 /// and cell lists the route is as fast or faster (matching complex of K_11: minutes -> under a
 /// second), while on cubical volumes the implicit Morse matching of the old route stays ahead.
+/// Over Q the same rule holds: the ranks over Q are the free ranks over Z, so the rationals
+/// take the integral route (exact, with integral working coefficients) instead of a Smith
+/// form over Q, whose fractions grow (matching complex of K_11 over Q: minutes before).
 template <class R, class C>
 bool coboundary_route_by_default(const homology_options& opt, const sparse_elimination& alg) {
-  if constexpr (!std::same_as<R, integer> || has_implicit_morse_complex<C>) {
+  if constexpr (!(std::same_as<R, integer> || std::same_as<R, rational>) || has_implicit_morse_complex<C>) {
     return false;
   } else {
     return alg.allow_coboundary_route && alg.reduction == pre_reduction::coreductions_and_collapses &&
@@ -692,6 +696,18 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
                                             const std::vector<std::vector<bool>>* excluded, const R& unit) {
   if (opt.generators || opt.keep_basis.value_or(false))
     return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, unit);
+  if constexpr (std::same_as<R, rational>) {
+    // H_k(C; Q) = H_k(C; Z) ⊗ Q (universal coefficients; Q is flat over Z): its dimension is
+    // the free rank over Z, and torsion vanishes. The boundary coefficients are integers.
+    const auto z = homology_by_coboundaries<integer>(c, opt, alg, excluded, one<integer>());
+    homology_result<R> res;
+    res.reduced = z.reduced;
+    res.level_offset_ = z.level_offset_;
+    res.top_ = z.top_;
+    res.unit_ = unit;
+    for (const auto& g : z.groups) res.groups.push_back(homology_group<R>{.dimension = g.dimension, .rank = g.rank});
+    return res;
+  }
   if constexpr (std::same_as<R, integer>) {
     try {
       return coboundary_groups<R, checked_int64>(c, opt, alg, excluded, unit);
