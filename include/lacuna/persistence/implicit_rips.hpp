@@ -389,10 +389,10 @@ class implicit_rips_engine {
       std::vector<rips_simplex> columns;
       std::vector<rips_simplex> next;  // all k-simplices, kept when k < D
       auto& dk = out.diagrams[static_cast<std::size_t>(k)].pairs;
-      auto consider = [&](const rips_simplex& s) {
+      auto consider = [&](const rips_simplex& s, std::span<const std::uint32_t> sv) {
         // clearing: a death of the pass k - 1 (a pivot, or the upper half of an apparent pair)
-        if (k >= 2 && (pivots.count(s.number) != 0 || apparent_facet(s, k))) return;
-        if (const auto t = apparent_cofacet(s, k)) {
+        if (k >= 2 && (pivots.count(s.number) != 0 || apparent_facet_of(s, sv))) return;
+        if (const auto t = apparent_cofacet(s, sv)) {
           if (o_.zero_persistence) dk.push_back({s.value, t->value, s.number, t->number});
           return;
         }
@@ -400,8 +400,13 @@ class implicit_rips_engine {
       };
       if (k == 1) {
         detail::progress_ticker tick(&o_.control, phase_columns, simplices.size());
+        std::vector<std::uint32_t> v;
         for (std::size_t e = 0; e < simplices.size(); ++e) {
-          if (!edge_killed[e]) consider(simplices[e]);
+          if (!edge_killed[e]) {
+            v.clear();
+            numbering_.vertices(simplices[e].number, 1, v);
+            consider(simplices[e], v);
+          }
           tick();
         }
         tick.finish();
@@ -411,10 +416,12 @@ class implicit_rips_engine {
         // the k-simplices, each from its facet without the largest vertex: the new vertex w
         // above all of the facet's, in position 0, so that the number is C(w, k + 1) + facet's
         detail::progress_ticker tick(&o_.control, phase_columns, simplices.size());
-        std::vector<std::uint32_t> v;
+        std::vector<std::uint32_t> v, sv;
         for (const auto& f : simplices) {
           v.clear();
           numbering_.vertices(f.number, k - 1, v);
+          sv.assign(1, 0);
+          sv.insert(sv.end(), v.begin(), v.end());
           for (std::size_t w = v[0] + 1; w < n_; ++w) {
             double value = f.value;
             for (std::uint32_t u : v) {
@@ -424,7 +431,8 @@ class implicit_rips_engine {
             if (value > threshold_) continue;
             const rips_simplex s{value, numbering_.binomial(w, k + 1) + f.number};
             if (k < D) next.push_back(s);
-            consider(s);
+            sv[0] = static_cast<std::uint32_t>(w);
+            consider(s, sv);
           }
           tick();
         }
@@ -450,86 +458,120 @@ class implicit_rips_engine {
     std::size_t begin = 0, end = 0;  // its extra terms in stored_ (the rest of the column of V)
   };
 
-  /// The cofacets of the k-simplex s within the threshold, numbers decreasing, with the
-  /// incidence sign: visit(cofacet, sign) returns false to stop.
+  /// The cofacets of the simplex s with vertices sv (decreasing) within the threshold,
+  /// numbers decreasing: visit(cofacet, j, w) for the vertex w inserted at position j (the
+  /// incidence of s in it is (-1)^j); visit returns false to stop.
   template <class Visit>
-  void cofacets(const rips_simplex& s, int k, std::vector<std::uint32_t>& v, Visit&& visit) const {
-    v.clear();
-    numbering_.vertices(s.number, k, v);
+  void cofacets_of(const rips_simplex& s, std::span<const std::uint32_t> sv, Visit&& visit) const {
+    const int k = static_cast<int>(sv.size()) - 1;
     std::uint64_t above = 0, below = s.number;
-    std::size_t j = 0;  // vertices v[0..j) are above w
+    std::size_t j = 0;  // vertices sv[0..j) are above w
     for (std::size_t w = n_; w-- > 0;) {
-      if (j < v.size() && w == v[j]) {
+      if (j < sv.size() && w == sv[j]) {
         below -= numbering_.binomial(w, k + 1 - static_cast<int>(j));
         above += numbering_.binomial(w, k + 2 - static_cast<int>(j));
         ++j;
         continue;
       }
       double value = s.value;
-      for (std::uint32_t u : v) {
+      for (std::uint32_t u : sv) {
         value = std::max(value, m_.distance(w, u));
         if (value > threshold_) break;
       }
       if (value > threshold_) continue;
-      // inserting w at position j of the decreasing list: incidence (-1)^j
-      if (!visit(rips_simplex{value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j % 2 == 1))
+      if (!visit(rips_simplex{value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j,
+                 static_cast<std::uint32_t>(w)))
         return;
     }
+  }
+  /// The same with the incidence sign (true: -1), the vertices decoded into v.
+  template <class Visit>
+  void cofacets(const rips_simplex& s, int k, std::vector<std::uint32_t>& v, Visit&& visit) const {
+    v.clear();
+    numbering_.vertices(s.number, k, v);
+    cofacets_of(s, v, [&](const rips_simplex& c, std::size_t j, std::uint32_t) { return visit(c, j % 2 == 1); });
+  }
+
+  struct found_cofacet {
+    rips_simplex simplex;
+    std::size_t position;  // where its new vertex sits
+    std::uint32_t vertex;
+  };
+  /// The oldest cofacet of s if it is of the value of s (the first one met); none otherwise.
+  /// (cofacets_of, with the search for a point within s.value of every vertex of s written
+  /// out: the first distance beyond it ends the test of a point.)
+  std::optional<found_cofacet> oldest_equal_cofacet(const rips_simplex& s, std::span<const std::uint32_t> sv) const {
+    const int k = static_cast<int>(sv.size()) - 1;
+    std::uint64_t above = 0, below = s.number;
+    std::size_t j = 0;
+    for (std::size_t w = n_; w-- > 0;) {
+      if (j < sv.size() && w == sv[j]) {
+        below -= numbering_.binomial(w, k + 1 - static_cast<int>(j));
+        above += numbering_.binomial(w, k + 2 - static_cast<int>(j));
+        ++j;
+        continue;
+      }
+      bool near = true;
+      for (std::uint32_t u : sv)
+        if (m_.distance(w, u) > s.value) {
+          near = false;
+          break;
+        }
+      if (near)  // s.value <= the threshold: the cofacet exists
+        return found_cofacet{rips_simplex{s.value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j,
+                             static_cast<std::uint32_t>(w)};
+    }
+    return std::nullopt;
+  }
+  static void insert_vertex(std::span<const std::uint32_t> sv, std::size_t j, std::uint32_t w, std::vector<std::uint32_t>& out) {
+    out.assign(sv.begin(), sv.end());
+    out.insert(out.begin() + static_cast<std::ptrdiff_t>(j), w);
   }
 
   /// The oldest cofacet of s if it has the value of s and s is its youngest facet (an
   /// apparent pair); none otherwise.
-  std::optional<rips_simplex> apparent_cofacet(const rips_simplex& s, int k) {
-    std::optional<rips_simplex> first;
-    cofacets(s, k, scratch_, [&](const rips_simplex& c, bool) {
-      if (c.value == s.value) {
-        first = c;
-        return false;
-      }
-      return true;
-    });
+  std::optional<rips_simplex> apparent_cofacet(const rips_simplex& s, std::span<const std::uint32_t> sv) {
+    const auto first = oldest_equal_cofacet(s, sv);
     if (!first) return std::nullopt;
-    const auto f = youngest_equal_facet(*first, k + 1);
-    if (f && f->number == s.number) return first;
+    insert_vertex(sv, first->position, first->vertex, tv_);
+    const auto f = youngest_equal_facet(first->simplex, tv_);
+    if (f && f->first.number == s.number) return first->simplex;
     return std::nullopt;
   }
 
-  /// The youngest facet of t if it is of the value of t and t is its oldest cofacet.
-  std::optional<rips_simplex> apparent_facet_of(const rips_simplex& t, int k) {
-    const auto f = youngest_equal_facet(t, k);
+  /// The youngest facet of t (vertices tv) if it is of the value of t and t is its oldest
+  /// cofacet, with the incidence of that facet in t; none otherwise.
+  std::optional<std::pair<rips_simplex, R>> apparent_facet_of(const rips_simplex& t, std::span<const std::uint32_t> tv) {
+    const auto f = youngest_equal_facet(t, tv);
     if (!f) return std::nullopt;
-    std::optional<rips_simplex> first;
-    cofacets(*f, k - 1, scratch2_, [&](const rips_simplex& c, bool) {
-      if (c.value == f->value) {
-        first = c;
-        return false;
-      }
-      return true;
-    });
-    if (first && first->number == t.number) return f;
+    fv_.assign(tv.begin(), tv.end());
+    fv_.erase(fv_.begin() + static_cast<std::ptrdiff_t>(f->second));
+    const auto first = oldest_equal_cofacet(f->first, fv_);
+    if (first && first->simplex.number == t.number)
+      return std::pair<rips_simplex, R>{f->first, f->second % 2 == 1 ? -unit_ : unit_};
     return std::nullopt;
   }
-  bool apparent_facet(const rips_simplex& t, int k) { return apparent_facet_of(t, k).has_value(); }
 
-  /// Among the facets of the k-simplex t of the value of t, the youngest (the smallest
-  /// number); none when every facet is older in value.
-  std::optional<rips_simplex> youngest_equal_facet(const rips_simplex& t, int k) {
-    facet_v_.clear();
-    numbering_.vertices(t.number, k, facet_v_);
-    std::optional<rips_simplex> best;
+  /// Among the facets of t (vertices tv, decreasing) of the value of t, the youngest (the
+  /// smallest number), with the position of the vertex it lacks; none when every facet is
+  /// older in value.
+  std::optional<std::pair<rips_simplex, std::size_t>> youngest_equal_facet(const rips_simplex& t,
+                                                                            std::span<const std::uint32_t> tv) const {
+    const int k = static_cast<int>(tv.size()) - 1;
+    std::optional<std::pair<rips_simplex, std::size_t>> best;
     for (int j = 0; j <= k; ++j) {
       double value = 0;
       std::uint64_t number = 0;
       int pos = 0;
       for (int i = 0; i <= k; ++i) {
         if (i == j) continue;
-        number += numbering_.binomial(facet_v_[static_cast<std::size_t>(i)], k - pos);
+        number += numbering_.binomial(tv[static_cast<std::size_t>(i)], k - pos);
         ++pos;
         for (int h = i + 1; h <= k; ++h)
-          if (h != j)
-            value = std::max(value, m_.distance(facet_v_[static_cast<std::size_t>(i)], facet_v_[static_cast<std::size_t>(h)]));
+          if (h != j) value = std::max(value, m_.distance(tv[static_cast<std::size_t>(i)], tv[static_cast<std::size_t>(h)]));
       }
-      if (value == t.value && (!best || number < best->number)) best = rips_simplex{value, number};
+      if (value == t.value && (!best || number < best->first.number))
+        best = std::pair<rips_simplex, std::size_t>{rips_simplex{value, number}, static_cast<std::size_t>(j)};
     }
     return best;
   }
@@ -580,16 +622,16 @@ class implicit_rips_engine {
       tick();
       // emergent pair: the oldest cofacet, if of the same value, found first; if nobody's
       // pivot, the column is reduced as it stands
-      std::optional<rips_simplex> first;
-      cofacets(s, k, scratch_, [&](const rips_simplex& c, bool) {
-        if (c.value == s.value) first = c;
-        return !first;
-      });
-      if (first && pivots.count(first->number) == 0 && !apparent_facet(*first, k + 1)) {
-        // its coefficient: the incidence of s in first (found again below, cheaply)
-        pivots.emplace(first->number, pivot_entry{s, incidence(s, *first, k), 0, 0});
-        if (o_.zero_persistence) pairs.push_back({s.value, first->value, s.number, first->number});
-        continue;
+      sv_.clear();
+      numbering_.vertices(s.number, k, sv_);
+      if (const auto first = oldest_equal_cofacet(s, sv_); first && pivots.count(first->simplex.number) == 0) {
+        insert_vertex(sv_, first->position, first->vertex, tv_);
+        if (!apparent_facet_of(first->simplex, tv_)) {
+          // the coefficient of the pivot: the incidence of s in it
+          pivots.emplace(first->simplex.number, pivot_entry{s, first->position % 2 == 1 ? -unit_ : unit_, 0, 0});
+          if (o_.zero_persistence) pairs.push_back({s.value, s.value, s.number, first->simplex.number});
+          continue;
+        }
       }
       heap_.clear();
       v_terms.clear();
@@ -613,12 +655,14 @@ class implicit_rips_engine {
           }
           continue;
         }
-        if (const auto f = apparent_facet_of(p->simplex, k + 1)) {
+        pv_.clear();
+        numbering_.vertices(p->simplex.number, k + 1, pv_);
+        if (const auto f = apparent_facet_of(p->simplex, pv_)) {
           // the pivot belongs to the column of an apparent pair (f, pivot): f's coboundary
           // is reduced as it stands, with the incidence of f in the pivot there
-          const R factor = -(p->coefficient * lacuna::inverse(incidence(*f, p->simplex, k)));
-          push_coboundary(*f, k, factor);
-          v_terms.push_back({*f, factor});
+          const R factor = -(p->coefficient * lacuna::inverse(f->second));
+          push_coboundary(f->first, k, factor);
+          v_terms.push_back({f->first, factor});
           continue;
         }
         // a new pivot: the pair (s, p), the column of V kept (equal terms summed)
@@ -643,17 +687,6 @@ class implicit_rips_engine {
     heap_.shrink_to_fit();
   }
 
-  /// The incidence [t : s] of the k-simplex s in its cofacet t, as unit or -unit.
-  R incidence(const rips_simplex& s, const rips_simplex& t, int k) {
-    facet_v_.clear();
-    numbering_.vertices(t.number, k + 1, facet_v_);
-    scratch2_.clear();
-    numbering_.vertices(s.number, k, scratch2_);
-    std::size_t j = 0;
-    while (j < scratch2_.size() && facet_v_[j] == scratch2_[j]) ++j;
-    return j % 2 == 1 ? -unit_ : unit_;
-  }
-
   const rips_metric& m_;
   const implicit_rips_options& o_;
   R unit_;
@@ -662,7 +695,7 @@ class implicit_rips_engine {
   double threshold_ = 0;
   std::vector<heap_entry> heap_;
   std::vector<heap_entry> stored_;
-  std::vector<std::uint32_t> scratch_, scratch2_, facet_v_;
+  std::vector<std::uint32_t> scratch_, sv_, tv_, fv_, pv_;
 };
 
 }  // namespace detail
