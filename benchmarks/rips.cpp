@@ -117,6 +117,6 @@ BENCHMARK(BM_rips_implicit_cube)
 BENCHMARK(BM_rips_explicit_cube)
     ->Args({250, 1})->Args({500, 1})->Args({100, 2})
     ->Iterations(1)->Unit(benchmark::kMillisecond)->UseRealTime();
-BENCHMARK(BM_rips_implicit_torus)->Args({1000, 1})->Args({2000, 1})->Args({3000, 1})->Args({10000, 1})->Iterations(1)->Unit(benchmark::kMillisecond)->UseRealTime();
+BENCHMARK(BM_rips_implicit_torus)->Args({1000, 1})->Args({2000, 1})->Args({10000, 1})->Iterations(1)->Unit(benchmark::kMillisecond)->UseRealTime();
 
 BENCHMARK_MAIN();
