@@ -287,6 +287,16 @@ TEST_CASE("refusals: numbers beyond 63 bits, bad options, bad input; stop and pr
   o.control.stop = source.get_token();
   CHECK_THROWS_AS(lacuna::implicit_rips_persistence(m, o), lacuna::computation_stopped);
 
+  // a memory limit on the stored columns: 1 byte is passed as soon as one column is kept
+  lacuna::implicit_rips_options tight{.max_dimension = 2};
+  tight.control.memory_limit = 1;
+  std::mt19937_64 rng0(2);
+  const auto cloud = random_cloud(rng0, 40, 3, false);
+  CHECK_THROWS_AS(lacuna::implicit_rips_persistence(lacuna::rips_metric::from_points(cloud, 3), tight),
+                  lacuna::memory_limit_exceeded);
+  tight.control.memory_limit = 0;  // no limit
+  CHECK_NOTHROW(lacuna::implicit_rips_persistence(lacuna::rips_metric::from_points(cloud, 3), tight));
+
   std::vector<std::string> phases;
   lacuna::implicit_rips_options p{.max_dimension = 2};
   p.control.progress = [&](const lacuna::progress_report& r) {

@@ -217,7 +217,10 @@ struct implicit_rips_options {
   bool zero_persistence = false;
   /// A stop request and a progress callback. Phases: "Vietoris-Rips distances" (points),
   /// "H_0 by union-find" (edges), "Vietoris-Rips columns of dimension k" (simplices), and
-  /// "reducing the coboundary of dimension k" (columns).
+  /// "reducing the coboundary of dimension k" (columns). Its memory_limit bounds the columns
+  /// the reduction stores (those that needed additions) and its working column: past it,
+  /// lacuna::memory_limit_exceeded (the part that grows fastest on large clouds, see
+  /// docs/performance.md).
   run_control control{};
 };
 
@@ -676,6 +679,8 @@ class implicit_rips_engine {
           if (!(sum.coefficient == zero<R>())) stored_.push_back(sum);
         }
         e.end = stored_.size();
+        o_.control.require_memory(stored_.size() * sizeof(heap_entry) + heap_.size() * sizeof(heap_entry),
+                                  "the stored columns of the implicit Vietoris-Rips reduction");
         pivots.emplace(p->simplex.number, e);
         if (o_.zero_persistence || s.value < p->simplex.value)
           pairs.push_back({s.value, p->simplex.value, s.number, p->simplex.number});
@@ -705,7 +710,8 @@ class implicit_rips_engine {
 /// complex (see the file comment for the method, the order, the threshold and the cells).
 /// `unit` is the one of R (mod_p_dynamic(1, p)). Throws std::invalid_argument for a negative
 /// max_dimension, a threshold that is not a number, or a zero unit; std::length_error when
-/// simplex numbers would pass 63 bits; computation_stopped on a stop request.
+/// simplex numbers would pass 63 bits; computation_stopped on a stop request;
+/// memory_limit_exceeded past options.control.memory_limit.
 /// Cost: O(n^2) distances and edges, then per dimension the simplices enumerated once and the
 /// columns that are not paired by a shortcut reduced (each coboundary O(n k) to enumerate).
 template <field R = z2>
