@@ -9,6 +9,7 @@
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/persistence/cubical_filtration.hpp>
+#include <lacuna/persistence/implicit_rips.hpp>
 #include <lacuna/persistence/persistence.hpp>
 #include <lacuna/persistence/rips_filtration.hpp>
 #include <lacuna/persistence/values_filtration.hpp>
@@ -177,8 +178,13 @@ double parse_up_to(const std::string& v) {
 
 // ---- the inputs ---------------------------------------------------------------------------
 
-void run_rips(const persistence_command::settings& s, const field_choice& field, const run_context& context,
-              outcome& out) {
+/// The explicit Vietoris–Rips route (rips_filtration, every simplex built, then
+/// lacuna::persistence) instead of the implicit one: the hidden flag --explicit-rips, kept to
+/// check one route against the other on real files. Both print the same bytes.
+bool explicit_rips_route = false;
+
+void run_rips_explicit(const persistence_command::settings& s, const field_choice& field, const run_context& context,
+                       outcome& out) {
   const std::string ext = extension_of(s.file);
   const long long top = s.max_dimension.value_or(1);
   lacuna::rips_options ro{.max_dimension = static_cast<int>(top + 1)};
@@ -198,6 +204,37 @@ void run_rips(const persistence_command::settings& s, const field_choice& field,
   }
   with_field(field, [&](const auto& unit) {
     compute(f, top, std::optional<double>{}, context, unit, out);
+  });
+}
+
+/// Vietoris–Rips without building the complex (lacuna/persistence/implicit_rips.hpp): the same
+/// pairs of positive persistence as the explicit route (the pairs of persistence zero, which
+/// the tool drops, are not computed). With --up-to V the edges longer than V are left out, as
+/// there; without it the enclosing radius cuts the filtration, which changes no pair the tool
+/// prints (the explicit route, which keeps every edge, gives the same output).
+void run_rips(const persistence_command::settings& s, const field_choice& field, const run_context& context,
+              outcome& out) {
+  if (explicit_rips_route) return run_rips_explicit(s, field, context, out);
+  const std::string ext = extension_of(s.file);
+  const long long top = s.max_dimension.value_or(1);
+  lacuna::implicit_rips_options o{.max_dimension = static_cast<int>(top)};
+  if (s.up_to) o.threshold = parse_up_to(*s.up_to);
+  o.control.stop = context.stop;
+  out.filtration = "vietoris-rips";
+  lacuna::rips_metric m;
+  if (ext == ".distances") {
+    const auto d = lacuna::io::read_distances(std::filesystem::path(s.file));
+    std::vector<double> full(d.size() * d.size());
+    for (std::size_t i = 0; i < d.size(); ++i)
+      for (std::size_t j = 0; j < d.size(); ++j) full[i * d.size() + j] = d(i, j);
+    m = lacuna::rips_metric::from_distances(d.size(), full);
+  } else {
+    const auto c = lacuna::io::read_points(std::filesystem::path(s.file));
+    if (!c.empty()) m = lacuna::rips_metric::from_points(c.coordinates, c.dimension);
+  }
+  with_field(field, [&](const auto& unit) {
+    using R = std::remove_cvref_t<decltype(unit)>;
+    collect(lacuna::implicit_rips_persistence<R>(m, o, unit), top, out);
   });
 }
 
@@ -334,6 +371,9 @@ persistence_command::persistence_command(CLI::App& app) {
   sub_->add_flag("--json", s_.json, "one JSON object");
   sub_->add_option("--diagram", s_.diagram, "also write the persistence diagram as SVG")->type_name("OUT.svg");
   sub_->add_option("--barcode", s_.barcode, "also write the barcode as SVG")->type_name("OUT.svg");
+  sub_->add_flag_callback("--explicit-rips", [] { explicit_rips_route = true; },
+                          "Vietoris-Rips: build every simplex (the explicit route), to check the implicit one")
+      ->group("");
   sub_->add_option("FILE", s_.file, "input: .points .csv .distances .pgm .nrrd, or .facets .cells with --values")
       ->required();
 }

@@ -10,6 +10,7 @@
 #include <lacuna/persistence/values_filtration.hpp>
 #include <lacuna/persistence/cubical_filtration.hpp>
 #include <lacuna/persistence/rips_filtration.hpp>
+#include <lacuna/persistence/implicit_rips.hpp>
 #include <lacuna/persistence/filtered_boundary.hpp>
 #include <lacuna/persistence/reduction.hpp>
 #include <lacuna/persistence/cubical_reduction.hpp>

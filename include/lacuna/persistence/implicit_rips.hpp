@@ -1,0 +1,732 @@
+// lacuna/persistence/implicit_rips.hpp — persistence of the Vietoris–Rips filtration of a
+// point cloud or a distance matrix without building the complex.
+//
+//   auto m = lacuna::rips_metric::from_points(coordinates, 3);     // or ::from_distances(n, matrix)
+//   auto r = lacuna::implicit_rips_persistence(m, {.max_dimension = 2});              // Z/2
+//   auto q = lacuna::implicit_rips_persistence<lacuna::mod_p<3>>(m, {.max_dimension = 1});
+//   lacuna::implicit_rips_vertices(m.size(), 2, r[1].pairs[0].death_cell)  // {0, 4, 7}
+//
+// The filtration is that of lacuna::rips_filtration (rips_filtration.hpp): a simplex enters at
+// the largest distance between two of its points (the same doubles: euclidean_distance), a
+// point at 0, and only edges no longer than the threshold exist. Nothing of it is stored:
+//
+// Simplices are numbered by the combinatorial number system (Knuth, TAOCP 4A, 7.2.1.3): the
+// k-simplex with vertices v_0 > v_1 > ... > v_k has the number  sum_i C(v_i, k + 1 - i), a
+// bijection between the k-subsets of {0..n-1} and 0..C(n, k+1)-1. Its facets and cofacets are
+// computed from the number and a binomial table when they are needed. Numbers must fit in 63
+// bits (the binomial C(n, D + 2) for diagrams up to D); beyond that the call is refused
+// (std::length_error), never wrapped.
+//
+// The total order of the filtration (a valid filtration: a face never after its coface,
+// since its value is at most the coface's and its dimension smaller):
+//     by value, then by dimension, then by the combinatorial number DEcreasing.
+// The last rule is a choice: cofacets are enumerated with their numbers decreasing, so the
+// oldest cofacet of equal value is the first one met and the search for it stops there.
+// lacuna::persistence on the explicit rips_filtration breaks ties by its own cell indices;
+// the pairs' values do not depend on how ties are broken (the number of k-classes born at a
+// value a and dying at b is a rank of the persistence module of the values, and the pairs of
+// persistence zero at a are what is left of the k-simplices entering at a, whose number of
+// positive and negative ones are dimensions of cycle and boundary spaces), so the two routes
+// give the same (birth, death) values, pair for pair after sorting. The tests check it.
+//
+// The computation (all of it exact: values are the input doubles compared as such, the
+// algebra is over the field R):
+//   H_0: Kruskal's union-find over the edges in filtration order; an edge joining two
+//        components kills the younger one (whose oldest vertex is younger: all vertices enter
+//        at 0, so the one with the smaller number), an essential class per component left.
+//   H_k, k = 1..D: the coboundary matrix of dimension k reduced with clearing (de Silva,
+//        Morozov & Vejdemo-Johansson 2011, "Dualities in persistent (co)homology"; Chen &
+//        Kerber 2011): columns are the k-simplices in reverse filtration order, the pivot of
+//        a column is its OLDEST cofacet (the lowest row of the anti-transposed boundary
+//        matrix, whose rows also run backwards in time); a pivot (sigma, tau) is the pair
+//        born at sigma, killed by tau (their Proposition 2.4: the pairs of homology). The
+//        k-simplices that were pivots of the pass k - 1 are deaths and are never columns
+//        (clearing). Before any algebra:
+//          - apparent pairs (a gradient pair of a discrete Morse function, Forman 1998): sigma
+//            and tau of the same value where tau is the oldest cofacet of sigma and sigma the
+//            youngest facet of tau; such a pair is a persistence pair (the boundary column of
+//            tau and the coboundary column of sigma are both reduced with these pivots as
+//            they stand, and a pivot of a reduced matrix is the pivot of every reduction of
+//            it); neither sigma nor tau ever becomes a column;
+//          - emergent pairs: a column whose oldest cofacet is nobody's pivot yet is reduced
+//            as it stands; nothing of it is stored.
+//        Only columns that needed additions keep their combination of simplices (the column
+//        of the reduction matrix V, from which the reduced coboundary is regenerated on
+//        demand); the working coboundary is a heap of cofacets, equal ones summed when they
+//        reach the top. So memory grows with the columns actually reduced, the pivots, and
+//        the list of k-simplices (only those not already paired by a shortcut, and all
+//        k-simplices when k < D, to enumerate the (k+1)-simplices from).
+//
+// The threshold. None given: the enclosing radius r = min_i max_j d(i, j). Beyond r the
+// complex is a cone: if c is a point with max_j d(c, j) = r, then for s >= r every simplex
+// sigma of K_s gives sigma + c of value max(value(sigma), max_j d(c, j)) <= s in K_s, so K_s
+// (and its (D+1)-skeleton, in dimensions <= D) has the homology of a point. Hence every class
+// of dimension <= D born before r is dead by r, none born at s >= r outlives s, and cutting
+// at r changes no pair of positive persistence (pairs ending by r are decided by K_r); only
+// pairs of persistence zero at values above r disappear, with the simplices.
+//
+// Result: persistence_result<double, R> with diagrams 0..D (empty ones where there are no
+// simplices), sorted as diagram.hpp says. birth_cell and death_cell are the combinatorial
+// numbers of the simplices (implicit_rips_vertices decodes one), not the indices of the
+// explicit rips_filtration. Pairs of persistence zero are dropped by default — the result is
+// then that of lacuna::without_zero_persistence(lacuna::persistence(explicit)), which is what
+// the command-line tool prints — and kept with options.zero_persistence (then equal to
+// lacuna::persistence(explicit) itself, below the threshold). No representatives.
+#pragma once
+
+#include <lacuna/chain/run_control.hpp>
+#include <lacuna/persistence/diagram.hpp>
+#include <lacuna/persistence/rips_filtration.hpp>
+#include <lacuna/ring/concepts.hpp>
+#include <lacuna/ring/z2.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <cstddef>
+#include <cstdint>
+#include <limits>
+#include <numeric>
+#include <optional>
+#include <span>
+#include <stdexcept>
+#include <string>
+#include <unordered_map>
+#include <utility>
+#include <vector>
+
+namespace lacuna {
+
+/// A finite metric space for implicit_rips_persistence: points of R^d with the Euclidean
+/// distance (computed as lacuna::euclidean_distance does), or a full distance matrix.
+/// Distances of points are stored (lower triangle) up to 8192 points and computed again
+/// when needed beyond, so that memory stays O(n) there.
+class rips_metric {
+ public:
+  /// No points.
+  rips_metric() = default;
+
+  /// Points given by their coordinates, `dimension` (>= 1) numbers per point. Throws
+  /// std::invalid_argument when the coordinates do not split into points or one is not finite.
+  static rips_metric from_points(std::span<const double> coordinates, std::size_t dimension) {
+    if (dimension == 0) throw std::invalid_argument("lacuna::rips_metric: points of dimension 0");
+    if (coordinates.size() % dimension != 0)
+      throw std::invalid_argument("lacuna::rips_metric: " + std::to_string(coordinates.size()) +
+                                  " coordinates do not make points of dimension " + std::to_string(dimension));
+    for (std::size_t i = 0; i < coordinates.size(); ++i)
+      if (!std::isfinite(coordinates[i]))
+        throw std::invalid_argument("lacuna::rips_metric: coordinate " + std::to_string(i % dimension) + " of point " +
+                                    std::to_string(i / dimension) + " is not finite");
+    rips_metric m;
+    m.n_ = coordinates.size() / dimension;
+    m.dimension_ = dimension;
+    m.coordinates_.assign(coordinates.begin(), coordinates.end());
+    if (m.n_ <= stored_limit) {
+      m.lower_.resize(m.n_ * (m.n_ - (m.n_ > 0)) / 2);
+      for (std::size_t a = 1; a < m.n_; ++a)
+        for (std::size_t b = 0; b < a; ++b) m.lower_[a * (a - 1) / 2 + b] = m.computed(a, b);
+      m.stored_ = true;
+    }
+    return m;
+  }
+  /// The same for points given as vectors (all of one dimension).
+  static rips_metric from_points(const std::vector<std::vector<double>>& points) {
+    if (points.empty()) return {};
+    const std::size_t dimension = points.front().size();
+    std::vector<double> flat;
+    flat.reserve(points.size() * dimension);
+    for (std::size_t i = 0; i < points.size(); ++i) {
+      if (points[i].size() != dimension)
+        throw std::invalid_argument("lacuna::rips_metric: point " + std::to_string(i) + " has " +
+                                    std::to_string(points[i].size()) + " coordinates, point 0 has " +
+                                    std::to_string(dimension));
+      flat.insert(flat.end(), points[i].begin(), points[i].end());
+    }
+    return from_points(flat, dimension);
+  }
+  /// A distance matrix: n x n numbers, row after row, finite, not negative, zero on the
+  /// diagonal, symmetric (equal as given) — the rules of rips_filtration::from_distances.
+  /// Throws std::invalid_argument naming the first entry that breaks one.
+  static rips_metric from_distances(std::size_t n, std::span<const double> matrix) {
+    if (matrix.size() != n * n)
+      throw std::invalid_argument("lacuna::rips_metric: " + std::to_string(matrix.size()) +
+                                  " distances for a matrix of " + std::to_string(n) + " points");
+    auto where = [](std::size_t i, std::size_t j) {
+      return "the distance in row " + std::to_string(i) + ", column " + std::to_string(j);
+    };
+    for (std::size_t i = 0; i < n; ++i)
+      for (std::size_t j = 0; j < n; ++j) {
+        const double d = matrix[i * n + j];
+        if (!std::isfinite(d)) throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " is not finite");
+        if (d < 0) throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " is negative");
+        if (i == j && d != 0) throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " is not zero");
+        if (d != matrix[j * n + i])
+          throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " differs from " + where(j, i));
+      }
+    rips_metric m;
+    m.n_ = n;
+    m.lower_.resize(n * (n - (n > 0)) / 2);
+    for (std::size_t a = 1; a < n; ++a)
+      for (std::size_t b = 0; b < a; ++b) m.lower_[a * (a - 1) / 2 + b] = matrix[a * n + b];
+    m.stored_ = true;
+    return m;
+  }
+
+  /// The number of points.
+  std::size_t size() const noexcept { return n_; }
+  /// The distance of points a and b (< size()).
+  double distance(std::size_t a, std::size_t b) const {
+    if (a == b) return 0.0;
+    if (a < b) std::swap(a, b);
+    return stored_ ? lower_[a * (a - 1) / 2 + b] : computed(a, b);
+  }
+  /// The enclosing radius min_i max_j d(i, j) (0 for fewer than two points). O(n^2).
+  double enclosing_radius() const {
+    if (n_ < 2) return 0.0;
+    double best = std::numeric_limits<double>::infinity();
+    for (std::size_t i = 0; i < n_; ++i) {
+      double far = 0;
+      for (std::size_t j = 0; j < n_ && far < best; ++j) far = std::max(far, distance(i, j));
+      best = std::min(best, far);
+    }
+    return best;
+  }
+
+  /// Up to this many points, the distances of points are computed once and stored.
+  static constexpr std::size_t stored_limit = 8192;
+
+ private:
+  double computed(std::size_t a, std::size_t b) const {
+    return euclidean_distance(std::span<const double>(coordinates_).subspan(a * dimension_, dimension_),
+                              std::span<const double>(coordinates_).subspan(b * dimension_, dimension_));
+  }
+
+  std::size_t n_ = 0, dimension_ = 0;
+  std::vector<double> coordinates_;
+  std::vector<double> lower_;  // d(a, b), a > b, at a(a-1)/2 + b
+  bool stored_ = false;
+};
+
+/// Options of implicit_rips_persistence.
+struct implicit_rips_options {
+  /// Diagrams of dimensions 0..max_dimension (>= 0); simplices up to max_dimension + 1 are read.
+  int max_dimension = 1;
+  /// Only edges no longer than this (and the simplices they span). None: the enclosing radius
+  /// (which changes no pair of positive persistence; see the file comment). +infinity: all.
+  std::optional<double> threshold{};
+  /// Keep the pairs of persistence zero (default: dropped, as without_zero_persistence does).
+  bool zero_persistence = false;
+  /// A stop request and a progress callback. Phases: "Vietoris-Rips distances" (points),
+  /// "H_0 by union-find" (edges), "Vietoris-Rips columns of dimension k" (simplices), and
+  /// "reducing the coboundary of dimension k" (columns). Its memory_limit bounds the columns
+  /// the reduction stores (those that needed additions) and its working column: past it,
+  /// lacuna::memory_limit_exceeded (the part that grows fastest on large clouds, see
+  /// docs/performance.md).
+  run_control control{};
+};
+
+/// The combinatorial number system of the simplices on n vertices up to `top_vertices`
+/// vertices: a binomial table C(v, m), v = 0..n, m = 0..top_vertices. Throws std::length_error
+/// when some number of a simplex with at most top_vertices vertices would not fit in 63 bits.
+class simplex_numbering {
+ public:
+  simplex_numbering(std::size_t n, int top_vertices) : n_(n), top_(top_vertices) {
+    constexpr std::uint64_t limit = std::uint64_t{1} << 63U;
+    table_.assign(static_cast<std::size_t>(top_ + 1) * (n_ + 1), 0);
+    for (std::size_t v = 0; v <= n_; ++v) {
+      at(v, 0) = 1;
+      for (int m = 1; m <= top_; ++m) {
+        if (v == 0) continue;
+        const std::uint64_t s = at(v - 1, m - 1) + at(v - 1, m);
+        if (s >= limit || s < at(v - 1, m))
+          throw std::length_error("lacuna::implicit_rips_persistence: " + std::to_string(n) +
+                                  " points and simplices of " + std::to_string(top_vertices) +
+                                  " vertices: the simplex numbers C(n, " + std::to_string(top_vertices) +
+                                  ") do not fit in 63 bits; use fewer points or a lower dimension");
+        at(v, m) = s;
+      }
+    }
+  }
+  /// C(v, m) for v <= n, m <= top_vertices.
+  std::uint64_t binomial(std::size_t v, int m) const noexcept {
+    return table_[static_cast<std::size_t>(m) * (n_ + 1) + v];
+  }
+  /// The number of the simplex with the given vertices, decreasing.
+  std::uint64_t number(std::span<const std::uint32_t> decreasing) const {
+    const int k = static_cast<int>(decreasing.size()) - 1;
+    std::uint64_t s = 0;
+    for (int i = 0; i <= k; ++i) s += binomial(decreasing[static_cast<std::size_t>(i)], k + 1 - i);
+    return s;
+  }
+  /// The vertices, decreasing, of the k-simplex with number `number` (appended to out).
+  void vertices(std::uint64_t number, int k, std::vector<std::uint32_t>& out) const {
+    std::size_t top = n_;  // vertices are below this
+    for (int i = 0; i <= k; ++i) {
+      const int m = k + 1 - i;
+      // the largest v < top with C(v, m) <= number
+      std::size_t lo = static_cast<std::size_t>(m - 1), hi = top;  // C(lo, m) = 0 <= number
+      while (hi - lo > 1) {
+        const std::size_t mid = lo + (hi - lo) / 2;
+        if (binomial(mid, m) <= number) lo = mid; else hi = mid;
+      }
+      out.push_back(static_cast<std::uint32_t>(lo));
+      number -= binomial(lo, m);
+      top = lo;
+    }
+  }
+  std::size_t point_count() const noexcept { return n_; }
+
+ private:
+  std::uint64_t& at(std::size_t v, int m) { return table_[static_cast<std::size_t>(m) * (n_ + 1) + v]; }
+  std::uint64_t at(std::size_t v, int m) const { return table_[static_cast<std::size_t>(m) * (n_ + 1) + v]; }
+  std::size_t n_;
+  int top_;
+  std::vector<std::uint64_t> table_;
+};
+
+/// The points of the k-simplex with combinatorial number `number` among n points, increasing
+/// (a birth_cell or death_cell of implicit_rips_persistence). Throws std::invalid_argument for
+/// a number that names no k-simplex of n points, std::length_error as simplex_numbering.
+inline std::vector<std::uint32_t> implicit_rips_vertices(std::size_t n, int k, std::uint64_t number) {
+  if (k < 0 || static_cast<std::size_t>(k) >= n)
+    throw std::invalid_argument("lacuna::implicit_rips_vertices: no " + std::to_string(k) + "-simplex on " +
+                                std::to_string(n) + " points");
+  const simplex_numbering table(n, k + 1);
+  if (number >= table.binomial(n, k + 1))
+    throw std::invalid_argument("lacuna::implicit_rips_vertices: " + std::to_string(number) + " numbers no " +
+                                std::to_string(k) + "-simplex on " + std::to_string(n) + " points");
+  std::vector<std::uint32_t> v;
+  table.vertices(number, k, v);
+  std::reverse(v.begin(), v.end());
+  return v;
+}
+
+namespace detail {
+
+/// A simplex of the implicit filtration: its value and combinatorial number.
+struct rips_simplex {
+  double value;
+  std::uint64_t number;
+};
+/// a enters before b (same dimension): value, then number decreasing.
+inline bool rips_before(const rips_simplex& a, const rips_simplex& b) noexcept {
+  return a.value < b.value || (a.value == b.value && a.number > b.number);
+}
+
+template <class R>
+struct rips_term {
+  rips_simplex simplex;
+  R coefficient;
+};
+
+/// The engine of implicit_rips_persistence (one object per call).
+template <class R>
+class implicit_rips_engine {
+ public:
+  implicit_rips_engine(const rips_metric& metric, const implicit_rips_options& o, const R& unit)
+      : m_(metric),
+        o_(o),
+        unit_(unit),
+        n_(metric.size()),
+        // simplices have at most n vertices, so numbers need C(v, m) for m <= min(D + 2, n + 1)
+        numbering_(metric.size(), static_cast<int>(std::min<std::size_t>(static_cast<std::size_t>(o.max_dimension) + 2,
+                                                                         metric.size() + 1))) {
+    threshold_ = o.threshold ? *o.threshold : m_.enclosing_radius();
+  }
+
+  persistence_result<double, R> run() {
+    persistence_result<double, R> out;
+    const int D = o_.max_dimension;
+    out.diagrams.resize(static_cast<std::size_t>(D + 1));
+    for (int k = 0; k <= D; ++k) out.diagrams[static_cast<std::size_t>(k)].dimension = k;
+    if (n_ == 0) return out;
+
+    // ---- the edges within the threshold, in filtration order --------------------------
+    std::vector<rips_simplex> simplices;  // all k-simplices of the current k, filtration order
+    {
+      detail::progress_ticker tick(&o_.control, "Vietoris-Rips distances", n_);
+      for (std::size_t a = 1; a < n_; ++a) {
+        for (std::size_t b = 0; b < a; ++b) {
+          const double d = m_.distance(a, b);
+          if (d <= threshold_) simplices.push_back({d, numbering_.binomial(a, 2) + b});
+        }
+        tick();
+      }
+      tick.finish();
+      std::sort(simplices.begin(), simplices.end(), rips_before);
+    }
+
+    // ---- H_0: Kruskal's union-find (the elder rule) -------------------------------------
+    std::vector<char> edge_killed(simplices.size(), 0);
+    {
+      auto& d0 = out.diagrams[0].pairs;
+      std::vector<std::uint32_t> parent(n_);
+      std::iota(parent.begin(), parent.end(), std::uint32_t{0});
+      // a root is the oldest vertex of its component: the largest number (all enter at 0)
+      auto find = [&](std::uint32_t x) {
+        while (parent[x] != x) x = parent[x] = parent[parent[x]];
+        return x;
+      };
+      detail::progress_ticker tick(&o_.control, "H_0 by union-find", simplices.size());
+      std::vector<std::uint32_t> v;
+      for (std::size_t e = 0; e < simplices.size(); ++e) {
+        v.clear();
+        numbering_.vertices(simplices[e].number, 1, v);
+        const std::uint32_t a = find(v[0]), b = find(v[1]);
+        tick();
+        if (a == b) continue;
+        const std::uint32_t younger = std::min(a, b), elder = std::max(a, b);
+        parent[younger] = elder;
+        edge_killed[e] = 1;
+        if (o_.zero_persistence || simplices[e].value > 0.0)
+          d0.push_back({0.0, simplices[e].value, younger, simplices[e].number});
+      }
+      tick.finish();
+      for (std::uint32_t x = 0; x < n_; ++x)
+        if (parent[x] == x) d0.push_back({0.0, std::nullopt, x, no_cell});
+    }
+
+    // ---- H_k, k >= 1: coboundary reduction with clearing --------------------------------
+    std::unordered_map<std::uint64_t, pivot_entry> pivots;  // of the pass k - 1 (cleared)
+    for (int k = 1; k <= D && static_cast<std::size_t>(k) < n_; ++k) {
+      const std::string phase_columns = "Vietoris-Rips columns of dimension " + std::to_string(k);
+      std::vector<rips_simplex> columns;
+      std::vector<rips_simplex> next;  // all k-simplices, kept when k < D
+      auto& dk = out.diagrams[static_cast<std::size_t>(k)].pairs;
+      auto consider = [&](const rips_simplex& s, std::span<const std::uint32_t> sv) {
+        // clearing: a death of the pass k - 1 (a pivot, or the upper half of an apparent pair)
+        if (k >= 2 && (pivots.count(s.number) != 0 || apparent_facet_of(s, sv))) return;
+        if (const auto t = apparent_cofacet(s, sv)) {
+          if (o_.zero_persistence) dk.push_back({s.value, t->value, s.number, t->number});
+          return;
+        }
+        columns.push_back(s);
+      };
+      if (k == 1) {
+        detail::progress_ticker tick(&o_.control, phase_columns, simplices.size());
+        std::vector<std::uint32_t> v;
+        for (std::size_t e = 0; e < simplices.size(); ++e) {
+          if (!edge_killed[e]) {
+            v.clear();
+            numbering_.vertices(simplices[e].number, 1, v);
+            consider(simplices[e], v);
+          }
+          tick();
+        }
+        tick.finish();
+        std::vector<char>().swap(edge_killed);
+        if (k < D) next = std::move(simplices);
+      } else {
+        // the k-simplices, each from its facet without the largest vertex: the new vertex w
+        // above all of the facet's, in position 0, so that the number is C(w, k + 1) + facet's
+        detail::progress_ticker tick(&o_.control, phase_columns, simplices.size());
+        std::vector<std::uint32_t> v, sv;
+        for (const auto& f : simplices) {
+          v.clear();
+          numbering_.vertices(f.number, k - 1, v);
+          sv.assign(1, 0);
+          sv.insert(sv.end(), v.begin(), v.end());
+          for (std::size_t w = v[0] + 1; w < n_; ++w) {
+            double value = f.value;
+            for (std::uint32_t u : v) {
+              value = std::max(value, m_.distance(w, u));
+              if (value > threshold_) break;
+            }
+            if (value > threshold_) continue;
+            const rips_simplex s{value, numbering_.binomial(w, k + 1) + f.number};
+            if (k < D) next.push_back(s);
+            sv[0] = static_cast<std::uint32_t>(w);
+            consider(s, sv);
+          }
+          tick();
+        }
+        tick.finish();
+        if (k < D) std::sort(next.begin(), next.end(), rips_before);
+      }
+      std::vector<rips_simplex>().swap(simplices);
+      pivots.clear();
+      // reverse filtration order: value decreasing, number increasing
+      std::sort(columns.begin(), columns.end(), [](const auto& a, const auto& b) { return rips_before(b, a); });
+      reduce(columns, k, pivots, dk);
+      simplices = std::move(next);
+    }
+    for (auto& d : out.diagrams) d.order = out.order;
+    detail::sort_pairs(out);
+    return out;
+  }
+
+ private:
+  struct pivot_entry {
+    rips_simplex column;       // the simplex of the column
+    R coefficient;             // of the pivot in the reduced column
+    std::size_t begin = 0, end = 0;  // its extra terms in stored_ (the rest of the column of V)
+  };
+
+  /// The cofacets of the simplex s with vertices sv (decreasing) within the threshold,
+  /// numbers decreasing: visit(cofacet, j, w) for the vertex w inserted at position j (the
+  /// incidence of s in it is (-1)^j); visit returns false to stop.
+  template <class Visit>
+  void cofacets_of(const rips_simplex& s, std::span<const std::uint32_t> sv, Visit&& visit) const {
+    const int k = static_cast<int>(sv.size()) - 1;
+    std::uint64_t above = 0, below = s.number;
+    std::size_t j = 0;  // vertices sv[0..j) are above w
+    for (std::size_t w = n_; w-- > 0;) {
+      if (j < sv.size() && w == sv[j]) {
+        below -= numbering_.binomial(w, k + 1 - static_cast<int>(j));
+        above += numbering_.binomial(w, k + 2 - static_cast<int>(j));
+        ++j;
+        continue;
+      }
+      double value = s.value;
+      for (std::uint32_t u : sv) {
+        value = std::max(value, m_.distance(w, u));
+        if (value > threshold_) break;
+      }
+      if (value > threshold_) continue;
+      if (!visit(rips_simplex{value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j,
+                 static_cast<std::uint32_t>(w)))
+        return;
+    }
+  }
+  /// The same with the incidence sign (true: -1), the vertices decoded into v.
+  template <class Visit>
+  void cofacets(const rips_simplex& s, int k, std::vector<std::uint32_t>& v, Visit&& visit) const {
+    v.clear();
+    numbering_.vertices(s.number, k, v);
+    cofacets_of(s, v, [&](const rips_simplex& c, std::size_t j, std::uint32_t) { return visit(c, j % 2 == 1); });
+  }
+
+  struct found_cofacet {
+    rips_simplex simplex;
+    std::size_t position;  // where its new vertex sits
+    std::uint32_t vertex;
+  };
+  /// The oldest cofacet of s if it is of the value of s (the first one met); none otherwise.
+  /// (cofacets_of, with the search for a point within s.value of every vertex of s written
+  /// out: the first distance beyond it ends the test of a point.)
+  std::optional<found_cofacet> oldest_equal_cofacet(const rips_simplex& s, std::span<const std::uint32_t> sv) const {
+    const int k = static_cast<int>(sv.size()) - 1;
+    std::uint64_t above = 0, below = s.number;
+    std::size_t j = 0;
+    for (std::size_t w = n_; w-- > 0;) {
+      if (j < sv.size() && w == sv[j]) {
+        below -= numbering_.binomial(w, k + 1 - static_cast<int>(j));
+        above += numbering_.binomial(w, k + 2 - static_cast<int>(j));
+        ++j;
+        continue;
+      }
+      bool near = true;
+      for (std::uint32_t u : sv)
+        if (m_.distance(w, u) > s.value) {
+          near = false;
+          break;
+        }
+      if (near)  // s.value <= the threshold: the cofacet exists
+        return found_cofacet{rips_simplex{s.value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j,
+                             static_cast<std::uint32_t>(w)};
+    }
+    return std::nullopt;
+  }
+  static void insert_vertex(std::span<const std::uint32_t> sv, std::size_t j, std::uint32_t w, std::vector<std::uint32_t>& out) {
+    out.assign(sv.begin(), sv.end());
+    out.insert(out.begin() + static_cast<std::ptrdiff_t>(j), w);
+  }
+
+  /// The oldest cofacet of s if it has the value of s and s is its youngest facet (an
+  /// apparent pair); none otherwise.
+  std::optional<rips_simplex> apparent_cofacet(const rips_simplex& s, std::span<const std::uint32_t> sv) {
+    const auto first = oldest_equal_cofacet(s, sv);
+    if (!first) return std::nullopt;
+    insert_vertex(sv, first->position, first->vertex, tv_);
+    const auto f = youngest_equal_facet(first->simplex, tv_);
+    if (f && f->first.number == s.number) return first->simplex;
+    return std::nullopt;
+  }
+
+  /// The youngest facet of t (vertices tv) if it is of the value of t and t is its oldest
+  /// cofacet, with the incidence of that facet in t; none otherwise.
+  std::optional<std::pair<rips_simplex, R>> apparent_facet_of(const rips_simplex& t, std::span<const std::uint32_t> tv) {
+    const auto f = youngest_equal_facet(t, tv);
+    if (!f) return std::nullopt;
+    fv_.assign(tv.begin(), tv.end());
+    fv_.erase(fv_.begin() + static_cast<std::ptrdiff_t>(f->second));
+    const auto first = oldest_equal_cofacet(f->first, fv_);
+    if (first && first->simplex.number == t.number)
+      return std::pair<rips_simplex, R>{f->first, f->second % 2 == 1 ? -unit_ : unit_};
+    return std::nullopt;
+  }
+
+  /// Among the facets of t (vertices tv, decreasing) of the value of t, the youngest (the
+  /// smallest number), with the position of the vertex it lacks; none when every facet is
+  /// older in value.
+  std::optional<std::pair<rips_simplex, std::size_t>> youngest_equal_facet(const rips_simplex& t,
+                                                                            std::span<const std::uint32_t> tv) const {
+    const int k = static_cast<int>(tv.size()) - 1;
+    std::optional<std::pair<rips_simplex, std::size_t>> best;
+    for (int j = 0; j <= k; ++j) {
+      double value = 0;
+      std::uint64_t number = 0;
+      int pos = 0;
+      for (int i = 0; i <= k; ++i) {
+        if (i == j) continue;
+        number += numbering_.binomial(tv[static_cast<std::size_t>(i)], k - pos);
+        ++pos;
+        for (int h = i + 1; h <= k; ++h)
+          if (h != j) value = std::max(value, m_.distance(tv[static_cast<std::size_t>(i)], tv[static_cast<std::size_t>(h)]));
+      }
+      if (value == t.value && (!best || number < best->first.number))
+        best = std::pair<rips_simplex, std::size_t>{rips_simplex{value, number}, static_cast<std::size_t>(j)};
+    }
+    return best;
+  }
+
+  // ---- the reduction of one dimension ---------------------------------------------------
+
+  struct heap_entry {
+    rips_simplex simplex;
+    R coefficient;
+  };
+  /// Heap order: the oldest simplex on top.
+  static bool heap_less(const heap_entry& a, const heap_entry& b) noexcept { return rips_before(b.simplex, a.simplex); }
+
+  void push_coboundary(const rips_simplex& s, int k, const R& factor) {
+    cofacets(s, k, scratch_, [&](const rips_simplex& c, bool negative) {
+      heap_.push_back({c, negative ? -factor : factor});
+      std::push_heap(heap_.begin(), heap_.end(), heap_less);
+      return true;
+    });
+  }
+  /// The oldest cofacet of the working column with a non-zero coefficient (summing equal
+  /// ones), left on the heap; none when the column is zero.
+  std::optional<heap_entry> pivot_of_heap() {
+    while (!heap_.empty()) {
+      std::pop_heap(heap_.begin(), heap_.end(), heap_less);
+      heap_entry top = heap_.back();
+      heap_.pop_back();
+      while (!heap_.empty() && heap_.front().simplex.number == top.simplex.number) {
+        std::pop_heap(heap_.begin(), heap_.end(), heap_less);
+        top.coefficient = top.coefficient + heap_.back().coefficient;
+        heap_.pop_back();
+      }
+      if (top.coefficient == zero<R>()) continue;
+      heap_.push_back(top);
+      std::push_heap(heap_.begin(), heap_.end(), heap_less);
+      return top;
+    }
+    return std::nullopt;
+  }
+
+  void reduce(const std::vector<rips_simplex>& columns, int k, std::unordered_map<std::uint64_t, pivot_entry>& pivots,
+              std::vector<persistence_pair<double>>& pairs) {
+    const std::string phase = "reducing the coboundary of dimension " + std::to_string(k);
+    detail::progress_ticker tick(&o_.control, phase, columns.size());
+    stored_.clear();
+    std::vector<heap_entry> v_terms;  // the column of V beyond the simplex itself
+    for (const auto& s : columns) {
+      tick();
+      // emergent pair: the oldest cofacet, if of the same value, found first; if nobody's
+      // pivot, the column is reduced as it stands
+      sv_.clear();
+      numbering_.vertices(s.number, k, sv_);
+      if (const auto first = oldest_equal_cofacet(s, sv_); first && pivots.count(first->simplex.number) == 0) {
+        insert_vertex(sv_, first->position, first->vertex, tv_);
+        if (!apparent_facet_of(first->simplex, tv_)) {
+          // the coefficient of the pivot: the incidence of s in it
+          pivots.emplace(first->simplex.number, pivot_entry{s, first->position % 2 == 1 ? -unit_ : unit_, 0, 0});
+          if (o_.zero_persistence) pairs.push_back({s.value, s.value, s.number, first->simplex.number});
+          continue;
+        }
+      }
+      heap_.clear();
+      v_terms.clear();
+      push_coboundary(s, k, unit_);
+      for (;;) {
+        const auto p = pivot_of_heap();
+        if (!p) {  // a cocycle that never becomes a coboundary: an essential class born at s
+          pairs.push_back({s.value, std::nullopt, s.number, no_cell});
+          break;
+        }
+        const auto found = pivots.find(p->simplex.number);
+        if (found != pivots.end()) {
+          const pivot_entry& e = found->second;
+          const R factor = -(p->coefficient * lacuna::inverse(e.coefficient));
+          push_coboundary(e.column, k, factor);
+          v_terms.push_back({e.column, factor});
+          for (std::size_t t = e.begin; t < e.end; ++t) {
+            const R c = factor * stored_[t].coefficient;
+            push_coboundary(stored_[t].simplex, k, c);
+            v_terms.push_back({stored_[t].simplex, c});
+          }
+          continue;
+        }
+        pv_.clear();
+        numbering_.vertices(p->simplex.number, k + 1, pv_);
+        if (const auto f = apparent_facet_of(p->simplex, pv_)) {
+          // the pivot belongs to the column of an apparent pair (f, pivot): f's coboundary
+          // is reduced as it stands, with the incidence of f in the pivot there
+          const R factor = -(p->coefficient * lacuna::inverse(f->second));
+          push_coboundary(f->first, k, factor);
+          v_terms.push_back({f->first, factor});
+          continue;
+        }
+        // a new pivot: the pair (s, p), the column of V kept (equal terms summed)
+        pivot_entry e{s, p->coefficient, stored_.size(), stored_.size()};
+        std::sort(v_terms.begin(), v_terms.end(),
+                  [](const auto& a, const auto& b) { return a.simplex.number < b.simplex.number; });
+        for (std::size_t t = 0; t < v_terms.size();) {
+          heap_entry sum = v_terms[t++];
+          while (t < v_terms.size() && v_terms[t].simplex.number == sum.simplex.number)
+            sum.coefficient = sum.coefficient + v_terms[t++].coefficient;
+          if (!(sum.coefficient == zero<R>())) stored_.push_back(sum);
+        }
+        e.end = stored_.size();
+        o_.control.require_memory(stored_.size() * sizeof(heap_entry) + heap_.size() * sizeof(heap_entry),
+                                  "the stored columns of the implicit Vietoris-Rips reduction");
+        pivots.emplace(p->simplex.number, e);
+        if (o_.zero_persistence || s.value < p->simplex.value)
+          pairs.push_back({s.value, p->simplex.value, s.number, p->simplex.number});
+        break;
+      }
+    }
+    tick.finish();
+    heap_.clear();
+    heap_.shrink_to_fit();
+  }
+
+  const rips_metric& m_;
+  const implicit_rips_options& o_;
+  R unit_;
+  std::size_t n_;
+  simplex_numbering numbering_;
+  double threshold_ = 0;
+  std::vector<heap_entry> heap_;
+  std::vector<heap_entry> stored_;
+  std::vector<std::uint32_t> scratch_, sv_, tv_, fv_, pv_;
+};
+
+}  // namespace detail
+
+/// The persistent homology over the field R (default Z/2) of the Vietoris–Rips filtration of
+/// `metric`, diagrams of dimensions 0..options.max_dimension, computed without building the
+/// complex (see the file comment for the method, the order, the threshold and the cells).
+/// `unit` is the one of R (mod_p_dynamic(1, p)). Throws std::invalid_argument for a negative
+/// max_dimension, a threshold that is not a number, or a zero unit; std::length_error when
+/// simplex numbers would pass 63 bits; computation_stopped on a stop request;
+/// memory_limit_exceeded past options.control.memory_limit.
+/// Cost: O(n^2) distances and edges, then per dimension the simplices enumerated once and the
+/// columns that are not paired by a shortcut reduced (each coboundary O(n k) to enumerate).
+template <field R = z2>
+persistence_result<double, R> implicit_rips_persistence(const rips_metric& metric,
+                                                        const implicit_rips_options& options = {},
+                                                        const R& unit = one<R>()) {
+  if (options.max_dimension < 0)
+    throw std::invalid_argument("lacuna::implicit_rips_persistence: negative max_dimension");
+  if (options.threshold && std::isnan(*options.threshold))
+    throw std::invalid_argument("lacuna::implicit_rips_persistence: the threshold is not a number");
+  if (unit == zero<R>()) throw std::invalid_argument("lacuna::implicit_rips_persistence: the unit of the field is zero");
+  if (metric.size() >= std::numeric_limits<std::uint32_t>::max())
+    throw std::length_error("lacuna::implicit_rips_persistence: more than 2^32 - 2 points");
+  detail::implicit_rips_engine<R> engine(metric, options, unit);
+  return engine.run();
+}
+
+}  // namespace lacuna
