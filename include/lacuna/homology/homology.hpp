@@ -705,7 +705,12 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
     res.level_offset_ = z.level_offset_;
     res.top_ = z.top_;
     res.unit_ = unit;
-    for (const auto& g : z.groups) res.groups.push_back(homology_group<R>{.dimension = g.dimension, .rank = g.rank});
+    for (const auto& g : z.groups) {
+      homology_group<R> q;
+      q.dimension = g.dimension;
+      q.rank = g.rank;
+      res.groups.push_back(std::move(q));
+    }
     return res;
   }
   if constexpr (std::same_as<R, integer>) {
