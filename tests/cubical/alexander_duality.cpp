@@ -66,8 +66,17 @@ const auto over_integers = [](const auto& c) {
   }
   return h.betti_numbers();
 };
+// The defaults above take the duality route of lacuna/algorithm/cubical_duality.hpp (labels
+// and χ, written apart from this file's count); the algebra itself, without it:
+const lacuna::sparse_elimination algebra{.cubical_duality = false};
+const auto algebra_over_z2 = [](const auto& c) { return lacuna::homology<lacuna::z2>(c, {}, algebra).betti_numbers(); };
+const auto algebra_over_integers = [](const auto& c) {
+  const auto h = lacuna::homology<lacuna::integer>(c, {}, algebra);
+  for (const auto& g : h.groups) CHECK(g.torsion.empty());
+  return h.betti_numbers();
+};
 // The same through the implicit Morse complex of the volume (lacuna/algorithm/cubical_morse.hpp).
-const lacuna::sparse_elimination morse{.reduction = lacuna::pre_reduction::morse};
+const lacuna::sparse_elimination morse{.reduction = lacuna::pre_reduction::morse, .cubical_duality = false};
 const auto morse_over_z2 = [](const auto& c) { return lacuna::homology<lacuna::z2>(c, {}, morse).betti_numbers(); };
 const auto morse_over_integers = [](const auto& c) {
   const auto h = lacuna::homology<lacuna::integer>(c, {.threads = 2}, morse);
@@ -100,6 +109,8 @@ duality_numbers check_all_computations(const Shape& shape) {
   const duality_numbers d = lacuna_volumes::duality_betti(shape);
   check_against_duality(shape, over_z2, d);
   check_against_duality(shape, over_integers, d);
+  check_against_duality(shape, algebra_over_z2, d);
+  check_against_duality(shape, algebra_over_integers, d);
   check_against_duality(shape, morse_over_z2, d);
   check_against_duality(shape, morse_over_integers, d);
   return d;

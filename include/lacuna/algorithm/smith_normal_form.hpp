@@ -66,6 +66,11 @@ struct sparse_elimination {
   /// lacuna/algorithm/integral_reduction.hpp; the rule and its measurements are in
   /// docs/homology.md). false: always this variant.
   bool allow_coboundary_route = true;
+  /// lacuna::homology and lacuna::cohomology of an image or volume (cubical_complex<D>,
+  /// D <= 3) asked for groups only (no generators, no basis) take the duality route: two
+  /// voxel labellings and the Euler characteristic (lacuna/algorithm/cubical_duality.hpp),
+  /// exact because such complexes have no torsion. false: never.
+  bool cubical_duality = true;
 
   /// The elimination options with `reduction` applied.
   elimination_options effective_elimination() const {

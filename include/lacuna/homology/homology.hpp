@@ -1,11 +1,15 @@
 // lacuna/homology/homology.hpp — homology groups, with torsion and generators, of any cell
 // complex over any Euclidean domain; cohomology through the dual complex.
 //
-// Routes (docs/homology.md, "How the engine works"); each one is exact:
-//   * over the integers, ranks and torsion only (no generators, no basis), off images and
-//     volumes: the coboundary route (coboundary_reduction, algorithm/integral_reduction.hpp);
-//   * over Z/2 and Z/p, ranks only: column reductions with clearing (algorithm/field_ranks.hpp);
-//   * everything else (generators, coordinates, Q, images and volumes over Z): the route below.
+// Routes (docs/homology.md, "How the engine works"); each one is exact. Groups only (no
+// generators, no basis):
+//   * images and volumes of dimension <= 3, any ring: two voxel labellings and the Euler
+//     characteristic (algorithm/cubical_duality.hpp; such complexes have no torsion);
+//   * other complexes over the integers and Q: the coboundary route (coboundary_reduction,
+//     algorithm/integral_reduction.hpp);
+//   * over Z/2 and Z/p: column reductions with clearing (algorithm/field_ranks.hpp).
+// Everything else (generators, coordinates, relative groups of volumes, other variants): the
+// route below.
 // The route below: the complex is indexed into a reducible_complex over working coefficients
 // W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot in), and the
 // small core that is left is finished by Smith forms (modular ones where they pay and only
@@ -20,6 +24,7 @@
 // number grew.
 #pragma once
 
+#include <lacuna/algorithm/cubical_duality.hpp>
 #include <lacuna/algorithm/cubical_morse.hpp>
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
@@ -639,6 +644,47 @@ bool coboundary_route_by_default(const homology_options& opt, const sparse_elimi
   }
 }
 
+// ---- the duality route of images and volumes (algorithm/cubical_duality.hpp) ---------------
+
+template <class C>
+inline constexpr std::size_t duality_dimension = 0;
+template <std::size_t D>
+inline constexpr std::size_t duality_dimension<cubical_complex<D>> = D <= 3 ? D : 0;
+
+/// The groups of an image or volume by labelling (cubical_betti_numbers): ranks only, since
+/// a compact subset of R^D, D <= 3, has torsion-free homology, so the groups over any R are
+/// free of those ranks, and so are the cohomology groups (universal coefficients). nullopt
+/// when the route does not apply (generators or a basis asked for, another variant, a
+/// reduced group of the empty image).
+template <euclidean_domain R, cell_complex C>
+std::optional<homology_result<R>> duality_homology(const C& c, const homology_options& opt,
+                                                   const sparse_elimination& alg, bool cohomology, const R& unit) {
+  if constexpr (duality_dimension<C> == 0) {
+    return std::nullopt;
+  } else {
+    if (!alg.cubical_duality || alg.reduction != pre_reduction::coreductions_and_collapses &&
+                                     alg.reduction != pre_reduction::morse)
+      return std::nullopt;
+    if (opt.generators || opt.keep_basis.value_or(false)) return std::nullopt;
+    if (opt.reduced && c.top_dimension() < 0) return std::nullopt;
+    auto b = cubical_betti_numbers(c, &opt.control);
+    if (opt.reduced) b[0] -= 1;
+    homology_result<R> res;
+    res.cohomology = cohomology;
+    res.reduced = opt.reduced;
+    res.level_offset_ = opt.reduced ? -1 : 0;
+    res.top_ = c.top_dimension();
+    res.unit_ = unit;
+    for (int k = 0; k <= c.top_dimension(); ++k) {
+      homology_group<R> g;
+      g.dimension = k;
+      g.rank = b[static_cast<std::size_t>(k)];
+      res.groups.push_back(std::move(g));
+    }
+    return res;
+  }
+}
+
 /// The ∂∂ = 0 precondition on the built complex, as compute_levels checks it.
 template <class W, cell_complex C>
 void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
@@ -742,6 +788,7 @@ homology_result<R> homology(const C& c, homology_options options = {}, const Alg
     return detail::homology_by_coboundaries<R>(c, options, algorithm, nullptr, unit);
   } else {
     if constexpr (std::same_as<Algorithm, sparse_elimination>) {
+      if (auto r = detail::duality_homology<R>(c, options, algorithm, false, unit)) return std::move(*r);
       if (detail::coboundary_route_by_default<R, C>(options, algorithm))
         return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, nullptr, unit);
       if (algorithm.reduction == pre_reduction::morse)
@@ -777,9 +824,11 @@ homology_result<R> cohomology(const C& c, homology_options options = {}, const A
   if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
     return detail::assemble<R>(c, options, sparse_elimination{}, true, nullptr, unit);  // not on this route
   } else {
-    if constexpr (std::same_as<Algorithm, sparse_elimination>)
+    if constexpr (std::same_as<Algorithm, sparse_elimination>) {
+      if (auto r = detail::duality_homology<R>(c, options, algorithm, true, unit)) return std::move(*r);
       if (algorithm.reduction == pre_reduction::morse)
         if (auto r = detail::morse_homology<R>(c, options, algorithm, true, unit)) return std::move(*r);
+    }
     return detail::assemble<R>(c, options, algorithm, true, nullptr, unit);
   }
 }

@@ -74,6 +74,18 @@ memory_estimate estimate_homology_memory(const C& c, const homology_options& opt
   if (top < 0) return e;
   // the working coefficient takes sizeof(R) (at least 8: the 64-bit fast path of the integers)
   const double w = static_cast<double>(std::max<std::size_t>(sizeof(R), 8));
+  if constexpr (std::same_as<Algorithm, sparse_elimination> && detail::duality_dimension<C> != 0) {
+    if (algorithm.cubical_duality && !options.generators && !options.keep_basis.value_or(false) &&
+        (algorithm.reduction == pre_reduction::coreductions_and_collapses || algorithm.reduction == pre_reduction::morse)) {
+      // the duality route (algorithm/cubical_duality.hpp): one 32-bit label per voxel, 64-bit
+      // past 2^32 voxels
+      double voxels = 1;
+      for (auto n : c.extents()) voxels *= static_cast<double>(n);
+      e.complex = detail::saturating((voxels + 1) * (voxels < 4294967295.0 ? 4.0 : 8.0));
+      e.bytes = e.complex;
+      return e;
+    }
+  }
   bool implicit_morse = false;
   if constexpr (std::same_as<Algorithm, sparse_elimination> && has_implicit_morse_complex<C>)
     implicit_morse = algorithm.reduction == pre_reduction::morse;
