@@ -662,8 +662,8 @@ std::optional<homology_result<R>> duality_homology(const C& c, const homology_op
   if constexpr (duality_dimension<C> == 0) {
     return std::nullopt;
   } else {
-    if (!alg.cubical_duality || alg.reduction != pre_reduction::coreductions_and_collapses &&
-                                     alg.reduction != pre_reduction::morse)
+    if (!alg.cubical_duality ||
+        (alg.reduction != pre_reduction::coreductions_and_collapses && alg.reduction != pre_reduction::morse))
       return std::nullopt;
     if (opt.generators || opt.keep_basis.value_or(false)) return std::nullopt;
     if (opt.reduced && c.top_dimension() < 0) return std::nullopt;
