@@ -108,14 +108,7 @@ class rips_metric {
   /// Points given by their coordinates, `dimension` (>= 1) numbers per point. Throws
   /// std::invalid_argument when the coordinates do not split into points or one is not finite.
   static rips_metric from_points(std::span<const double> coordinates, std::size_t dimension) {
-    if (dimension == 0) throw std::invalid_argument("lacuna::rips_metric: points of dimension 0");
-    if (coordinates.size() % dimension != 0)
-      throw std::invalid_argument("lacuna::rips_metric: " + std::to_string(coordinates.size()) +
-                                  " coordinates do not make points of dimension " + std::to_string(dimension));
-    for (std::size_t i = 0; i < coordinates.size(); ++i)
-      if (!std::isfinite(coordinates[i]))
-        throw std::invalid_argument("lacuna::rips_metric: coordinate " + std::to_string(i % dimension) + " of point " +
-                                    std::to_string(i / dimension) + " is not finite");
+    detail::check_point_coordinates(coordinates, dimension, "lacuna::rips_metric");
     rips_metric m;
     m.n_ = coordinates.size() / dimension;
     m.dimension_ = dimension;
@@ -131,37 +124,15 @@ class rips_metric {
   /// The same for points given as vectors (all of one dimension).
   static rips_metric from_points(const std::vector<std::vector<double>>& points) {
     if (points.empty()) return {};
+    const auto flat = detail::flatten_points(points, "lacuna::rips_metric");
     const std::size_t dimension = points.front().size();
-    std::vector<double> flat;
-    flat.reserve(points.size() * dimension);
-    for (std::size_t i = 0; i < points.size(); ++i) {
-      if (points[i].size() != dimension)
-        throw std::invalid_argument("lacuna::rips_metric: point " + std::to_string(i) + " has " +
-                                    std::to_string(points[i].size()) + " coordinates, point 0 has " +
-                                    std::to_string(dimension));
-      flat.insert(flat.end(), points[i].begin(), points[i].end());
-    }
     return from_points(flat, dimension);
   }
   /// A distance matrix: n x n numbers, row after row, finite, not negative, zero on the
   /// diagonal, symmetric (equal as given) — the rules of rips_filtration::from_distances.
   /// Throws std::invalid_argument naming the first entry that breaks one.
   static rips_metric from_distances(std::size_t n, std::span<const double> matrix) {
-    if (matrix.size() != n * n)
-      throw std::invalid_argument("lacuna::rips_metric: " + std::to_string(matrix.size()) +
-                                  " distances for a matrix of " + std::to_string(n) + " points");
-    auto where = [](std::size_t i, std::size_t j) {
-      return "the distance in row " + std::to_string(i) + ", column " + std::to_string(j);
-    };
-    for (std::size_t i = 0; i < n; ++i)
-      for (std::size_t j = 0; j < n; ++j) {
-        const double d = matrix[i * n + j];
-        if (!std::isfinite(d)) throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " is not finite");
-        if (d < 0) throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " is negative");
-        if (i == j && d != 0) throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " is not zero");
-        if (d != matrix[j * n + i])
-          throw std::invalid_argument("lacuna::rips_metric: " + where(i, j) + " differs from " + where(j, i));
-      }
+    detail::check_distance_matrix(n, matrix, "lacuna::rips_metric");
     rips_metric m;
     m.n_ = n;
     m.lower_.resize(n * (n - (n > 0)) / 2);

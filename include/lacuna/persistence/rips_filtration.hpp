@@ -46,6 +46,52 @@ inline double unfused(double x) noexcept {
 #endif
   return x;
 }
+
+/// The input rules of point clouds and distance matrices, shared by rips_filtration and
+/// rips_metric (persistence/implicit_rips.hpp); `who` starts each message.
+/// Points: dimension >= 1, the coordinates split into points, every one finite.
+inline void check_point_coordinates(std::span<const double> coordinates, std::size_t dimension, const std::string& who) {
+  if (dimension == 0) throw std::invalid_argument(who + ": points of dimension 0");
+  if (coordinates.size() % dimension != 0)
+    throw std::invalid_argument(who + ": " + std::to_string(coordinates.size()) +
+                                " coordinates do not make points of dimension " + std::to_string(dimension));
+  for (std::size_t i = 0; i < coordinates.size(); ++i)
+    if (!std::isfinite(coordinates[i]))
+      throw std::invalid_argument(who + ": coordinate " + std::to_string(i % dimension) + " of point " +
+                                  std::to_string(i / dimension) + " is not finite");
+}
+/// Points given as vectors, all of the dimension of the first, one after the other.
+inline std::vector<double> flatten_points(const std::vector<std::vector<double>>& points, const std::string& who) {
+  std::vector<double> flat;
+  if (points.empty()) return flat;
+  const std::size_t dimension = points.front().size();
+  flat.reserve(points.size() * dimension);
+  for (std::size_t i = 0; i < points.size(); ++i) {
+    if (points[i].size() != dimension)
+      throw std::invalid_argument(who + ": point " + std::to_string(i) + " has " + std::to_string(points[i].size()) +
+                                  " coordinates, point 0 has " + std::to_string(dimension));
+    flat.insert(flat.end(), points[i].begin(), points[i].end());
+  }
+  return flat;
+}
+/// A distance matrix: n x n numbers, row after row, finite, not negative, zero on the
+/// diagonal and symmetric (equal as given).
+inline void check_distance_matrix(std::size_t n, std::span<const double> matrix, const std::string& who) {
+  if (matrix.size() != n * n)
+    throw std::invalid_argument(who + ": " + std::to_string(matrix.size()) + " distances for a matrix of " +
+                                std::to_string(n) + " points");
+  auto where = [](std::size_t i, std::size_t j) {
+    return "the distance in row " + std::to_string(i) + ", column " + std::to_string(j);
+  };
+  for (std::size_t i = 0; i < n; ++i)
+    for (std::size_t j = 0; j < n; ++j) {
+      const double d = matrix[i * n + j];
+      if (!std::isfinite(d)) throw std::invalid_argument(who + ": " + where(i, j) + " is not finite");
+      if (d < 0) throw std::invalid_argument(who + ": " + where(i, j) + " is negative");
+      if (i == j && d != 0) throw std::invalid_argument(who + ": " + where(i, j) + " is not zero");
+      if (d != matrix[j * n + i]) throw std::invalid_argument(who + ": " + where(i, j) + " differs from " + where(j, i));
+    }
+}
 }  // namespace detail
 
 /// The Euclidean distance of two points of the same dimension: the IEEE double square root of
@@ -94,14 +140,7 @@ class rips_filtration {
   /// options.max_cells.
   static rips_filtration from_points(std::span<const double> coordinates, std::size_t dimension,
                                      const rips_options& options = {}) {
-    if (dimension == 0) throw std::invalid_argument("lacuna::rips_filtration: points of dimension 0");
-    if (coordinates.size() % dimension != 0)
-      throw std::invalid_argument("lacuna::rips_filtration: " + std::to_string(coordinates.size()) +
-                                  " coordinates do not make points of dimension " + std::to_string(dimension));
-    for (std::size_t i = 0; i < coordinates.size(); ++i)
-      if (!std::isfinite(coordinates[i]))
-        throw std::invalid_argument("lacuna::rips_filtration: coordinate " + std::to_string(i % dimension) +
-                                    " of point " + std::to_string(i / dimension) + " is not finite");
+    detail::check_point_coordinates(coordinates, dimension, "lacuna::rips_filtration");
     const std::size_t n = coordinates.size() / dimension;
     return build(n, [&](std::size_t a, std::size_t b) {
       return euclidean_distance(coordinates.subspan(a * dimension, dimension), coordinates.subspan(b * dimension, dimension));
@@ -110,37 +149,15 @@ class rips_filtration {
   /// The same for points given as vectors (all of one dimension).
   static rips_filtration from_points(const std::vector<std::vector<double>>& points, const rips_options& options = {}) {
     if (points.empty()) return build(0, [](std::size_t, std::size_t) { return 0.0; }, options);
+    const auto flat = detail::flatten_points(points, "lacuna::rips_filtration");
     const std::size_t dimension = points.front().size();
-    std::vector<double> flat;
-    flat.reserve(points.size() * dimension);
-    for (std::size_t i = 0; i < points.size(); ++i) {
-      if (points[i].size() != dimension)
-        throw std::invalid_argument("lacuna::rips_filtration: point " + std::to_string(i) + " has " +
-                                    std::to_string(points[i].size()) + " coordinates, point 0 has " +
-                                    std::to_string(dimension));
-      flat.insert(flat.end(), points[i].begin(), points[i].end());
-    }
     return from_points(flat, dimension, options);
   }
   /// The filtration of a distance matrix: n x n numbers, row after row, finite, not negative,
   /// zero on the diagonal and symmetric (equal as given). Throws std::invalid_argument naming
   /// the first entry that breaks a rule; std::length_error past options.max_cells.
   static rips_filtration from_distances(std::size_t n, std::span<const double> matrix, const rips_options& options = {}) {
-    if (matrix.size() != n * n)
-      throw std::invalid_argument("lacuna::rips_filtration: " + std::to_string(matrix.size()) +
-                                  " distances for a matrix of " + std::to_string(n) + " points");
-    auto where = [](std::size_t i, std::size_t j) {
-      return "the distance in row " + std::to_string(i) + ", column " + std::to_string(j);
-    };
-    for (std::size_t i = 0; i < n; ++i)
-      for (std::size_t j = 0; j < n; ++j) {
-        const double d = matrix[i * n + j];
-        if (!std::isfinite(d)) throw std::invalid_argument("lacuna::rips_filtration: " + where(i, j) + " is not finite");
-        if (d < 0) throw std::invalid_argument("lacuna::rips_filtration: " + where(i, j) + " is negative");
-        if (i == j && d != 0) throw std::invalid_argument("lacuna::rips_filtration: " + where(i, j) + " is not zero");
-        if (d != matrix[j * n + i])
-          throw std::invalid_argument("lacuna::rips_filtration: " + where(i, j) + " differs from " + where(j, i));
-      }
+    detail::check_distance_matrix(n, matrix, "lacuna::rips_filtration");
     return build(n, [&](std::size_t a, std::size_t b) { return matrix[a * n + b]; }, options);
   }
 
