@@ -74,6 +74,7 @@
 // lacuna::persistence(explicit) itself, below the threshold). No representatives.
 #pragma once
 
+#include <lacuna/chain/parallel_chunks.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/persistence/diagram.hpp>
 #include <lacuna/persistence/rips_filtration.hpp>
@@ -84,12 +85,15 @@
 #include <cmath>
 #include <cstddef>
 #include <cstdint>
+#include <functional>
 #include <limits>
 #include <numeric>
 #include <optional>
 #include <span>
 #include <stdexcept>
 #include <string>
+#include <system_error>
+#include <thread>
 #include <unordered_map>
 #include <utility>
 #include <vector>
@@ -97,11 +101,20 @@
 namespace lacuna {
 
 /// A finite metric space for implicit_rips_persistence: points of R^d with the Euclidean
-/// distance (computed as lacuna::euclidean_distance does), or a full distance matrix.
+/// distance (computed as lacuna::euclidean_distance does), a full distance matrix, or a sparse
+/// one: only the pairs listed have a distance, every other pair none (its edge never enters,
+/// as if its distance were +infinity).
 /// Distances of points are stored (lower triangle) up to 8192 points and computed again
-/// when needed beyond, so that memory stays O(n) there.
+/// when needed beyond, so that memory stays O(n) there; a sparse metric keeps its pairs in
+/// neighbour lists, O(n + pairs).
 class rips_metric {
  public:
+  /// One listed distance of a sparse metric: points a and b (0-based, distinct) at `distance`.
+  struct link {
+    std::size_t a = 0, b = 0;
+    double distance = 0;
+  };
+
   /// No points.
   rips_metric() = default;
 
@@ -141,19 +154,117 @@ class rips_metric {
     m.stored_ = true;
     return m;
   }
+  /// A sparse distance matrix on n points: only the pairs listed have a distance (finite, not
+  /// negative; -0 counts as 0), each unordered pair at most once, in any order. Throws
+  /// std::invalid_argument naming the first link (0-based, in the order given) that names a
+  /// point >= n, a point twice, a distance that is not finite or is negative, or a pair
+  /// already listed. Memory: 24 bytes per link plus 8 per point.
+  static rips_metric from_links(std::size_t n, std::span<const link> links) {
+    const std::string who = "lacuna::rips_metric::from_links";
+    if (n >= std::numeric_limits<std::uint32_t>::max())
+      throw std::invalid_argument(who + ": " + std::to_string(n) + " points, more than 2^32 - 2");
+    rips_metric m;
+    m.n_ = n;
+    m.sparse_ = true;
+    m.offsets_.assign(n + 1, 0);
+    for (std::size_t i = 0; i < links.size(); ++i) {
+      const link& l = links[i];
+      const std::string at = "link " + std::to_string(i) + " (points " + std::to_string(l.a) + " and " +
+                             std::to_string(l.b) + ")";
+      if (l.a >= n || l.b >= n)
+        throw std::invalid_argument(who + ": " + at + " names a point beyond the " + std::to_string(n) + " points");
+      if (l.a == l.b) throw std::invalid_argument(who + ": " + at + " joins a point to itself");
+      if (!std::isfinite(l.distance) || l.distance < 0)
+        throw std::invalid_argument(who + ": " + at + " has a distance that is " +
+                                    (std::isfinite(l.distance) ? "negative" : "not finite"));
+      ++m.offsets_[l.a + 1];
+      ++m.offsets_[l.b + 1];
+    }
+    for (std::size_t v = 0; v < n; ++v) m.offsets_[v + 1] += m.offsets_[v];
+    m.neighbors_.resize(2 * links.size());
+    m.neighbor_distances_.resize(2 * links.size());
+    {
+      std::vector<std::size_t> fill(m.offsets_.begin(), m.offsets_.end() - 1);
+      for (const link& l : links) {
+        const double d = l.distance == 0 ? 0.0 : l.distance;  // -0 as 0
+        m.neighbors_[fill[l.a]] = static_cast<std::uint32_t>(l.b);
+        m.neighbor_distances_[fill[l.a]++] = d;
+        m.neighbors_[fill[l.b]] = static_cast<std::uint32_t>(l.a);
+        m.neighbor_distances_[fill[l.b]++] = d;
+      }
+    }
+    // each list by neighbour decreasing; a pair listed twice shows as a repeated neighbour
+    std::vector<std::pair<std::uint32_t, double>> row;
+    for (std::size_t v = 0; v < n; ++v) {
+      row.clear();
+      for (std::size_t e = m.offsets_[v]; e < m.offsets_[v + 1]; ++e)
+        row.emplace_back(m.neighbors_[e], m.neighbor_distances_[e]);
+      std::sort(row.begin(), row.end(), [](const auto& x, const auto& y) { return x.first > y.first; });
+      for (std::size_t e = 1; e < row.size(); ++e)
+        if (row[e].first == row[e - 1].first) {
+          // name the second listing of the pair, in the order given
+          const std::size_t w = row[e].first;
+          std::size_t seen = 0;
+          for (std::size_t i = 0; i < links.size(); ++i)
+            if ((links[i].a == v && links[i].b == w) || (links[i].a == w && links[i].b == v))
+              if (++seen == 2)
+                throw std::invalid_argument(who + ": link " + std::to_string(i) + " (points " +
+                                            std::to_string(links[i].a) + " and " + std::to_string(links[i].b) +
+                                            ") lists a pair already listed");
+        }
+      for (std::size_t e = 0; e < row.size(); ++e) {
+        m.neighbors_[m.offsets_[v] + e] = row[e].first;
+        m.neighbor_distances_[m.offsets_[v] + e] = row[e].second;
+      }
+    }
+    return m;
+  }
 
   /// The number of points.
   std::size_t size() const noexcept { return n_; }
-  /// The distance of points a and b (< size()).
+  /// True for a metric made by from_links.
+  bool sparse() const noexcept { return sparse_; }
+  /// The distance of points a and b (< size()); +infinity for a pair a sparse metric does not
+  /// list.
   double distance(std::size_t a, std::size_t b) const {
     if (a == b) return 0.0;
     if (a < b) std::swap(a, b);
+    if (sparse_) {
+      // search the shorter list (each is decreasing)
+      std::size_t v = a, w = b;
+      if (offsets_[a + 1] - offsets_[a] > offsets_[b + 1] - offsets_[b]) std::swap(v, w);
+      const auto first = neighbors_.begin() + static_cast<std::ptrdiff_t>(offsets_[v]);
+      const auto last = neighbors_.begin() + static_cast<std::ptrdiff_t>(offsets_[v + 1]);
+      const auto it = std::lower_bound(first, last, static_cast<std::uint32_t>(w), std::greater<>());
+      if (it == last || *it != w) return std::numeric_limits<double>::infinity();
+      return neighbor_distances_[static_cast<std::size_t>(it - neighbors_.begin())];
+    }
     return stored_ ? lower_[a * (a - 1) / 2 + b] : computed(a, b);
   }
-  /// The enclosing radius min_i max_j d(i, j) (0 for fewer than two points). O(n^2).
+  /// A sparse metric's neighbours of v, decreasing (empty for a dense metric).
+  std::span<const std::uint32_t> neighbors(std::size_t v) const noexcept {
+    if (!sparse_) return {};
+    return std::span<const std::uint32_t>(neighbors_).subspan(offsets_[v], offsets_[v + 1] - offsets_[v]);
+  }
+  /// Their distances, in the same order.
+  std::span<const double> neighbor_distances(std::size_t v) const noexcept {
+    if (!sparse_) return {};
+    return std::span<const double>(neighbor_distances_).subspan(offsets_[v], offsets_[v + 1] - offsets_[v]);
+  }
+  /// The enclosing radius min_i max_j d(i, j) (0 for fewer than two points; +infinity for a
+  /// sparse metric where no point has a distance to every other). O(n^2), O(pairs) if sparse.
   double enclosing_radius() const {
     if (n_ < 2) return 0.0;
     double best = std::numeric_limits<double>::infinity();
+    if (sparse_) {
+      for (std::size_t i = 0; i < n_; ++i) {
+        if (offsets_[i + 1] - offsets_[i] != n_ - 1) continue;
+        double far = 0;
+        for (const double d : neighbor_distances(i)) far = std::max(far, d);
+        best = std::min(best, far);
+      }
+      return best;
+    }
     for (std::size_t i = 0; i < n_; ++i) {
       double far = 0;
       for (std::size_t j = 0; j < n_ && far < best; ++j) far = std::max(far, distance(i, j));
@@ -167,14 +278,26 @@ class rips_metric {
 
  private:
   double computed(std::size_t a, std::size_t b) const {
-    return euclidean_distance(std::span<const double>(coordinates_).subspan(a * dimension_, dimension_),
-                              std::span<const double>(coordinates_).subspan(b * dimension_, dimension_));
+    // lacuna::euclidean_distance, without its check of the dimensions (equal here)
+    const double* x = coordinates_.data() + a * dimension_;
+    const double* y = coordinates_.data() + b * dimension_;
+    double sum = 0.0;
+    for (std::size_t i = 0; i < dimension_; ++i) {
+      const double d = x[i] - y[i];
+      sum += detail::unfused(d * d);
+    }
+    return std::sqrt(sum);
   }
 
   std::size_t n_ = 0, dimension_ = 0;
   std::vector<double> coordinates_;
   std::vector<double> lower_;  // d(a, b), a > b, at a(a-1)/2 + b
   bool stored_ = false;
+  // sparse: the neighbours of v, decreasing, at offsets_[v] .. offsets_[v + 1]
+  bool sparse_ = false;
+  std::vector<std::size_t> offsets_;
+  std::vector<std::uint32_t> neighbors_;
+  std::vector<double> neighbor_distances_;
 };
 
 /// Options of implicit_rips_persistence.
@@ -186,6 +309,9 @@ struct implicit_rips_options {
   std::optional<double> threshold{};
   /// Keep the pairs of persistence zero (default: dropped, as without_zero_persistence does).
   bool zero_persistence = false;
+  /// Threads for the work that splits (distances, the enumeration of the simplices and their
+  /// shortcut tests, sorting); the result does not depend on it. 0 and 1: this thread alone.
+  unsigned threads = 1;
   /// A stop request and a progress callback. Phases: "Vietoris-Rips distances" (points),
   /// "H_0 by union-find" (edges), "Vietoris-Rips columns of dimension k" (simplices), and
   /// "reducing the coboundary of dimension k" (columns). Its memory_limit bounds the columns
@@ -302,6 +428,9 @@ class implicit_rips_engine {
         numbering_(metric.size(), static_cast<int>(std::min<std::size_t>(static_cast<std::size_t>(o.max_dimension) + 2,
                                                                          metric.size() + 1))) {
     threshold_ = o.threshold ? *o.threshold : m_.enclosing_radius();
+    // every distance is finite, so +infinity keeps the same edges as the largest double; a
+    // pair a sparse metric does not list has distance +infinity, which is then beyond it
+    threshold_ = std::min(threshold_, std::numeric_limits<double>::max());
   }
 
   persistence_result<double, R> run() {
@@ -312,19 +441,9 @@ class implicit_rips_engine {
     if (n_ == 0) return out;
 
     // ---- the edges within the threshold, in filtration order --------------------------
-    std::vector<rips_simplex> simplices;  // all k-simplices of the current k, filtration order
-    {
-      detail::progress_ticker tick(&o_.control, "Vietoris-Rips distances", n_);
-      for (std::size_t a = 1; a < n_; ++a) {
-        for (std::size_t b = 0; b < a; ++b) {
-          const double d = m_.distance(a, b);
-          if (d <= threshold_) simplices.push_back({d, numbering_.binomial(a, 2) + b});
-        }
-        tick();
-      }
-      tick.finish();
-      std::sort(simplices.begin(), simplices.end(), rips_before);
-    }
+    // Diagram 0 alone of points or a full matrix: only the edges of the minimum spanning
+    // forest, found without listing the others (O(n) memory).
+    std::vector<rips_simplex> simplices = D == 0 && !m_.sparse() ? spanning_edges() : edges();
 
     // ---- H_0: Kruskal's union-find (the elder rule) -------------------------------------
     std::vector<char> edge_killed(simplices.size(), 0);
@@ -360,63 +479,77 @@ class implicit_rips_engine {
     std::unordered_map<std::uint64_t, pivot_entry> pivots;  // of the pass k - 1 (cleared)
     for (int k = 1; k <= D && static_cast<std::size_t>(k) < n_; ++k) {
       const std::string phase_columns = "Vietoris-Rips columns of dimension " + std::to_string(k);
-      std::vector<rips_simplex> columns;
-      std::vector<rips_simplex> next;  // all k-simplices, kept when k < D
       auto& dk = out.diagrams[static_cast<std::size_t>(k)].pairs;
-      auto consider = [&](const rips_simplex& s, std::span<const std::uint32_t> sv) {
-        // clearing: a death of the pass k - 1 (a pivot, or the upper half of an apparent pair)
-        if (k >= 2 && (pivots.count(s.number) != 0 || apparent_facet_of(s, sv))) return;
-        if (const auto t = apparent_cofacet(s, sv)) {
-          if (o_.zero_persistence) dk.push_back({s.value, t->value, s.number, t->number});
-          return;
-        }
-        columns.push_back(s);
+      // The k-simplices are looked at in chunks (of the edges for k = 1, of the (k-1)-simplices
+      // they are made from otherwise), on o_.threads threads; each chunk keeps its own lists,
+      // joined in chunk order, so the lists are those of one thread.
+      struct chunk_lists {
+        std::vector<rips_simplex> columns, next;  // next: all k-simplices, kept when k < D
+        std::vector<persistence_pair<double>> zero;
       };
-      if (k == 1) {
-        detail::progress_ticker tick(&o_.control, phase_columns, simplices.size());
-        std::vector<std::uint32_t> v;
-        for (std::size_t e = 0; e < simplices.size(); ++e) {
-          if (!edge_killed[e]) {
-            v.clear();
-            numbering_.vertices(simplices[e].number, 1, v);
-            consider(simplices[e], v);
+      const std::size_t items = simplices.size();
+      const std::size_t chunks = std::min<std::size_t>(items, 256);
+      std::vector<chunk_lists> lists(chunks);
+      const auto chunk_begin = [&](std::size_t c) { return items * c / chunks; };
+      run_chunks(chunks, o_.threads, o_.control, phase_columns, items, [&](std::size_t c) -> std::uint64_t {
+        chunk_lists& mine = lists[c];
+        scratch_space work;
+        auto consider = [&](const rips_simplex& s, std::span<const std::uint32_t> sv) {
+          // clearing: a death of the pass k - 1 (a pivot, or the upper half of an apparent pair)
+          if (k >= 2 && (pivots.count(s.number) != 0 || apparent_facet_of(s, sv, work))) return;
+          if (const auto t = apparent_cofacet(s, sv, work)) {
+            if (o_.zero_persistence) mine.zero.push_back({s.value, t->value, s.number, t->number});
+            return;
           }
-          tick();
-        }
-        tick.finish();
-        std::vector<char>().swap(edge_killed);
-        if (k < D) next = std::move(simplices);
-      } else {
-        // the k-simplices, each from its facet without the largest vertex: the new vertex w
-        // above all of the facet's, in position 0, so that the number is C(w, k + 1) + facet's
-        detail::progress_ticker tick(&o_.control, phase_columns, simplices.size());
+          mine.columns.push_back(s);
+        };
         std::vector<std::uint32_t> v, sv;
-        for (const auto& f : simplices) {
+        for (std::size_t e = chunk_begin(c); e < chunk_begin(c + 1); ++e) {
+          const rips_simplex& f = simplices[e];
+          if (k == 1) {
+            if (!edge_killed[e]) {
+              v.clear();
+              numbering_.vertices(f.number, 1, v);
+              consider(f, v);
+            }
+            continue;
+          }
+          // the k-simplices from their facet without the largest vertex: the new vertex w
+          // above all of the facet's, in position 0, so that the number is C(w, k + 1) + facet's
           v.clear();
           numbering_.vertices(f.number, k - 1, v);
           sv.assign(1, 0);
           sv.insert(sv.end(), v.begin(), v.end());
-          for (std::size_t w = v[0] + 1; w < n_; ++w) {
+          for_higher_vertices(v[0], [&](std::uint32_t w) {
             double value = f.value;
             for (std::uint32_t u : v) {
               value = std::max(value, m_.distance(w, u));
-              if (value > threshold_) break;
+              if (value > threshold_) return;
             }
-            if (value > threshold_) continue;
             const rips_simplex s{value, numbering_.binomial(w, k + 1) + f.number};
-            if (k < D) next.push_back(s);
-            sv[0] = static_cast<std::uint32_t>(w);
+            if (k < D) mine.next.push_back(s);
+            sv[0] = w;
             consider(s, sv);
-          }
-          tick();
+          });
         }
-        tick.finish();
-        if (k < D) std::sort(next.begin(), next.end(), rips_before);
+        return chunk_begin(c + 1) - chunk_begin(c);
+      });
+      std::vector<rips_simplex> columns, next;
+      if (k == 1) {
+        std::vector<char>().swap(edge_killed);
+        if (k < D) next = std::move(simplices);
       }
+      for (auto& l : lists) {
+        columns.insert(columns.end(), l.columns.begin(), l.columns.end());
+        next.insert(next.end(), l.next.begin(), l.next.end());
+        dk.insert(dk.end(), l.zero.begin(), l.zero.end());
+        l = chunk_lists{};
+      }
+      if (k >= 2 && k < D) sort_in_order(next, rips_before);
       std::vector<rips_simplex>().swap(simplices);
       pivots.clear();
       // reverse filtration order: value decreasing, number increasing
-      std::sort(columns.begin(), columns.end(), [](const auto& a, const auto& b) { return rips_before(b, a); });
+      sort_in_order(columns, [](const auto& a, const auto& b) { return rips_before(b, a); });
       reduce(columns, k, pivots, dk);
       simplices = std::move(next);
     }
@@ -431,6 +564,147 @@ class implicit_rips_engine {
     R coefficient;             // of the pivot in the reduced column
     std::size_t begin = 0, end = 0;  // its extra terms in stored_ (the rest of the column of V)
   };
+  /// Working vectors of the shortcut tests, one set per thread.
+  struct scratch_space {
+    std::vector<std::uint32_t> tv, fv;
+  };
+
+  /// Sorts by `before` (a strict total order on simplices of one dimension: every order of
+  /// the input gives the same output), in two halves on two threads when o_.threads >= 2.
+  template <class Before>
+  void sort_in_order(std::vector<rips_simplex>& s, Before before) const {
+    if (o_.threads < 2 || s.size() < (std::size_t{1} << 16)) {
+      std::sort(s.begin(), s.end(), before);
+      return;
+    }
+    const auto middle = s.begin() + static_cast<std::ptrdiff_t>(s.size() / 2);
+    std::thread other;
+    try {
+      other = std::thread([&] { std::sort(s.begin(), middle, before); });
+    } catch (const std::system_error&) {
+      std::sort(s.begin(), s.end(), before);
+      return;
+    }
+    std::sort(middle, s.end(), before);
+    other.join();
+    std::inplace_merge(s.begin(), middle, s.end(), before);
+  }
+
+  /// The edges within the threshold, in filtration order. Points and full matrices: the
+  /// pairs (a, b), b < a, computed in chunks of rows (on o_.threads threads); sparse: the
+  /// pairs listed.
+  std::vector<rips_simplex> edges() const {
+    std::vector<rips_simplex> out;
+    if (m_.sparse()) {
+      detail::progress_ticker tick(&o_.control, "Vietoris-Rips distances", n_);
+      for (std::size_t a = 1; a < n_; ++a) {
+        const auto nb = m_.neighbors(a);
+        const auto nd = m_.neighbor_distances(a);
+        for (std::size_t e = 0; e < nb.size(); ++e)
+          if (nb[e] < a && nd[e] <= threshold_) out.push_back({nd[e], numbering_.binomial(a, 2) + nb[e]});
+        tick();
+      }
+      tick.finish();
+    } else {
+      // rows a in [row(c), row(c + 1)), with about as many pairs in each chunk (row a has a)
+      const std::size_t chunks = std::min<std::size_t>(n_, 256);
+      const auto row = [&](std::size_t c) {
+        return static_cast<std::size_t>(static_cast<double>(n_) * std::sqrt(static_cast<double>(c) / static_cast<double>(chunks)));
+      };
+      std::vector<std::vector<rips_simplex>> lists(chunks);
+      run_chunks(chunks, o_.threads, o_.control, "Vietoris-Rips distances", n_, [&](std::size_t c) -> std::uint64_t {
+        const std::size_t first = std::max<std::size_t>(row(c), 1), last = c + 1 == chunks ? n_ : row(c + 1);
+        for (std::size_t a = first; a < last; ++a)
+          for (std::size_t b = 0; b < a; ++b) {
+            const double d = m_.distance(a, b);
+            if (d <= threshold_) lists[c].push_back({d, numbering_.binomial(a, 2) + b});
+          }
+        return last > first ? last - first : 0;
+      });
+      std::size_t total = 0;
+      for (const auto& l : lists) total += l.size();
+      out.reserve(total);
+      for (auto& l : lists) {
+        out.insert(out.end(), l.begin(), l.end());
+        std::vector<rips_simplex>().swap(l);
+      }
+    }
+    sort_in_order(out, rips_before);
+    return out;
+  }
+
+  /// The edges of the minimum spanning forest of the edges within the threshold, in
+  /// filtration order, by Prim's algorithm (Prim 1957; O(n^2) distances, O(n) memory).
+  /// Under the strict total order of the edges (rips_before: value, then number decreasing)
+  /// that forest is unique, so it is the forest of Kruskal's pass over all the edges, and
+  /// the union-find pass over it alone gives the same pairs: an edge outside it joins two
+  /// vertices already joined when Kruskal's pass reaches it (the cycle property).
+  std::vector<rips_simplex> spanning_edges() const {
+    constexpr double none = std::numeric_limits<double>::infinity();  // no edge yet (values are finite)
+    std::vector<std::uint32_t> outside(n_);
+    std::iota(outside.begin(), outside.end(), std::uint32_t{0});
+    std::vector<rips_simplex> key(n_, rips_simplex{none, 0});  // the best edge into the tree
+    std::vector<rips_simplex> tree;
+    tree.reserve(n_ - 1);
+    detail::progress_ticker tick(&o_.control, "H_0 by a minimum spanning tree", n_);
+    std::size_t current_at = 0;  // position in `outside` of the vertex joining the tree
+    while (!outside.empty()) {
+      const std::uint32_t current = outside[current_at];
+      outside[current_at] = outside.back();
+      outside.pop_back();
+      tick();
+      std::size_t best = outside.size();
+      for (std::size_t i = 0; i < outside.size(); ++i) {
+        const std::uint32_t w = outside[i];
+        const double d = m_.distance(current, w);
+        if (d <= threshold_) {
+          const rips_simplex e{d, numbering_.binomial(std::max(current, w), 2) + std::min(current, w)};
+          if (key[w].value == none || rips_before(e, key[w])) key[w] = e;
+        }
+        if (key[w].value != none && (best == outside.size() || rips_before(key[w], key[outside[best]]))) best = i;
+      }
+      if (best == outside.size()) {
+        current_at = 0;  // a new tree of the forest (or the end)
+        continue;
+      }
+      tree.push_back(key[outside[best]]);
+      current_at = best;
+    }
+    tick.finish();
+    std::sort(tree.begin(), tree.end(), rips_before);
+    return tree;
+  }
+
+  /// Calls visit(w) for every point w > v that may share a simplex with v: all of them, or
+  /// a sparse metric's neighbours of v above it.
+  template <class Visit>
+  void for_higher_vertices(std::uint32_t v, Visit&& visit) const {
+    if (!m_.sparse()) {
+      for (std::size_t w = std::size_t{v} + 1; w < n_; ++w) visit(static_cast<std::uint32_t>(w));
+      return;
+    }
+    for (const std::uint32_t w : m_.neighbors(v)) {
+      if (w <= v) break;  // decreasing
+      visit(w);
+    }
+  }
+
+  /// Calls visit(w) for the points w that may be added to the simplex with vertices sv,
+  /// decreasing, until it returns false: all points (those of sv among them), or for a
+  /// sparse metric the neighbours of the vertex of sv with the fewest.
+  template <class Visit>
+  void for_candidates(std::span<const std::uint32_t> sv, Visit&& visit) const {
+    if (!m_.sparse()) {
+      for (std::size_t w = n_; w-- > 0;)
+        if (!visit(static_cast<std::uint32_t>(w))) return;
+      return;
+    }
+    std::uint32_t u = sv[0];
+    for (const std::uint32_t x : sv)
+      if (m_.neighbors(x).size() < m_.neighbors(u).size()) u = x;
+    for (const std::uint32_t w : m_.neighbors(u))
+      if (!visit(w)) return;
+  }
 
   /// The cofacets of the simplex s with vertices sv (decreasing) within the threshold,
   /// numbers decreasing: visit(cofacet, j, w) for the vertex w inserted at position j (the
@@ -440,23 +714,20 @@ class implicit_rips_engine {
     const int k = static_cast<int>(sv.size()) - 1;
     std::uint64_t above = 0, below = s.number;
     std::size_t j = 0;  // vertices sv[0..j) are above w
-    for (std::size_t w = n_; w-- > 0;) {
-      if (j < sv.size() && w == sv[j]) {
-        below -= numbering_.binomial(w, k + 1 - static_cast<int>(j));
-        above += numbering_.binomial(w, k + 2 - static_cast<int>(j));
+    for_candidates(sv, [&](std::uint32_t w) {
+      while (j < sv.size() && sv[j] > w) {
+        below -= numbering_.binomial(sv[j], k + 1 - static_cast<int>(j));
+        above += numbering_.binomial(sv[j], k + 2 - static_cast<int>(j));
         ++j;
-        continue;
       }
+      if (j < sv.size() && sv[j] == w) return true;  // a vertex of s
       double value = s.value;
       for (std::uint32_t u : sv) {
         value = std::max(value, m_.distance(w, u));
-        if (value > threshold_) break;
+        if (value > threshold_) return true;
       }
-      if (value > threshold_) continue;
-      if (!visit(rips_simplex{value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j,
-                 static_cast<std::uint32_t>(w)))
-        return;
-    }
+      return visit(rips_simplex{value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j, w);
+    });
   }
   /// The same with the incidence sign (true: -1), the vertices decoded into v.
   template <class Visit>
@@ -478,24 +749,21 @@ class implicit_rips_engine {
     const int k = static_cast<int>(sv.size()) - 1;
     std::uint64_t above = 0, below = s.number;
     std::size_t j = 0;
-    for (std::size_t w = n_; w-- > 0;) {
-      if (j < sv.size() && w == sv[j]) {
-        below -= numbering_.binomial(w, k + 1 - static_cast<int>(j));
-        above += numbering_.binomial(w, k + 2 - static_cast<int>(j));
+    std::optional<found_cofacet> found;
+    for_candidates(sv, [&](std::uint32_t w) {
+      while (j < sv.size() && sv[j] > w) {
+        below -= numbering_.binomial(sv[j], k + 1 - static_cast<int>(j));
+        above += numbering_.binomial(sv[j], k + 2 - static_cast<int>(j));
         ++j;
-        continue;
       }
-      bool near = true;
+      if (j < sv.size() && sv[j] == w) return true;
       for (std::uint32_t u : sv)
-        if (m_.distance(w, u) > s.value) {
-          near = false;
-          break;
-        }
-      if (near)  // s.value <= the threshold: the cofacet exists
-        return found_cofacet{rips_simplex{s.value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j,
-                             static_cast<std::uint32_t>(w)};
-    }
-    return std::nullopt;
+        if (m_.distance(w, u) > s.value) return true;
+      // s.value <= the threshold: the cofacet exists
+      found = found_cofacet{rips_simplex{s.value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j, w};
+      return false;
+    });
+    return found;
   }
   static void insert_vertex(std::span<const std::uint32_t> sv, std::size_t j, std::uint32_t w, std::vector<std::uint32_t>& out) {
     out.assign(sv.begin(), sv.end());
@@ -504,26 +772,32 @@ class implicit_rips_engine {
 
   /// The oldest cofacet of s if it has the value of s and s is its youngest facet (an
   /// apparent pair); none otherwise.
-  std::optional<rips_simplex> apparent_cofacet(const rips_simplex& s, std::span<const std::uint32_t> sv) {
+  std::optional<rips_simplex> apparent_cofacet(const rips_simplex& s, std::span<const std::uint32_t> sv,
+                                               scratch_space& work) const {
     const auto first = oldest_equal_cofacet(s, sv);
     if (!first) return std::nullopt;
-    insert_vertex(sv, first->position, first->vertex, tv_);
-    const auto f = youngest_equal_facet(first->simplex, tv_);
+    insert_vertex(sv, first->position, first->vertex, work.tv);
+    const auto f = youngest_equal_facet(first->simplex, work.tv);
     if (f && f->first.number == s.number) return first->simplex;
     return std::nullopt;
   }
 
   /// The youngest facet of t (vertices tv) if it is of the value of t and t is its oldest
   /// cofacet, with the incidence of that facet in t; none otherwise.
-  std::optional<std::pair<rips_simplex, R>> apparent_facet_of(const rips_simplex& t, std::span<const std::uint32_t> tv) {
+  std::optional<std::pair<rips_simplex, R>> apparent_facet_of(const rips_simplex& t, std::span<const std::uint32_t> tv,
+                                                               scratch_space& work) const {
     const auto f = youngest_equal_facet(t, tv);
     if (!f) return std::nullopt;
-    fv_.assign(tv.begin(), tv.end());
-    fv_.erase(fv_.begin() + static_cast<std::ptrdiff_t>(f->second));
-    const auto first = oldest_equal_cofacet(f->first, fv_);
+    work.fv.assign(tv.begin(), tv.end());
+    work.fv.erase(work.fv.begin() + static_cast<std::ptrdiff_t>(f->second));
+    const auto first = oldest_equal_cofacet(f->first, work.fv);
     if (first && first->simplex.number == t.number)
       return std::pair<rips_simplex, R>{f->first, f->second % 2 == 1 ? -unit_ : unit_};
     return std::nullopt;
+  }
+  /// The same with this thread's working vectors (the reduction).
+  std::optional<std::pair<rips_simplex, R>> apparent_facet_of(const rips_simplex& t, std::span<const std::uint32_t> tv) {
+    return apparent_facet_of(t, tv, work_);
   }
 
   /// Among the facets of t (vertices tv, decreasing) of the value of t, the youngest (the
@@ -671,7 +945,8 @@ class implicit_rips_engine {
   double threshold_ = 0;
   std::vector<heap_entry> heap_;
   std::vector<heap_entry> stored_;
-  std::vector<std::uint32_t> scratch_, sv_, tv_, fv_, pv_;
+  std::vector<std::uint32_t> scratch_, sv_, tv_, pv_;
+  scratch_space work_;
 };
 
 }  // namespace detail
