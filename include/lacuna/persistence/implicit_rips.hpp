@@ -229,17 +229,8 @@ class rips_metric {
   double distance(std::size_t a, std::size_t b) const {
     if (a == b) return 0.0;
     if (a < b) std::swap(a, b);
-    if (sparse_) {
-      // search the shorter list (each is decreasing)
-      std::size_t v = a, w = b;
-      if (offsets_[a + 1] - offsets_[a] > offsets_[b + 1] - offsets_[b]) std::swap(v, w);
-      const auto first = neighbors_.begin() + static_cast<std::ptrdiff_t>(offsets_[v]);
-      const auto last = neighbors_.begin() + static_cast<std::ptrdiff_t>(offsets_[v + 1]);
-      const auto it = std::lower_bound(first, last, static_cast<std::uint32_t>(w), std::greater<>());
-      if (it == last || *it != w) return std::numeric_limits<double>::infinity();
-      return neighbor_distances_[static_cast<std::size_t>(it - neighbors_.begin())];
-    }
-    return stored_ ? lower_[a * (a - 1) / 2 + b] : computed(a, b);
+    if (stored_) return lower_[a * (a - 1) / 2 + b];
+    return sparse_ ? listed(a, b) : computed(a, b);
   }
   /// A sparse metric's neighbours of v, decreasing (empty for a dense metric).
   std::span<const std::uint32_t> neighbors(std::size_t v) const noexcept {
@@ -277,6 +268,16 @@ class rips_metric {
   static constexpr std::size_t stored_limit = 8192;
 
  private:
+  /// A sparse metric's distance of a and b, +infinity when not listed (a search of the
+  /// shorter of the two lists, each decreasing).
+  double listed(std::size_t a, std::size_t b) const {
+    if (offsets_[a + 1] - offsets_[a] > offsets_[b + 1] - offsets_[b]) std::swap(a, b);
+    const auto first = neighbors_.begin() + static_cast<std::ptrdiff_t>(offsets_[a]);
+    const auto last = neighbors_.begin() + static_cast<std::ptrdiff_t>(offsets_[a + 1]);
+    const auto it = std::lower_bound(first, last, static_cast<std::uint32_t>(b), std::greater<>());
+    if (it == last || *it != b) return std::numeric_limits<double>::infinity();
+    return neighbor_distances_[static_cast<std::size_t>(it - neighbors_.begin())];
+  }
   double computed(std::size_t a, std::size_t b) const {
     // lacuna::euclidean_distance, without its check of the dimensions (equal here)
     const double* x = coordinates_.data() + a * dimension_;
@@ -492,10 +493,12 @@ class implicit_rips_engine {
       std::vector<chunk_lists> lists(chunks);
       const auto chunk_begin = [&](std::size_t c) { return items * c / chunks; };
       run_chunks(chunks, o_.threads, o_.control, phase_columns, items, [&](std::size_t c) -> std::uint64_t {
-        chunk_lists& mine = lists[c];
+        chunk_lists mine;  // filled here, moved to lists[c] at the end (no shared cache lines)
         scratch_space work;
         auto consider = [&](const rips_simplex& s, std::span<const std::uint32_t> sv) {
           // clearing: a death of the pass k - 1 (a pivot, or the upper half of an apparent pair)
+          // (a set of the latter, kept from the pass k - 1, was tried: its lookups cost more
+          // than the test, a few distances of points close in memory)
           if (k >= 2 && (pivots.count(s.number) != 0 || apparent_facet_of(s, sv, work))) return;
           if (const auto t = apparent_cofacet(s, sv, work)) {
             if (o_.zero_persistence) mine.zero.push_back({s.value, t->value, s.number, t->number});
@@ -532,6 +535,7 @@ class implicit_rips_engine {
             consider(s, sv);
           });
         }
+        lists[c] = std::move(mine);
         return chunk_begin(c + 1) - chunk_begin(c);
       });
       std::vector<rips_simplex> columns, next;
@@ -614,11 +618,13 @@ class implicit_rips_engine {
       std::vector<std::vector<rips_simplex>> lists(chunks);
       run_chunks(chunks, o_.threads, o_.control, "Vietoris-Rips distances", n_, [&](std::size_t c) -> std::uint64_t {
         const std::size_t first = std::max<std::size_t>(row(c), 1), last = c + 1 == chunks ? n_ : row(c + 1);
+        std::vector<rips_simplex> mine;  // moved to lists[c] at the end (no shared cache lines)
         for (std::size_t a = first; a < last; ++a)
           for (std::size_t b = 0; b < a; ++b) {
             const double d = m_.distance(a, b);
-            if (d <= threshold_) lists[c].push_back({d, numbering_.binomial(a, 2) + b});
+            if (d <= threshold_) mine.push_back({d, numbering_.binomial(a, 2) + b});
           }
+        lists[c] = std::move(mine);
         return last > first ? last - first : 0;
       });
       std::size_t total = 0;
@@ -749,6 +755,26 @@ class implicit_rips_engine {
     const int k = static_cast<int>(sv.size()) - 1;
     std::uint64_t above = 0, below = s.number;
     std::size_t j = 0;
+    if (!m_.sparse()) {  // the loop of for_candidates written out: the hottest loop of the engine
+      for (std::size_t w = n_; w-- > 0;) {
+        if (j < sv.size() && w == sv[j]) {
+          below -= numbering_.binomial(w, k + 1 - static_cast<int>(j));
+          above += numbering_.binomial(w, k + 2 - static_cast<int>(j));
+          ++j;
+          continue;
+        }
+        bool near = true;
+        for (std::uint32_t u : sv)
+          if (m_.distance(w, u) > s.value) {
+            near = false;
+            break;
+          }
+        if (near)  // s.value <= the threshold: the cofacet exists
+          return found_cofacet{rips_simplex{s.value, above + numbering_.binomial(w, k + 2 - static_cast<int>(j)) + below}, j,
+                               static_cast<std::uint32_t>(w)};
+      }
+      return std::nullopt;
+    }
     std::optional<found_cofacet> found;
     for_candidates(sv, [&](std::uint32_t w) {
       while (j < sv.size() && sv[j] > w) {
