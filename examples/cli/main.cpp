@@ -990,10 +990,18 @@ int main(int argc, char** argv) {
     }
     if (seq->parsed()) read_numbers(so, std::nullopt, seq_max_cells_text, seq_max_facet_text, seq_max_memory_text);
     if (!interrupts) interrupts = new interrupt_watch;  // one per process, never deleted: its thread may outlive main
-    if (pers.parsed())
-      return pers.run({.stop = interrupts->token(),
-                       .begin_output = [] { return interrupts->begin_output(); },
-                       .interrupted = [] { return interrupts->stopped(); }});
+    if (pers.parsed()) {
+      progress_line progress(!pers.quiet());
+      const int status = pers.run({.stop = interrupts->token(),
+                                   .begin_output = [&progress] {
+                                     progress.stop();
+                                     return interrupts->begin_output();
+                                   },
+                                   .interrupted = [] { return interrupts->stopped(); },
+                                   .progress = [&progress](const lacuna::progress_report& r) { progress.report(r); }});
+      progress.stop();
+      return status;
+    }
     if (hom->parsed()) run_homology(o);
     if (seq->parsed()) {
       o.file = so.file;  // for messages

@@ -20,6 +20,7 @@
 #include <lacuna/io/cells.hpp>
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/distances.hpp>
+#include <lacuna/io/links.hpp>
 #include <lacuna/io/netpbm.hpp>
 #include <lacuna/io/nrrd.hpp>
 #include <lacuna/io/persistence_svg.hpp>
@@ -178,6 +179,23 @@ double parse_up_to(const std::string& v) {
 
 // ---- the inputs ---------------------------------------------------------------------------
 
+/// The metric of a .distances file (a full or lower-triangular matrix) or of a .links file
+/// (sparse: only the pairs listed).
+lacuna::rips_metric read_distance_matrix(const std::string& file) {
+  if (extension_of(file) == ".links") {
+    const auto l = lacuna::io::read_links(std::filesystem::path(file));
+    std::vector<lacuna::rips_metric::link> links;
+    links.reserve(l.pairs.size());
+    for (const auto& p : l.pairs) links.push_back({p.a, p.b, p.distance});
+    return lacuna::rips_metric::from_links(l.points, links);  // the reader refused what this would
+  }
+  const auto d = lacuna::io::read_distances(std::filesystem::path(file));
+  std::vector<double> full(d.size() * d.size());
+  for (std::size_t i = 0; i < d.size(); ++i)
+    for (std::size_t j = 0; j < d.size(); ++j) full[i * d.size() + j] = d(i, j);
+  return lacuna::rips_metric::from_distances(d.size(), full);
+}
+
 /// The explicit Vietoris–Rips route (rips_filtration, every simplex built, then
 /// lacuna::persistence) instead of the implicit one: the hidden flag --explicit-rips, kept to
 /// check one route against the other on real files. Both print the same bytes.
@@ -192,11 +210,22 @@ void run_rips_explicit(const persistence_command::settings& s, const field_choic
   ro.control = nullptr;
   out.filtration = "vietoris-rips";
   lacuna::rips_filtration f;
-  if (ext == ".distances") {
-    const auto m = lacuna::io::read_distances(std::filesystem::path(s.file));
+  if (ext == ".distances" || ext == ".links") {
+    const auto m = read_distance_matrix(s.file);
     std::vector<double> full(m.size() * m.size());
     for (std::size_t i = 0; i < m.size(); ++i)
-      for (std::size_t j = 0; j < m.size(); ++j) full[i * m.size() + j] = m(i, j);
+      for (std::size_t j = 0; j < m.size(); ++j) full[i * m.size() + j] = m.distance(i, j);
+    // a pair a .links file does not list: longer than every edge kept (the threshold, or the
+    // longest listed distance), and cut off by a threshold just below it
+    double longest = 0;
+    for (std::size_t i = 0; i < full.size(); ++i)
+      if (std::isfinite(full[i])) longest = std::max(longest, full[i]);
+    if (ext == ".links") {
+      const double cut = ro.threshold ? std::min(*ro.threshold, longest) : longest;
+      for (auto& x : full)
+        if (!std::isfinite(x)) x = 2 * cut + 1;
+      ro.threshold = cut;
+    }
     f = lacuna::rips_filtration::from_distances(m.size(), full, ro);
   } else {
     const auto c = lacuna::io::read_points(std::filesystem::path(s.file));
@@ -220,14 +249,12 @@ void run_rips(const persistence_command::settings& s, const field_choice& field,
   lacuna::implicit_rips_options o{.max_dimension = static_cast<int>(top)};
   if (s.up_to) o.threshold = parse_up_to(*s.up_to);
   o.control.stop = context.stop;
+  o.control.progress = context.progress;
+  o.threads = 2;  // both cores; the result does not depend on it
   out.filtration = "vietoris-rips";
   lacuna::rips_metric m;
-  if (ext == ".distances") {
-    const auto d = lacuna::io::read_distances(std::filesystem::path(s.file));
-    std::vector<double> full(d.size() * d.size());
-    for (std::size_t i = 0; i < d.size(); ++i)
-      for (std::size_t j = 0; j < d.size(); ++j) full[i * d.size() + j] = d(i, j);
-    m = lacuna::rips_metric::from_distances(d.size(), full);
+  if (ext == ".distances" || ext == ".links") {
+    m = read_distance_matrix(s.file);
   } else {
     const auto c = lacuna::io::read_points(std::filesystem::path(s.file));
     if (!c.empty()) m = lacuna::rips_metric::from_points(c.coordinates, c.dimension);
@@ -374,7 +401,8 @@ persistence_command::persistence_command(CLI::App& app) {
   sub_->add_flag_callback("--explicit-rips", [] { explicit_rips_route = true; },
                           "Vietoris-Rips: build every simplex (the explicit route), to check the implicit one")
       ->group("");
-  sub_->add_option("FILE", s_.file, "input: .points .csv .distances .pgm .nrrd, or .facets .cells with --values")
+  sub_->add_flag("--quiet", s_.quiet, "no progress line on stderr");
+  sub_->add_option("FILE", s_.file, "input: .points .csv .distances .links .pgm .nrrd, or .facets .cells with --values")
       ->required();
 }
 
@@ -394,12 +422,12 @@ int persistence_command::run(const run_context& context) const {
       s.max_dimension = parse_number<long long>(*s.max_dimension_text, "--max-dimension", 0, max_dimension_limit);
     check_input(s.file);
     const std::string ext = extension_of(s.file);
-    const bool cloud = ext == ".points" || ext == ".csv" || ext == ".distances";
+    const bool cloud = ext == ".points" || ext == ".csv" || ext == ".distances" || ext == ".links";
     const bool complex = ext == ".facets" || ext == ".cells";
     const bool image = ext == ".pgm" || ext == ".nrrd";
     if (!cloud && !complex && !image)
       throw bad_input(s.file + ": unknown file type '" + ext +
-                      "' for persistence (expected .points, .csv, .distances, .pgm, .nrrd, or .facets or .cells "
+                      "' for persistence (expected .points, .csv, .distances, .links, .pgm, .nrrd, or .facets or .cells "
                       "with --values)");
     if (complex && s.values.empty())
       throw bad_input("lacuna: persistence of " + s.file + " needs --values VALUES (the value at which each cell enters)");

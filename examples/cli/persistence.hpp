@@ -2,6 +2,8 @@
 // registered on the tool's CLI11 app by main.cpp, which then hands it the run.
 #pragma once
 
+#include <lacuna/chain/run_control.hpp>
+
 #include <CLI/CLI.hpp>
 
 #include <functional>
@@ -19,6 +21,8 @@ struct run_context {
   std::function<bool()> begin_output{};
   /// The exit status after an interrupt (prints its line).
   std::function<int()> interrupted{};
+  /// The library's progress reports (the tool's progress line), or none.
+  std::function<void(const lacuna::progress_report&)> progress{};
 };
 
 /// `lacuna persistence [OPTIONS] FILE` (docs/persistence-cli.md).
@@ -31,6 +35,8 @@ class persistence_command {
   persistence_command& operator=(const persistence_command&) = delete;
   /// True when the command line chose this subcommand.
   bool parsed() const;
+  /// True when --quiet was given (no progress line).
+  bool quiet() const { return s_.quiet; }
   /// Runs it: prints the result and returns 0, or prints one line on stderr and returns 2 (a
   /// bad file or argument) or 130 (interrupted).
   int run(const run_context& context) const;
@@ -46,6 +52,7 @@ class persistence_command {
     bool json = false;
     std::string diagram;
     std::string barcode;
+    bool quiet = false;
   };
 
  private:
