@@ -298,7 +298,6 @@ TEST_CASE("representative cocycles of random clouds: cocycles before the death, 
     if (grid) pairs += check_cloud<lacuna::mod_p<3>>(m, D, std::nullopt, true);
   }
   // not vacuous: pairs in dimensions >= 1, and essential ones among them
-  MESSAGE("pairs ", pairs, " higher ", higher, " essential ", essential);
   CHECK(pairs > 200);
   CHECK(higher > 20);
   CHECK(essential > 2);
