@@ -189,9 +189,10 @@ struct implicit_rips_options {
   /// Keep the pairs of persistence zero (default: dropped, as without_zero_persistence does).
   bool zero_persistence = false;
   /// A stop request and a progress callback. Phases: "Vietoris-Rips distances" (points),
-  /// "H_0 by union-find" (edges), "Vietoris-Rips columns of dimension k" (simplices), and
-  /// "reducing the coboundary of dimension k" (columns). Its memory_limit bounds the columns
-  /// the reduction stores (those that needed additions) and its working column: past it,
+  /// "H_0 by union-find" (edges), "Vietoris-Rips columns of dimension k" (simplices),
+  /// "reducing the coboundary of dimension k" (columns), and with cocycles "H_0 cocycles by
+  /// union-find" (edges). Its memory_limit bounds the columns the reduction stores (those that
+  /// needed additions), its working column and the cocycles asked for: past it,
   /// lacuna::memory_limit_exceeded (the part that grows fastest on large clouds, see
   /// docs/performance.md).
   run_control control{};
