@@ -669,14 +669,16 @@ class implicit_rips_engine {
   // ---- representative cocycles ------------------------------------------------------------
   //
   // The column of the reduction matrix V of a k-simplex s, z = s + (the columns added to it),
-  // is a k-cochain with δz = R, the reduced column (de Silva, Morozov & Vejdemo-Johansson 2011,
-  // "Dualities in persistent (co)homology", Section 2: R = δV with V upper triangular in the
-  // reverse order). Every column added to s's is of a simplex processed before s, i.e. younger,
-  // so s is the oldest term of z, with coefficient 1. For a pair (s, p), p is the oldest
-  // (k+1)-simplex where δz is not zero: z restricted to K_t is a cocycle for every t before p,
-  // whose class is not zero from s on (it is the class of the pair in the persistent
-  // cohomology, which has the barcode of the homology by their duality). For an essential
-  // class δz = 0. A column reduced as it stands (an emergent or apparent pair) has z = s.
+  // is a k-cochain with δz = R, the reduced column (the reduction is R = δV, de Silva, Morozov
+  // & Vejdemo-Johansson 2011, "Dualities in persistent (co)homology"). Every column added to
+  // s's belongs to a simplex younger than s: a stored pivot's simplex was processed before s,
+  // and the facet f of an apparent pair (f, p) added for the pivot p is p's youngest facet,
+  // so at least as young as the term of the working column that has p as a cofacet (and not
+  // s, which would then be f and never a column). So s is the oldest term of z, with
+  // coefficient 1. For a pair (s, p), p is the oldest (k+1)-simplex where δz is not zero: z
+  // restricted to K_t is a cocycle for every t before p, and its class is the pair's class in
+  // the persistent cohomology, whose barcode is that of homology. For an essential class
+  // δz = 0. A column reduced as it stands (an emergent or apparent pair) has z = s.
 
   /// Keeps the cocycle s + terms of the pair just reported in dimension k.
   void keep_cocycle(int k, const rips_simplex& s, std::span<const heap_entry> terms) {
@@ -697,8 +699,10 @@ class implicit_rips_engine {
   /// component of b in the graph of the edges before e (filtration order); for an essential
   /// class, of its component in the graph of every edge. δ of the indicator of a union of
   /// components vanishes on every edge of the graph; e joins the component of b (b is the
-  /// younger of the two components e merges) to another, so δz(e) = ±1. These are the
-  /// cocycles of the 0-dimensional coboundary reduction up to a triangular change of basis.
+  /// younger of the two components e merges) to another, so δz(e) = ±1. The cocycles of the
+  /// classes alive at t are independent: at any time each component holds the birth vertex
+  /// of exactly one living class, so the cocycle of a class is 1 on its own birth vertex and 0
+  /// on that of every class dying later (a triangular matrix with ones on the diagonal).
   /// The edges are enumerated here again, so this needs nothing of run()'s own pass but the
   /// pairs: b is their birth cell, e their death cell.
   void finish_cocycles(persistence_result<double, R>& out) {
