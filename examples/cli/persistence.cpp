@@ -114,14 +114,51 @@ std::string value_text(const V& v) {
   }
 }
 
+/// One term of a printed cocycle: its coefficient as text and its simplex, points numbered
+/// from 1 in the order of the file.
+struct cocycle_term {
+  std::string coefficient;
+  std::vector<std::uint32_t> points;
+};
+
 /// The diagrams as printed: per dimension, the pairs' values as text and as doubles (for the
-/// pictures).
+/// pictures), and with --cycles a cocycle per pair.
 struct outcome {
   std::string filtration;
   bool superlevel = false;
   std::vector<std::vector<std::pair<std::string, std::optional<std::string>>>> text;
   std::vector<std::vector<lacuna::io::diagram_interval>> values;
+  bool has_cocycles = false;
+  std::vector<std::vector<std::vector<cocycle_term>>> cocycles;  // [k][j]: of text[k][j]
 };
+
+/// The coefficients of a cocycle as text: residues 1..p-1 over Z/p; over Q the cocycle scaled
+/// to coprime integers (a non-zero multiple of a representative cocycle is one too).
+template <class R>
+std::vector<std::string> coefficient_texts(const lacuna::rips_cochain<R>& z, std::uint64_t p) {
+  std::vector<std::string> out;
+  if constexpr (std::is_same_v<R, lacuna::rational>) {
+    using big = boost::multiprecision::cpp_int;
+    big l = 1;
+    for (const auto& c : z.coefficients) {
+      const big d = boost::multiprecision::denominator(c.value());
+      l = l / boost::multiprecision::gcd(l, d) * d;
+    }
+    big g = 0;
+    std::vector<big> nums;
+    for (const auto& c : z.coefficients) {
+      nums.push_back(boost::multiprecision::numerator(c.value()) * (l / boost::multiprecision::denominator(c.value())));
+      g = boost::multiprecision::gcd(g, nums.back());
+    }
+    for (auto& n : nums) out.push_back((g == 0 ? n : n / g).str());
+  } else if constexpr (std::is_same_v<R, lacuna::mod_p_dynamic>) {
+    for (const auto& c : z.coefficients)
+      out.push_back(std::to_string(c.is_bound() ? c.value() : lacuna::mod_p_dynamic(c.unbound_value(), p).value()));
+  } else {
+    for (const auto& c : z.coefficients) out.push_back(c == lacuna::one<R>() ? "1" : "0");
+  }
+  return out;
+}
 
 /// Copies the diagrams of a result (pairs of persistence zero already dropped) into `out`, with
 /// empty diagrams up to dimension `top` where the result has fewer.
@@ -261,7 +298,21 @@ void run_rips(const persistence_command::settings& s, const field_choice& field,
   }
   with_field(field, [&](const auto& unit) {
     using R = std::remove_cvref_t<decltype(unit)>;
-    collect(lacuna::implicit_rips_persistence<R>(m, o, unit), top, out);
+    if (!s.cycles) return collect(lacuna::implicit_rips_persistence<R>(m, o, unit), top, out);
+    const auto r = lacuna::implicit_rips_persistence_with_cocycles<R>(m, o, unit);
+    collect(r.persistence, top, out);
+    out.has_cocycles = true;
+    out.cocycles.assign(out.text.size(), {});
+    for (std::size_t k = 0; k < r.cocycles.size() && k < out.cocycles.size(); ++k)
+      for (const auto& z : r.cocycles[k]) {
+        const auto coefficients = coefficient_texts(z, field.p);
+        auto& terms = out.cocycles[k].emplace_back();
+        for (std::size_t i = 0; i < z.size(); ++i) {
+          cocycle_term t{coefficients[i], {}};
+          for (std::uint32_t v : z.simplex(i)) t.points.push_back(v + 1);
+          terms.push_back(std::move(t));
+        }
+      }
   });
 }
 
@@ -359,7 +410,33 @@ std::string json_of(const outcome& o, const field_choice& field) {
     }
     s += "]}";
   }
-  s += o.text.empty() ? "]\n}\n" : "\n  ]\n}\n";
+  s += o.text.empty() ? "]" : "\n  ]";
+  if (o.has_cocycles) {
+    // an extension of the contract's layout (docs/persistence-cli.md): one cocycle per pair
+    s += ",\n  \"representatives\": [";
+    for (std::size_t k = 0; k < o.cocycles.size(); ++k) {
+      s += k ? ",\n    " : "\n    ";
+      s += "{\"dimension\": " + std::to_string(k) + ", \"cocycles\": [";
+      for (std::size_t j = 0; j < o.cocycles[k].size(); ++j) {
+        s += j ? ",\n      [" : "\n      [";
+        const auto& terms = o.cocycles[k][j];
+        for (std::size_t i = 0; i < terms.size(); ++i) {
+          s += i ? ", [" : "[";
+          s += terms[i].coefficient;
+          s += ", [";
+          for (std::size_t v = 0; v < terms[i].points.size(); ++v) {
+            if (v) s += ", ";
+            s += std::to_string(terms[i].points[v]);
+          }
+          s += "]]";
+        }
+        s += "]";
+      }
+      s += o.cocycles[k].empty() ? "]}" : "\n    ]}";
+    }
+    s += o.cocycles.empty() ? "]" : "\n  ]";
+  }
+  s += "\n}\n";
   return s;
 }
 
@@ -370,7 +447,30 @@ std::string text_of(const outcome& o, const field_choice& field, const std::stri
   for (std::size_t k = 0; k < o.text.size(); ++k) {
     const auto n = o.text[k].size();
     s += "dimension " + std::to_string(k) + ": " + std::to_string(n) + (n == 1 ? " class" : " classes") + "\n";
-    for (const auto& [b, d] : o.text[k]) s += "  born " + b + ", " + (d ? "dies " + *d : std::string("never dies")) + "\n";
+    for (std::size_t j = 0; j < n; ++j) {
+      const auto& [b, d] = o.text[k][j];
+      s += "  born " + b + ", " + (d ? "dies " + *d : std::string("never dies")) + "\n";
+      if (!o.has_cocycles) continue;
+      s += "    cocycle:";
+      const auto& terms = o.cocycles[k][j];
+      for (std::size_t i = 0; i < terms.size(); ++i) {
+        std::string c = terms[i].coefficient;
+        const bool negative = !c.empty() && c[0] == '-';
+        if (negative) c.erase(0, 1);
+        s += i == 0 ? (negative ? " -" : " ") : (negative ? " - " : " + ");
+        if (c != "1") {
+          s += c;
+          s += '*';
+        }
+        s += "[";
+        for (std::size_t v = 0; v < terms[i].points.size(); ++v) {
+          if (v) s += ' ';
+          s += std::to_string(terms[i].points[v]);
+        }
+        s += "]";
+      }
+      s += "\n";
+    }
   }
   return s;
 }
@@ -396,6 +496,9 @@ persistence_command::persistence_command(CLI::App& app) {
       ->type_name("VALUES");
   sub_->add_flag("--superlevel", s_.superlevel, "images and volumes: the filtration runs from the largest value down");
   sub_->add_flag("--json", s_.json, "one JSON object");
+  sub_->add_flag("--cycles", s_.cycles,
+                 "point clouds and distance matrices: also a representative cocycle of each class (points numbered "
+                 "from 1)");
   sub_->add_option("--diagram", s_.diagram, "also write the persistence diagram as SVG")->type_name("OUT.svg");
   sub_->add_option("--barcode", s_.barcode, "also write the barcode as SVG")->type_name("OUT.svg");
   sub_->add_flag_callback("--explicit-rips", [] { explicit_rips_route = true; },
@@ -435,6 +538,11 @@ int persistence_command::run(const run_context& context) const {
       throw bad_input("lacuna: --values applies to .facets and .cells files, not to " + s.file);
     if (s.superlevel && !image)
       throw bad_input("lacuna: --superlevel applies to images and volumes (.pgm, .nrrd), not to " + s.file);
+    if (s.cycles && !cloud)
+      throw bad_input("lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances), "
+                      "not to " + s.file);
+    if (s.cycles && explicit_rips_route)
+      throw bad_input("lacuna: --cycles takes the cocycles of the implicit Vietoris-Rips route, not --explicit-rips");
     if (s.up_to) parse_up_to(*s.up_to);
     if (!s.values.empty()) check_input(s.values);
     outcome out;

@@ -50,6 +50,7 @@ class persistence_command {
     std::string values;
     bool superlevel = false;
     bool json = false;
+    bool cycles = false;  ///< --cycles: a representative cocycle per pair (Vietoris-Rips only)
     std::string diagram;
     std::string barcode;
     bool quiet = false;

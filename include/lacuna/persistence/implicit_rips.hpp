@@ -71,7 +71,9 @@
 // explicit rips_filtration. Pairs of persistence zero are dropped by default — the result is
 // then that of lacuna::without_zero_persistence(lacuna::persistence(explicit)), which is what
 // the command-line tool prints — and kept with options.zero_persistence (then equal to
-// lacuna::persistence(explicit) itself, below the threshold). No representatives.
+// lacuna::persistence(explicit) itself, below the threshold). Representatives are cocycles, on
+// request: implicit_rips_persistence_with_cocycles (the cohomology reduction's own
+// representatives; the cycles of the homology would need another reduction).
 #pragma once
 
 #include <lacuna/chain/parallel_chunks.hpp>
@@ -314,9 +316,10 @@ struct implicit_rips_options {
   /// shortcut tests, sorting); the result does not depend on it. 0 and 1: this thread alone.
   unsigned threads = 1;
   /// A stop request and a progress callback. Phases: "Vietoris-Rips distances" (points),
-  /// "H_0 by union-find" (edges), "Vietoris-Rips columns of dimension k" (simplices), and
-  /// "reducing the coboundary of dimension k" (columns). Its memory_limit bounds the columns
-  /// the reduction stores (those that needed additions) and its working column: past it,
+  /// "H_0 by union-find" (edges), "Vietoris-Rips columns of dimension k" (simplices),
+  /// "reducing the coboundary of dimension k" (columns), and with cocycles "H_0 cocycles by
+  /// union-find" (edges). Its memory_limit bounds the columns the reduction stores (those that
+  /// needed additions), its working column and the cocycles asked for: past it,
   /// lacuna::memory_limit_exceeded (the part that grows fastest on large clouds, see
   /// docs/performance.md).
   run_control control{};
@@ -398,6 +401,37 @@ inline std::vector<std::uint32_t> implicit_rips_vertices(std::size_t n, int k, s
   return v;
 }
 
+/// A cochain of the Vietoris–Rips complex on the points 0..n-1 with coefficients in R (a
+/// field): simplices of one dimension given by their points, each with a non-zero coefficient.
+/// Term i is the simplex simplex(i) (dimension + 1 points, increasing) with coefficient(i).
+template <class R>
+struct rips_cochain {
+  int dimension = 0;
+  /// The points of the simplices, dimension + 1 per term, each simplex increasing.
+  std::vector<std::uint32_t> vertices;
+  /// The coefficients, one per term, none zero.
+  std::vector<R> coefficients;
+
+  /// The number of terms.
+  std::size_t size() const noexcept { return coefficients.size(); }
+  /// The points of term i, increasing.
+  std::span<const std::uint32_t> simplex(std::size_t i) const {
+    const auto w = static_cast<std::size_t>(dimension) + 1;
+    return std::span<const std::uint32_t>(vertices).subspan(i * w, w);
+  }
+  /// The coefficient of term i.
+  const R& coefficient(std::size_t i) const { return coefficients[i]; }
+};
+
+/// The result of implicit_rips_persistence_with_cocycles: the persistence of
+/// implicit_rips_persistence, and one representative cocycle per reported pair,
+/// cocycles[k][j] for persistence[k].pairs[j] (see that function for what they satisfy).
+template <class R>
+struct implicit_rips_cocycles {
+  persistence_result<double, R> persistence;
+  std::vector<std::vector<rips_cochain<R>>> cocycles;
+};
+
 namespace detail {
 
 /// A simplex of the implicit filtration: its value and combinatorial number.
@@ -439,6 +473,7 @@ class implicit_rips_engine {
     const int D = o_.max_dimension;
     out.diagrams.resize(static_cast<std::size_t>(D + 1));
     for (int k = 0; k <= D; ++k) out.diagrams[static_cast<std::size_t>(k)].dimension = k;
+    if (want_cocycles_) cocycles_.assign(static_cast<std::size_t>(D + 1), {});
     if (n_ == 0) return out;
 
     // ---- the edges within the threshold, in filtration order --------------------------
@@ -547,6 +582,9 @@ class implicit_rips_engine {
         columns.insert(columns.end(), l.columns.begin(), l.columns.end());
         next.insert(next.end(), l.next.begin(), l.next.end());
         dk.insert(dk.end(), l.zero.begin(), l.zero.end());
+        // the cocycle of an apparent pair (s, t) is s alone; kept in the order of the pairs
+        if (want_cocycles_)
+          for (const auto& z : l.zero) keep_cocycle(k, rips_simplex{z.birth, z.birth_cell}, {});
         l = chunk_lists{};
       }
       if (k >= 2 && k < D) sort_in_order(next, rips_before);
@@ -558,8 +596,38 @@ class implicit_rips_engine {
       simplices = std::move(next);
     }
     for (auto& d : out.diagrams) d.order = out.order;
+    if (want_cocycles_) finish_cocycles(out);
     detail::sort_pairs(out);
     return out;
+  }
+
+  /// run(), with the representative cocycle of every reported pair (see
+  /// implicit_rips_persistence_with_cocycles).
+  implicit_rips_cocycles<R> run_with_cocycles() {
+    want_cocycles_ = true;
+    implicit_rips_cocycles<R> r;
+    r.persistence = run();
+    r.cocycles.resize(r.persistence.diagrams.size());
+    std::vector<std::uint32_t> v;
+    for (std::size_t k = 0; k < cocycles_.size() && k < r.cocycles.size(); ++k) {
+      for (auto& terms : cocycles_[k]) {
+        // the terms in the order of the filtration, oldest first
+        std::sort(terms.begin(), terms.end(), [](const auto& a, const auto& b) { return rips_before(a.simplex, b.simplex); });
+        rips_cochain<R> z;
+        z.dimension = static_cast<int>(k);
+        z.vertices.reserve(terms.size() * (k + 1));
+        z.coefficients.reserve(terms.size());
+        for (const auto& t : terms) {
+          v.clear();
+          numbering_.vertices(t.simplex.number, static_cast<int>(k), v);
+          z.vertices.insert(z.vertices.end(), v.rbegin(), v.rend());
+          z.coefficients.push_back(t.coefficient);
+        }
+        std::vector<heap_entry>().swap(terms);
+        r.cocycles[k].push_back(std::move(z));
+      }
+    }
+    return r;
   }
 
  private:
@@ -886,6 +954,125 @@ class implicit_rips_engine {
     return std::nullopt;
   }
 
+  /// Appends to `out` the terms summed by simplex (equal simplices added up, zero sums left
+  /// out); `terms` is sorted on the way.
+  static void append_summed(std::vector<heap_entry>& terms, std::vector<heap_entry>& out) {
+    std::sort(terms.begin(), terms.end(), [](const auto& a, const auto& b) { return a.simplex.number < b.simplex.number; });
+    for (std::size_t t = 0; t < terms.size();) {
+      heap_entry sum = terms[t++];
+      while (t < terms.size() && terms[t].simplex.number == sum.simplex.number)
+        sum.coefficient = sum.coefficient + terms[t++].coefficient;
+      if (!(sum.coefficient == zero<R>())) out.push_back(sum);
+    }
+  }
+
+  // ---- representative cocycles ------------------------------------------------------------
+  //
+  // The column of the reduction matrix V of a k-simplex s, z = s + (the columns added to it),
+  // is a k-cochain with δz = R, the reduced column (the reduction is R = δV, de Silva, Morozov
+  // & Vejdemo-Johansson 2011, "Dualities in persistent (co)homology"). Every column added to
+  // s's belongs to a simplex younger than s: a stored pivot's simplex was processed before s,
+  // and the facet f of an apparent pair (f, p) added for the pivot p is p's youngest facet,
+  // so at least as young as the term of the working column that has p as a cofacet (and not
+  // s, which would then be f and never a column). So s is the oldest term of z, with
+  // coefficient 1. For a pair (s, p), p is the oldest (k+1)-simplex where δz is not zero: z
+  // restricted to K_t is a cocycle for every t before p, and its class is the pair's class in
+  // the persistent cohomology, whose barcode is that of homology. For an essential class
+  // δz = 0. A column reduced as it stands (an emergent or apparent pair) has z = s.
+
+  /// Keeps the cocycle s + terms of the pair just reported in dimension k.
+  void keep_cocycle(int k, const rips_simplex& s, std::span<const heap_entry> terms) {
+    auto& z = cocycles_[static_cast<std::size_t>(k)].emplace_back();
+    z.reserve(terms.size() + 1);
+    z.push_back({s, unit_});
+    z.insert(z.end(), terms.begin(), terms.end());
+    cocycle_bytes_ += z.size() * sizeof(heap_entry);
+    o_.control.require_memory(stored_.size() * sizeof(heap_entry) + cocycle_bytes_,
+                              "the representative cocycles of the implicit Vietoris-Rips reduction");
+  }
+
+  /// The cocycles of H_0, then every diagram sorted with its cocycles (the order of
+  /// detail::sort_pairs, which is total here: no two pairs of a dimension share a birth cell,
+  /// so sort_pairs keeps it).
+  ///
+  /// H_0: for a pair born at vertex b and killed by the edge e, the indicator of the
+  /// component of b in the graph of the edges before e (filtration order); for an essential
+  /// class, of its component in the graph of every edge. δ of the indicator of a union of
+  /// components vanishes on every edge of the graph; e joins the component of b (b is the
+  /// younger of the two components e merges) to another, so δz(e) = ±1. The cocycles of the
+  /// classes alive at t are independent: at any time each component holds the birth vertex
+  /// of exactly one living class, so the cocycle of a class is 1 on its own birth vertex and 0
+  /// on that of every class dying later (a triangular matrix with ones on the diagonal).
+  /// The edges are enumerated here again, so this needs nothing of run()'s own pass but the
+  /// pairs: b is their birth cell, e their death cell.
+  void finish_cocycles(persistence_result<double, R>& out) {
+    if (n_ > 0 && !out.diagrams.empty()) {
+      const auto& d0 = out.diagrams[0].pairs;
+      auto& z0 = cocycles_[0];
+      z0.assign(d0.size(), {});
+      std::vector<rips_simplex> edges;
+      for (std::size_t a = 1; a < n_; ++a)
+        for (std::size_t b = 0; b < a; ++b)
+          if (const double d = m_.distance(a, b); d <= threshold_) edges.push_back({d, numbering_.binomial(a, 2) + b});
+      std::sort(edges.begin(), edges.end(), rips_before);
+      std::unordered_map<std::uint64_t, std::size_t> killed_by;  // death edge -> pair
+      for (std::size_t j = 0; j < d0.size(); ++j)
+        if (!d0[j].essential()) killed_by.emplace(d0[j].death_cell, j);
+      std::vector<std::uint32_t> parent(n_);
+      std::iota(parent.begin(), parent.end(), std::uint32_t{0});
+      std::vector<std::vector<std::uint32_t>> members(n_);
+      for (std::uint32_t x = 0; x < n_; ++x) members[x].assign(1, x);
+      auto find = [&](std::uint32_t x) {
+        while (parent[x] != x) x = parent[x] = parent[parent[x]];
+        return x;
+      };
+      auto indicator = [&](std::uint32_t root, std::vector<heap_entry>& z) {
+        z.reserve(members[root].size());
+        for (std::uint32_t x : members[root]) z.push_back({rips_simplex{0.0, x}, unit_});
+        cocycle_bytes_ += z.size() * sizeof(heap_entry);
+        o_.control.require_memory(cocycle_bytes_, "the representative cocycles of the implicit Vietoris-Rips reduction");
+      };
+      std::vector<std::uint32_t> v;
+      detail::progress_ticker tick(&o_.control, "H_0 cocycles by union-find", edges.size());
+      for (const auto& e : edges) {
+        tick();
+        v.clear();
+        numbering_.vertices(e.number, 1, v);
+        std::uint32_t a = find(v[0]), b = find(v[1]);
+        if (const auto j = killed_by.find(e.number); j != killed_by.end())
+          indicator(find(static_cast<std::uint32_t>(d0[j->second].birth_cell)), z0[j->second]);
+        if (a == b) continue;
+        if (members[a].size() < members[b].size()) std::swap(a, b);  // the smaller joins the larger
+        parent[b] = a;
+        members[a].insert(members[a].end(), members[b].begin(), members[b].end());
+        std::vector<std::uint32_t>().swap(members[b]);
+      }
+      tick.finish();
+      for (std::size_t j = 0; j < d0.size(); ++j)
+        if (d0[j].essential()) indicator(find(static_cast<std::uint32_t>(d0[j].birth_cell)), z0[j]);
+    }
+    for (std::size_t k = 0; k < out.diagrams.size() && k < cocycles_.size(); ++k) {
+      auto& pairs = out.diagrams[k].pairs;
+      auto& z = cocycles_[k];
+      if (z.size() != pairs.size())
+        throw std::logic_error("lacuna::implicit_rips_persistence_with_cocycles: cocycles and pairs out of step");
+      std::vector<std::size_t> perm(pairs.size());
+      std::iota(perm.begin(), perm.end(), std::size_t{0});
+      std::sort(perm.begin(), perm.end(),
+                [&](std::size_t a, std::size_t b) { return detail::pair_before(pairs[a], pairs[b], out.order); });
+      std::vector<persistence_pair<double>> sorted_pairs;
+      std::vector<std::vector<heap_entry>> sorted_z;
+      sorted_pairs.reserve(perm.size());
+      sorted_z.reserve(perm.size());
+      for (std::size_t j : perm) {
+        sorted_pairs.push_back(pairs[j]);
+        sorted_z.push_back(std::move(z[j]));
+      }
+      pairs = std::move(sorted_pairs);
+      z = std::move(sorted_z);
+    }
+  }
+
   void reduce(const std::vector<rips_simplex>& columns, int k, std::unordered_map<std::uint64_t, pivot_entry>& pivots,
               std::vector<persistence_pair<double>>& pairs) {
     const std::string phase = "reducing the coboundary of dimension " + std::to_string(k);
@@ -903,7 +1090,10 @@ class implicit_rips_engine {
         if (!apparent_facet_of(first->simplex, tv_)) {
           // the coefficient of the pivot: the incidence of s in it
           pivots.emplace(first->simplex.number, pivot_entry{s, first->position % 2 == 1 ? -unit_ : unit_, 0, 0});
-          if (o_.zero_persistence) pairs.push_back({s.value, s.value, s.number, first->simplex.number});
+          if (o_.zero_persistence) {
+            pairs.push_back({s.value, s.value, s.number, first->simplex.number});
+            if (want_cocycles_) keep_cocycle(k, s, {});
+          }
           continue;
         }
       }
@@ -914,6 +1104,11 @@ class implicit_rips_engine {
         const auto p = pivot_of_heap();
         if (!p) {  // a cocycle that never becomes a coboundary: an essential class born at s
           pairs.push_back({s.value, std::nullopt, s.number, no_cell});
+          if (want_cocycles_) {
+            summed_.clear();
+            append_summed(v_terms, summed_);
+            keep_cocycle(k, s, summed_);
+          }
           break;
         }
         const auto found = pivots.find(p->simplex.number);
@@ -941,20 +1136,17 @@ class implicit_rips_engine {
         }
         // a new pivot: the pair (s, p), the column of V kept (equal terms summed)
         pivot_entry e{s, p->coefficient, stored_.size(), stored_.size()};
-        std::sort(v_terms.begin(), v_terms.end(),
-                  [](const auto& a, const auto& b) { return a.simplex.number < b.simplex.number; });
-        for (std::size_t t = 0; t < v_terms.size();) {
-          heap_entry sum = v_terms[t++];
-          while (t < v_terms.size() && v_terms[t].simplex.number == sum.simplex.number)
-            sum.coefficient = sum.coefficient + v_terms[t++].coefficient;
-          if (!(sum.coefficient == zero<R>())) stored_.push_back(sum);
-        }
+        append_summed(v_terms, stored_);
         e.end = stored_.size();
-        o_.control.require_memory(stored_.size() * sizeof(heap_entry) + heap_.size() * sizeof(heap_entry),
+        o_.control.require_memory((stored_.size() + heap_.size()) * sizeof(heap_entry) + cocycle_bytes_,
                                   "the stored columns of the implicit Vietoris-Rips reduction");
         pivots.emplace(p->simplex.number, e);
-        if (o_.zero_persistence || s.value < p->simplex.value)
+        if (o_.zero_persistence || s.value < p->simplex.value) {
           pairs.push_back({s.value, p->simplex.value, s.number, p->simplex.number});
+          // the column of V: s and the stored terms (the theory is at keep_cocycle)
+          if (want_cocycles_)
+            keep_cocycle(k, s, std::span<const heap_entry>(stored_).subspan(e.begin, e.end - e.begin));
+        }
         break;
       }
     }
@@ -971,10 +1163,28 @@ class implicit_rips_engine {
   double threshold_ = 0;
   std::vector<heap_entry> heap_;
   std::vector<heap_entry> stored_;
+  // representative cocycles, only when asked for: per dimension, one per reported pair
+  bool want_cocycles_ = false;
+  std::vector<std::vector<std::vector<heap_entry>>> cocycles_;
+  std::vector<heap_entry> summed_;
+  std::size_t cocycle_bytes_ = 0;
   std::vector<std::uint32_t> scratch_, sv_, tv_, pv_;
   scratch_space work_;
 };
 
+}  // namespace detail
+
+namespace detail {
+template <class R>
+void check_implicit_rips_arguments(const rips_metric& metric, const implicit_rips_options& options, const R& unit) {
+  if (options.max_dimension < 0)
+    throw std::invalid_argument("lacuna::implicit_rips_persistence: negative max_dimension");
+  if (options.threshold && std::isnan(*options.threshold))
+    throw std::invalid_argument("lacuna::implicit_rips_persistence: the threshold is not a number");
+  if (unit == zero<R>()) throw std::invalid_argument("lacuna::implicit_rips_persistence: the unit of the field is zero");
+  if (metric.size() >= std::numeric_limits<std::uint32_t>::max())
+    throw std::length_error("lacuna::implicit_rips_persistence: more than 2^32 - 2 points");
+}
 }  // namespace detail
 
 /// The persistent homology over the field R (default Z/2) of the Vietoris–Rips filtration of
@@ -990,15 +1200,35 @@ template <field R = z2>
 persistence_result<double, R> implicit_rips_persistence(const rips_metric& metric,
                                                         const implicit_rips_options& options = {},
                                                         const R& unit = one<R>()) {
-  if (options.max_dimension < 0)
-    throw std::invalid_argument("lacuna::implicit_rips_persistence: negative max_dimension");
-  if (options.threshold && std::isnan(*options.threshold))
-    throw std::invalid_argument("lacuna::implicit_rips_persistence: the threshold is not a number");
-  if (unit == zero<R>()) throw std::invalid_argument("lacuna::implicit_rips_persistence: the unit of the field is zero");
-  if (metric.size() >= std::numeric_limits<std::uint32_t>::max())
-    throw std::length_error("lacuna::implicit_rips_persistence: more than 2^32 - 2 points");
+  detail::check_implicit_rips_arguments(metric, options, unit);
   detail::implicit_rips_engine<R> engine(metric, options, unit);
   return engine.run();
+}
+
+/// implicit_rips_persistence with a representative cocycle for every pair it reports:
+/// cocycles[k][j] belongs to persistence[k].pairs[j] (sorted together). For a k-class born
+/// at the k-simplex b (birth_cell) and killed at the (k+1)-simplex p (death_cell), z is a
+/// k-cochain with coefficient 1 on b, of simplices entering no earlier than b (for k >= 1;
+/// all vertices enter at 0), whose coboundary vanishes on every (k+1)-simplex entering before
+/// p and not on p: restricted to K_t, birth <= t < death, z is a cocycle whose cohomology
+/// class is not zero, and these classes of the pairs alive at t form a basis of H^k(K_t; R)
+/// (de Silva, Morozov & Vejdemo-Johansson 2011). For an essential class δz = 0 on the whole
+/// complex (within the threshold). k >= 1: the column of the coboundary reduction (see the
+/// engine); k = 0: the indicator (coefficient 1 on each vertex) of the component of b just
+/// before p enters, or at the threshold for an essential class. Terms are in the order of
+/// the filtration, oldest first (for k >= 1, b first). Pairs of persistence zero are
+/// dropped, with their cocycles, unless options.zero_persistence.
+/// Cost beyond implicit_rips_persistence: the terms of the cocycles (their columns are kept
+/// anyway when they needed additions), which options.control.memory_limit also bounds, and
+/// for H_0 a second union-find pass over the edges; the H_0 cocycles hold together the sum
+/// of the sizes of the dying components, at most n(n+1)/2 vertices.
+template <field R = z2>
+implicit_rips_cocycles<R> implicit_rips_persistence_with_cocycles(const rips_metric& metric,
+                                                                 const implicit_rips_options& options = {},
+                                                                 const R& unit = one<R>()) {
+  detail::check_implicit_rips_arguments(metric, options, unit);
+  detail::implicit_rips_engine<R> engine(metric, options, unit);
+  return engine.run_with_cocycles();
 }
 
 }  // namespace lacuna
