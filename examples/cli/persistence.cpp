@@ -539,7 +539,7 @@ int persistence_command::run(const run_context& context) const {
     if (s.superlevel && !image)
       throw bad_input("lacuna: --superlevel applies to images and volumes (.pgm, .nrrd), not to " + s.file);
     if (s.cycles && !cloud)
-      throw bad_input("lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances), "
+      throw bad_input("lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances, .links), "
                       "not to " + s.file);
     if (s.cycles && explicit_rips_route)
       throw bad_input("lacuna: --cycles takes the cocycles of the implicit Vietoris-Rips route, not --explicit-rips");

@@ -278,11 +278,11 @@ TEST_CASE("persistence --cycles: refused for images, complexes with values and t
   cli_test::temp_dir dir;
   const auto img = dir.write("wells.pgm", "P2\n5 1\n9\n0 3 1 5 5\n");
   CHECK(cli_test::expect_error(cli_test::run({"persistence", "--cycles", img})) ==
-        "lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances), not to " + img);
+        "lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances, .links), not to " + img);
   const auto facets = dir.write("t.facets", "a b\n");
   const auto values = dir.write("t.values", "a 0\nb 1\n");
   CHECK(cli_test::expect_error(cli_test::run({"persistence", "--cycles", "--values", values, facets})) ==
-        "lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances), not to " + facets);
+        "lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances, .links), not to " + facets);
   CHECK(cli_test::expect_error(cli_test::run({"persistence", "--cycles", "--explicit-rips", pdata("square.points")})) ==
         "lacuna: --cycles takes the cocycles of the implicit Vietoris-Rips route, not --explicit-rips");
 }

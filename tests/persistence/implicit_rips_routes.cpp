@@ -1,7 +1,8 @@
 // The implicit Vietoris–Rips route's ways of getting to the same answer, each against a source
 // outside the code it checks:
 //   - threads: the result with 2 and 3 threads equals the result with one, pair for pair and
-//     cell for cell (the promise of implicit_rips_options::threads);
+//     cell for cell, representative cocycles included (the promise of
+//     implicit_rips_options::threads);
 //   - diagram 0 alone comes from Prim's minimum spanning forest; it must equal diagram 0 of a
 //     run in higher dimensions, which is Kruskal's pass over every edge — the same pairs and
 //     cells, because a minimum spanning forest under a strict total order of the edges is
@@ -92,6 +93,22 @@ TEST_CASE("two and three threads give the result of one, cell for cell") {
       CHECK(pairs_of(lacuna::implicit_rips_persistence(m, o)) == pairs_of(one));
       o.threads = 3;
       CHECK(pairs_of(lacuna::implicit_rips_persistence(m, o)) == pairs_of(one));
+      // the representative cocycles too, term for term
+      if (n <= 40) {
+        o.threads = 1;
+        const auto c1 = lacuna::implicit_rips_persistence_with_cocycles(m, o);
+        o.threads = 2;
+        const auto c2 = lacuna::implicit_rips_persistence_with_cocycles(m, o);
+        CHECK(pairs_of(c2.persistence) == pairs_of(c1.persistence));
+        REQUIRE(c2.cocycles.size() == c1.cocycles.size());
+        for (std::size_t k = 0; k < c1.cocycles.size(); ++k) {
+          REQUIRE(c2.cocycles[k].size() == c1.cocycles[k].size());
+          for (std::size_t j = 0; j < c1.cocycles[k].size(); ++j) {
+            CHECK(c2.cocycles[k][j].vertices == c1.cocycles[k][j].vertices);
+            CHECK(c2.cocycles[k][j].coefficients == c1.cocycles[k][j].coefficients);
+          }
+        }
+      }
       lacuna::implicit_rips_options o3{.max_dimension = D, .zero_persistence = zero};
       const auto one3 = lacuna::implicit_rips_persistence<lacuna::mod_p<3>>(m, o3);
       o3.threads = 2;
