@@ -21,6 +21,7 @@
 
 #include <lacuna/algorithm/field_ranks.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/complex/construct/graph_complexes.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/ring/mod_p.hpp>
@@ -28,7 +29,6 @@
 
 #include <benchmark/benchmark.h>
 
-#include <functional>
 #include <numeric>
 #include <string>
 #include <vector>
@@ -37,58 +37,9 @@ namespace {
 
 using complex_t = lacuna::simplicial_complex<int>;
 
-/// Matching complex of K_n: vertices are the edges {a, b} of K_n (labelled a * n + b), facets
-/// the maximal matchings (those with floor(n / 2) edges).
-complex_t matching_complex(int n) {
-  std::vector<std::vector<int>> facets;
-  std::vector<int> current;
-  std::vector<bool> used(static_cast<std::size_t>(n), false);
-  std::function<void(bool)> go = [&](bool skipped) {
-    int a = 0;
-    while (a < n && used[static_cast<std::size_t>(a)]) ++a;
-    if (a == n) {
-      facets.push_back(current);
-      return;
-    }
-    used[static_cast<std::size_t>(a)] = true;
-    for (int b = a + 1; b < n; ++b) {
-      if (used[static_cast<std::size_t>(b)]) continue;
-      used[static_cast<std::size_t>(b)] = true;
-      current.push_back(a * n + b);
-      go(skipped);
-      current.pop_back();
-      used[static_cast<std::size_t>(b)] = false;
-    }
-    if (n % 2 == 1 && !skipped) go(true);  // a left unmatched (once, for odd n)
-    used[static_cast<std::size_t>(a)] = false;
-  };
-  go(false);
-  return complex_t::from_facets(facets);
-}
-
-/// Chessboard complex m x n (m <= n): vertices are the squares (r * n + c), facets the
-/// placements of m non-attacking rooks.
-complex_t chessboard_complex(int m, int n) {
-  std::vector<std::vector<int>> facets;
-  std::vector<int> current;
-  std::vector<bool> col(static_cast<std::size_t>(n), false);
-  std::function<void(int)> go = [&](int r) {
-    if (r == m) {
-      facets.push_back(current);
-      return;
-    }
-    for (int c = 0; c < n; ++c) {
-      if (col[static_cast<std::size_t>(c)]) continue;
-      col[static_cast<std::size_t>(c)] = true;
-      current.push_back(r * n + c);
-      go(r + 1);
-      current.pop_back();
-      col[static_cast<std::size_t>(c)] = false;
-    }
-  };
-  go(0);
-  return complex_t::from_facets(facets);
-}
+// matching_complex and chessboard_complex: the library's (complex/construct/graph_complexes.hpp)
+using lacuna::chessboard_complex;
+using lacuna::matching_complex;
 
 template <class C>
 double cell_total(const C& c) {
