@@ -291,6 +291,22 @@ elimination_log<R> convert_log(elimination_log<W>&& log) {
   }
 }
 
+/// The ∂∂ = 0 precondition on the built complex (chain/boundary_squared.hpp): throws
+/// invalid_complex naming the first cell whose boundary's boundary (coboundary's coboundary,
+/// on a dual build) is not zero.
+template <class W, cell_complex C>
+void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
+  if (const auto bad = first_nonzero_boundary_squared(rc)) {
+    const int k = rc.dimension_of_level(bad->first);
+    const std::size_t i = rc.original_index(bad->first, bad->second);
+    throw invalid_complex(std::string(rc.is_dual() ? "lacuna: the coboundary of the coboundary of "
+                                                   : "lacuna: the boundary of the boundary of ") +
+                              std::to_string(k) + "-cell " + std::to_string(i) + " ('" + lacuna::cell_name(c, k, i) +
+                              "') is not zero: not a chain complex (lacuna::validate names every fault)",
+                          k, i);
+  }
+}
+
 /// The whole computation at one working coefficient type W.
 template <class R, class W, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
@@ -304,16 +320,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     rc = reducible_complex<W>::build(c, build, unit);
   else
     rc = reducible_complex<W>::build(c, build);
-  // Precondition, checked: the boundary of a boundary is zero (chain/boundary_squared.hpp).
-  if (const auto bad = first_nonzero_boundary_squared(rc)) {
-    const int k = rc.dimension_of_level(bad->first);
-    const std::size_t i = rc.original_index(bad->first, bad->second);
-    throw invalid_complex(std::string(rc.is_dual() ? "lacuna: the coboundary of the coboundary of "
-                                                   : "lacuna: the boundary of the boundary of ") +
-                              std::to_string(k) + "-cell " + std::to_string(i) + " ('" + lacuna::cell_name(c, k, i) +
-                              "') is not zero: not a chain complex (lacuna::validate names every fault)",
-                          k, i);
-  }
+  require_boundary_squared_zero(rc, c);  // precondition, checked
   control->report("building the chain complex", 1, 1);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
@@ -682,19 +689,6 @@ std::optional<homology_result<R>> duality_homology(const C& c, const homology_op
       res.groups.push_back(std::move(g));
     }
     return res;
-  }
-}
-
-/// The ∂∂ = 0 precondition on the built complex, as compute_levels checks it.
-template <class W, cell_complex C>
-void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
-  if (const auto bad = first_nonzero_boundary_squared(rc)) {
-    const int k = rc.dimension_of_level(bad->first);
-    const std::size_t i = rc.original_index(bad->first, bad->second);
-    throw invalid_complex("lacuna: the boundary of the boundary of " + std::to_string(k) + "-cell " +
-                              std::to_string(i) + " ('" + lacuna::cell_name(c, k, i) +
-                              "') is not zero: not a chain complex (lacuna::validate names every fault)",
-                          k, i);
   }
 }
 
