@@ -217,6 +217,17 @@ TEST_CASE("sparse distances of the pairs within a threshold equal the dense rout
         const auto d = lacuna::implicit_rips_persistence(dense, {.max_dimension = D, .threshold = t, .zero_persistence = zero});
         CHECK(pairs_of(lacuna::implicit_rips_persistence(sparse, {.max_dimension = D, .threshold = inf, .zero_persistence = zero})) ==
               pairs_of(d));
+        // the representative cocycles too, term for term
+        const auto cd = lacuna::implicit_rips_persistence_with_cocycles(dense, {.max_dimension = D, .threshold = t, .zero_persistence = zero});
+        const auto cs = lacuna::implicit_rips_persistence_with_cocycles(sparse, {.max_dimension = D, .threshold = inf, .zero_persistence = zero});
+        REQUIRE(cs.cocycles.size() == cd.cocycles.size());
+        for (std::size_t k = 0; k < cd.cocycles.size(); ++k) {
+          REQUIRE(cs.cocycles[k].size() == cd.cocycles[k].size());
+          for (std::size_t j = 0; j < cd.cocycles[k].size(); ++j) {
+            CHECK(cs.cocycles[k][j].vertices == cd.cocycles[k][j].vertices);
+            CHECK(cs.cocycles[k][j].coefficients == cd.cocycles[k][j].coefficients);
+          }
+        }
         // no threshold given: the sparse enclosing radius (infinite unless a point is linked to all)
         CHECK(pairs_of(lacuna::implicit_rips_persistence(sparse, {.max_dimension = D, .zero_persistence = zero})) ==
               pairs_of(lacuna::implicit_rips_persistence(sparse, {.max_dimension = D, .threshold = sparse.enclosing_radius(),

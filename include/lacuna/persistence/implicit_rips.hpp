@@ -1010,11 +1010,9 @@ class implicit_rips_engine {
       const auto& d0 = out.diagrams[0].pairs;
       auto& z0 = cocycles_[0];
       z0.assign(d0.size(), {});
-      std::vector<rips_simplex> edges;
-      for (std::size_t a = 1; a < n_; ++a)
-        for (std::size_t b = 0; b < a; ++b)
-          if (const double d = m_.distance(a, b); d <= threshold_) edges.push_back({d, numbering_.binomial(a, 2) + b});
-      std::sort(edges.begin(), edges.end(), rips_before);
+      // every edge within the threshold, in filtration order (also for a sparse metric, and
+      // also after Prim's route, which lists only the spanning forest)
+      const std::vector<rips_simplex> edges = this->edges();
       std::unordered_map<std::uint64_t, std::size_t> killed_by;  // death edge -> pair
       for (std::size_t j = 0; j < d0.size(); ++j)
         if (!d0[j].essential()) killed_by.emplace(d0[j].death_cell, j);
