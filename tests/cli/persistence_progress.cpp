@@ -26,19 +26,6 @@ std::string cube_cloud(std::size_t n, std::uint64_t seed) {
   return s;
 }
 
-std::string drain(int master) {
-  std::string out;
-  char buf[4096];
-  for (;;) {
-    pollfd p{master, POLLIN, 0};
-    if (::poll(&p, 1, 200) <= 0) break;
-    const ssize_t n = ::read(master, buf, sizeof buf);
-    if (n <= 0) break;
-    out.append(buf, static_cast<std::size_t>(n));
-  }
-  return out;
-}
-
 }  // namespace
 
 TEST_CASE("persistence: SIGINT and SIGTERM end a long Vietoris-Rips run with status 130 and no result") {
@@ -75,7 +62,7 @@ TEST_CASE("persistence: a progress line on a terminal unless --quiet, and stdout
     const auto r = run(args, slave);
     const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     ::close(slave);
-    const std::string term = drain(master);
+    const std::string term = drain_terminal(master);
     ::close(master);
     CHECK(r.status == 0);
     CHECK(r.out == plain.out);

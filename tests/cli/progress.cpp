@@ -27,20 +27,6 @@ std::string busy_image(std::size_t n) {
   return s;
 }
 
-/// Everything the tool wrote to the terminal (read from the master side after it exits).
-std::string drain(int master) {
-  std::string out;
-  char buf[4096];
-  for (;;) {
-    pollfd p{master, POLLIN, 0};
-    if (::poll(&p, 1, 200) <= 0) break;
-    const ssize_t n = ::read(master, buf, sizeof buf);
-    if (n <= 0) break;
-    out.append(buf, static_cast<std::size_t>(n));
-  }
-  return out;
-}
-
 }  // namespace
 
 TEST_CASE("stderr not a terminal: nothing on stderr, with or without --quiet") {
@@ -84,7 +70,7 @@ TEST_CASE("stderr a terminal: progress unless --quiet, and stdout untouched") {
     const auto r = run(args, slave);
     const double s = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     ::close(slave);
-    const std::string term = drain(master);
+    const std::string term = drain_terminal(master);
     ::close(master);
     CHECK(r.status == 0);
     CHECK(r.out == plain.out);  // progress never reaches stdout

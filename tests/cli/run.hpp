@@ -145,6 +145,20 @@ inline result run_program(const std::string& program, const std::vector<std::str
   return r;
 }
 
+/// Everything a tool wrote to a pseudo-terminal, read from its master side after it exited.
+inline std::string drain_terminal(int master) {
+  std::string out;
+  char buf[4096];
+  for (;;) {
+    pollfd p{master, POLLIN, 0};
+    if (::poll(&p, 1, 200) <= 0) break;
+    const ssize_t n = ::read(master, buf, sizeof buf);
+    if (n <= 0) break;
+    out.append(buf, static_cast<std::size_t>(n));
+  }
+  return out;
+}
+
 /// A fresh directory under the system's temporary directory, removed with its contents.
 class temp_dir {
  public:

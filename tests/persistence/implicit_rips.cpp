@@ -14,6 +14,7 @@
 //   - the combinatorial number system (Knuth, TAOCP 4A, 7.2.1.3, from memory): the k-subsets in
 //     colexicographic order get the numbers 0, 1, 2, ... in turn.
 #include "circle_rips_theorem.hpp"
+#include "random_clouds.hpp"
 
 #include <lacuna/persistence/implicit_rips.hpp>
 #include <lacuna/persistence/persistence.hpp>
@@ -53,15 +54,7 @@ bars values_of(const Result& r, int D) {
   return out;
 }
 
-/// Random points: `n` points of R^dim, uniform in [0, 1)^dim, or on the integer grid
-/// {0..3}^dim when `grid` (many equal distances).
-std::vector<double> random_cloud(std::mt19937_64& rng, std::size_t n, std::size_t dim, bool grid) {
-  std::uniform_real_distribution<double> u(0.0, 1.0);
-  std::uniform_int_distribution<int> g(0, 3);
-  std::vector<double> c(n * dim);
-  for (auto& x : c) x = grid ? g(rng) : u(rng);
-  return c;
-}
+using persistence_test_support::random_cloud;
 
 /// The explicit route: lacuna::persistence of rips_filtration, diagrams 0..D.
 template <class R>

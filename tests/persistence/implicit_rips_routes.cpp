@@ -15,6 +15,8 @@
 //     on a different numbering), and against the dense implicit route on the pairs within a
 //     threshold;
 //   - the refusals of from_links.
+#include "random_clouds.hpp"
+
 #include <lacuna/persistence/implicit_rips.hpp>
 #include <lacuna/persistence/persistence.hpp>
 #include <lacuna/persistence/rips_filtration.hpp>
@@ -69,13 +71,21 @@ std::vector<std::vector<std::pair<double, std::optional<double>>>> values_of(con
   return out;
 }
 
-std::vector<double> cloud(std::mt19937_64& rng, std::size_t n, std::size_t dim, bool grid) {
-  std::uniform_real_distribution<double> u(0.0, 1.0);
-  std::uniform_int_distribution<int> g(0, 3);
-  std::vector<double> c(n * dim);
-  for (auto& x : c) x = grid ? g(rng) : u(rng);
-  return c;
+using persistence_test_support::random_cloud;
+
+/// The cocycles of two results with cocycles are the same, term for term.
+template <class A, class B>
+void check_same_cocycles(const A& a, const B& b) {
+  REQUIRE(a.cocycles.size() == b.cocycles.size());
+  for (std::size_t k = 0; k < a.cocycles.size(); ++k) {
+    REQUIRE(a.cocycles[k].size() == b.cocycles[k].size());
+    for (std::size_t j = 0; j < a.cocycles[k].size(); ++j) {
+      CHECK(a.cocycles[k][j].vertices == b.cocycles[k][j].vertices);
+      CHECK(a.cocycles[k][j].coefficients == b.cocycles[k][j].coefficients);
+    }
+  }
 }
+
 
 TEST_CASE("two and three threads give the result of one, cell for cell") {
   std::mt19937_64 rng(41);
@@ -84,7 +94,7 @@ TEST_CASE("two and three threads give the result of one, cell for cell") {
     const std::size_t n = round < 4 ? 40 : 400;
     const int D = round < 4 ? 2 : 1;
     CAPTURE(round);
-    const auto c = cloud(rng, n, 3, grid);
+    const auto c = random_cloud(rng, n, 3, grid);
     const auto m = lacuna::rips_metric::from_points(c, 3);
     for (const bool zero : {false, true}) {
       lacuna::implicit_rips_options o{.max_dimension = D, .zero_persistence = zero};
@@ -100,14 +110,7 @@ TEST_CASE("two and three threads give the result of one, cell for cell") {
         o.threads = 2;
         const auto c2 = lacuna::implicit_rips_persistence_with_cocycles(m, o);
         CHECK(pairs_of(c2.persistence) == pairs_of(c1.persistence));
-        REQUIRE(c2.cocycles.size() == c1.cocycles.size());
-        for (std::size_t k = 0; k < c1.cocycles.size(); ++k) {
-          REQUIRE(c2.cocycles[k].size() == c1.cocycles[k].size());
-          for (std::size_t j = 0; j < c1.cocycles[k].size(); ++j) {
-            CHECK(c2.cocycles[k][j].vertices == c1.cocycles[k][j].vertices);
-            CHECK(c2.cocycles[k][j].coefficients == c1.cocycles[k][j].coefficients);
-          }
-        }
+        check_same_cocycles(c2, c1);
       }
       lacuna::implicit_rips_options o3{.max_dimension = D, .zero_persistence = zero};
       const auto one3 = lacuna::implicit_rips_persistence<lacuna::mod_p<3>>(m, o3);
@@ -123,7 +126,7 @@ TEST_CASE("diagram 0 alone (Prim's forest) equals diagram 0 of a higher run (Kru
     const bool grid = round % 2 == 1;
     const std::size_t n = 2 + static_cast<std::size_t>(round) * 17;
     CAPTURE(round);
-    const auto c = cloud(rng, n, 2, grid);
+    const auto c = random_cloud(rng, n, 2, grid);
     const auto m = lacuna::rips_metric::from_points(c, 2);
     // no threshold (a tree), and a low one (a forest with several trees)
     for (const std::optional<double> t : {std::optional<double>{}, std::optional<double>{grid ? 1.0 : 0.15}}) {
@@ -195,7 +198,7 @@ TEST_CASE("sparse distances of the pairs within a threshold equal the dense rout
     const bool grid = round % 2 == 1;
     const std::size_t n = 30 + static_cast<std::size_t>(round) * 5;
     CAPTURE(round);
-    const auto c = cloud(rng, n, 3, grid);
+    const auto c = random_cloud(rng, n, 3, grid);
     const auto dense = lacuna::rips_metric::from_points(c, 3);
     const double t = dense.enclosing_radius() * 0.7;
     std::vector<lacuna::rips_metric::link> links;
@@ -220,14 +223,7 @@ TEST_CASE("sparse distances of the pairs within a threshold equal the dense rout
         // the representative cocycles too, term for term
         const auto cd = lacuna::implicit_rips_persistence_with_cocycles(dense, {.max_dimension = D, .threshold = t, .zero_persistence = zero});
         const auto cs = lacuna::implicit_rips_persistence_with_cocycles(sparse, {.max_dimension = D, .threshold = inf, .zero_persistence = zero});
-        REQUIRE(cs.cocycles.size() == cd.cocycles.size());
-        for (std::size_t k = 0; k < cd.cocycles.size(); ++k) {
-          REQUIRE(cs.cocycles[k].size() == cd.cocycles[k].size());
-          for (std::size_t j = 0; j < cd.cocycles[k].size(); ++j) {
-            CHECK(cs.cocycles[k][j].vertices == cd.cocycles[k][j].vertices);
-            CHECK(cs.cocycles[k][j].coefficients == cd.cocycles[k][j].coefficients);
-          }
-        }
+        check_same_cocycles(cs, cd);
         // no threshold given: the sparse enclosing radius (infinite unless a point is linked to all)
         CHECK(pairs_of(lacuna::implicit_rips_persistence(sparse, {.max_dimension = D, .zero_persistence = zero})) ==
               pairs_of(lacuna::implicit_rips_persistence(sparse, {.max_dimension = D, .threshold = sparse.enclosing_radius(),

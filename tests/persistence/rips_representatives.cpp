@@ -22,6 +22,8 @@
 // cochain with a non-zero value on a cycle is not a coboundary.
 #include "circle_rips_theorem.hpp"
 
+#include "random_clouds.hpp"
+
 #include <lacuna/persistence/implicit_rips.hpp>
 #include <lacuna/ring/mod_p.hpp>
 #include <lacuna/ring/rational.hpp>
@@ -250,13 +252,7 @@ std::size_t check_cocycles(const lacuna::rips_metric& m, const lacuna::implicit_
   return checked;
 }
 
-std::vector<double> random_cloud(std::mt19937_64& rng, std::size_t n, std::size_t dim, bool grid) {
-  std::uniform_real_distribution<double> u(0.0, 1.0);
-  std::uniform_int_distribution<int> g(0, 3);
-  std::vector<double> c(n * dim);
-  for (auto& x : c) x = grid ? g(rng) : u(rng);
-  return c;
-}
+using persistence_test_support::random_cloud;
 
 template <class R>
 std::size_t check_cloud(const lacuna::rips_metric& m, int D, std::optional<double> threshold, bool zero_persistence) {
