@@ -1,0 +1,170 @@
+// lacuna/homology/certify.hpp — homology with a certificate (homology/certificate.hpp) that a
+// checker written apart from the engine verifies; docs/certificates.md says what it proves.
+//
+// How each witness is obtained (the engine's elimination route, homology/homology.hpp):
+//   * generators and their bounding chains: homology() with generators and
+//     homology_options::witnesses — on the core left by the unit-pivot elimination,
+//     D_{k+1} V'[:, i] = e_i·(generator i) (the second Smith form's column transform), and
+//     both are lifted to the original cells by the same chain map;
+//   * cocycles: coordinate j of the engine's coordinates() is a linear form on k-chains —
+//     the push f of the elimination log (a chain map), then rows of U_M·V⁻¹ on the core. As a
+//     cochain it is the row of U_M V⁻¹ pulled back through the log (pull_cochains, the
+//     transpose of the push). It vanishes on boundaries, since coordinates of boundaries
+//     vanish (modulo d for a torsion coordinate), and it is 1 on generator j and 0 on the
+//     others (modulo d) because f∘g is the identity. These facts are what the checker
+//     verifies; nothing of this derivation is trusted;
+//   * rank witnesses: the boundary matrices of the complex reduced modulo a prime
+//     (reduce_chain_complex, algorithm/field_reduction.hpp): the pivot rows and columns of a
+//     column reduction have a non-singular minor (the reduced pivot columns are the original
+//     ones times a unitriangular matrix, and with distinct lows they are triangular). Over the
+//     integers and Q the prime 2^31 − 1 first, then the next primes below it until the ranks
+//     mod p account for the free ranks (they do unless p divides a torsion order); over
+//     Z/p, p itself.
+// Cost: that of homology() with generators and a kept basis, plus the pull of one cochain per
+// generator through the log (as the lift of the generators), plus a product of the kept core
+// transforms, plus one field reduction of the whole complex (as homology over Z/p).
+#pragma once
+
+#include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/field_reduction.hpp>
+#include <lacuna/chain/sparse_matrix.hpp>
+#include <lacuna/homology/certificate.hpp>
+#include <lacuna/homology/homology.hpp>
+#include <lacuna/ring/integer.hpp>
+#include <lacuna/ring/mod_p.hpp>
+#include <lacuna/ring/primality.hpp>
+#include <lacuna/ring/rational.hpp>
+
+#include <concepts>
+#include <cstdint>
+#include <stdexcept>
+#include <vector>
+
+namespace lacuna {
+
+/// The rings certified_homology works over: the integers, Q, and fields of a characteristic
+/// below 2^32 fixed at compile time (z2, mod_p<P>).
+template <class R>
+concept certifiable_ring = euclidean_domain<R> && (std::same_as<R, integer> || std::same_as<R, rational> ||
+                                                   (characteristic_v<R> != 0 && characteristic_v<R> < (std::uint64_t{1} << 32)));
+
+/// A homology result with generators and the certificate of its groups.
+template <class R>
+struct certified_homology_result {
+  homology_result<R> result;
+  homology_certificate<R> certificate;
+};
+
+namespace detail::certify {
+
+/// Rank witnesses of every ∂_k of c modulo p, or an empty vector when the ranks mod p do not
+/// account for the free ranks claimed in `rank` (p divides a torsion order).
+template <cell_complex C>
+std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std::vector<std::size_t>& rank,
+                                         const run_control* control) {
+  const int top = lacuna::top_dimension(c);
+  const mod_p_dynamic u(1, p);
+  std::vector<sparse_matrix<mod_p_dynamic>> mats;
+  for (int k = 1; k <= top; ++k) mats.push_back(boundary_matrix<mod_p_dynamic>(c, k, u));
+  const auto red = reduce_chain_complex(mats, {.control = control, .phase = "rank witnesses modulo a prime"});
+  std::vector<rank_witness> out(static_cast<std::size_t>(top) + 1);
+  for (int k = 1; k <= top; ++k) {
+    auto& w = out[static_cast<std::size_t>(k)];
+    w.prime = p;
+    for (const auto& pv : red[static_cast<std::size_t>(k) - 1].pivots) {
+      w.rows.push_back(pv.row);
+      w.columns.push_back(pv.column);
+    }
+  }
+  for (int k = 0; k <= top; ++k) {
+    const std::size_t a = out[static_cast<std::size_t>(k)].rows.size();
+    const std::size_t b = k < top ? out[static_cast<std::size_t>(k) + 1].rows.size() : 0;
+    if (lacuna::cell_count(c, k) - a - b != rank[static_cast<std::size_t>(k)]) return {};
+  }
+  return out;
+}
+
+}  // namespace detail::certify
+
+/// The homology of c over R with generators, and a certificate of it: for every group, its
+/// generators, a cocycle per generator (identity pairing), a bounding chain per torsion
+/// generator, and rank witnesses of the boundary maps (homology/certificate.hpp). R models
+/// certifiable_ring; C models cell_complex. options: as for homology(); generators, a kept
+/// basis and witnesses are switched on; reduced homology is refused (std::invalid_argument).
+/// The result is what homology() with those options returns (the elimination route, without
+/// a Morse pre-reduction). check_certificate(c, r.certificate) verifies the certificate.
+template <certifiable_ring R, cell_complex C>
+certified_homology_result<R> certified_homology(const C& c, homology_options options = {}) {
+  if (options.reduced) throw std::invalid_argument("lacuna::certified_homology: reduced homology is not certified");
+  options.generators = true;
+  options.keep_basis = true;
+  options.witnesses = true;
+  certified_homology_result<R> out;
+  out.result = homology<R>(c, options, sparse_elimination{});
+  const auto& h = out.result;
+  if (!h.basis_ || h.project_) throw std::logic_error("lacuna::certified_homology: the engine kept no elimination basis");
+  const auto& basis = *h.basis_;
+  const int top = lacuna::top_dimension(c);
+  auto& cert = out.certificate;
+  for (int k = 0; k <= top; ++k) {
+    const auto& g = h[k];
+    certified_group<R> cg;
+    cg.dimension = k;
+    cg.rank = g.rank;
+    cg.torsion = g.torsion;
+    cg.generators = g.generators;
+    cg.bounding_chains = g.bounding_chains;
+    const std::size_t L = static_cast<std::size_t>(k);  // absolute homology: level = dimension
+    const auto& b = basis.levels[L];
+    if (!basis.from_original[L].empty()) throw std::logic_error("lacuna::certified_homology: cells were excluded");
+    // The coordinate forms on the level, in the order of the generators (coordinates_on_levels).
+    const std::size_t n = b.core.size(), kdim = n - b.r;
+    std::vector<level_chain<R>> forms;
+    for (std::uint32_t cell : b.isolated) forms.push_back({{cell, one<R>()}});
+    auto row = [&](std::size_t i) {  // row i of U_M · V_inv[r.., :], on the core cells
+      level_chain<R> f;
+      std::vector<R> v(n, zero<R>());
+      for (std::size_t t = 0; t < kdim; ++t) {
+        const R& u = b.U_M(i, t);
+        if (u == zero<R>()) continue;
+        for (std::size_t j = 0; j < n; ++j)
+          if (!(b.V_inv(b.r + t, j) == zero<R>())) v[j] += u * b.V_inv(b.r + t, j);
+      }
+      for (std::size_t j = 0; j < n; ++j)
+        if (!(v[j] == zero<R>())) f.push_back({b.core[j], v[j]});
+      return f;
+    };
+    std::vector<R> moduli(b.isolated.size(), zero<R>());
+    for (std::size_t i = b.factors.size(); i < kdim; ++i) forms.push_back(row(i)), moduli.push_back(zero<R>());
+    for (std::size_t i = 0; i < b.factors.size(); ++i)
+      if (!detail::ring_is_unit(b.factors[i])) forms.push_back(row(i)), moduli.push_back(b.factors[i]);
+    auto pulled = pull_cochains(basis.log, static_cast<int>(L), basis.level_sizes[L], forms, &options.control);
+    for (std::size_t j = 0; j < pulled.size(); ++j) {
+      chain<R> phi{k, {}};
+      for (const auto& e : pulled[j]) {
+        R v = moduli[j] == zero<R>() ? e.value : detail::canonical_residue(e.value, moduli[j]);
+        if (!(v == zero<R>())) phi.terms.push_back({e.index, std::move(v)});
+      }
+      cg.cocycles.push_back(std::move(phi));
+    }
+    cert.groups.push_back(std::move(cg));
+  }
+  // Rank witnesses.
+  std::vector<std::size_t> ranks;
+  for (const auto& g : h.groups) ranks.push_back(g.rank);
+  if constexpr (characteristic_v<R> != 0) {
+    cert.ranks = detail::certify::rank_witnesses(c, characteristic_v<R>, ranks, &options.control);
+  } else {
+    std::uint64_t p = (std::uint64_t{1} << 31) - 1;
+    for (int tries = 0; tries < 16 && cert.ranks.empty(); ++tries, --p) {
+      while (!is_prime(p)) --p;
+      cert.ranks = detail::certify::rank_witnesses(c, p, ranks, &options.control);
+    }
+  }
+  if (cert.ranks.empty() && top >= 0)
+    throw std::logic_error("lacuna::certified_homology: no prime tried gives ranks that account for the free ranks");
+  if (top < 0) cert.ranks.clear();
+  return out;
+}
+
+}  // namespace lacuna
