@@ -5,6 +5,10 @@
 // the group (and the generator or torsion factor) that is wrong.
 #include "homology/support.hpp"
 
+#include "cubical/volume_support.hpp"
+
+#include <lacuna/complex/construct/product.hpp>
+#include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/homology/certificate.hpp>
 #include <lacuna/homology/certify.hpp>
 #include <lacuna/ring/mod_p.hpp>
@@ -54,6 +58,38 @@ cell_list torsion_mix() {
   c.add_cell(2, "C", {{2, 4}});
   c.add_cell(2, "D", {{3, 12}});
   return c;
+}
+
+/// A circle of n vertices and n edges.
+cell_list polygon(std::size_t n) {
+  cell_list c;
+  for (std::size_t i = 0; i < n; ++i) c.add_cell(0, "v" + std::to_string(i));
+  for (std::size_t i = 0; i < n; ++i) c.add_cell(1, "e" + std::to_string(i), {{(i + 1) % n, 1}, {i, -1}});
+  return c;
+}
+
+/// A 2-cell attached by degree `order` (a decimal of any size) to a loop: H_1 = Z/order.
+cell_list moore_space(const std::string& order) {
+  cell_list c;
+  c.add_cell(0, "v");
+  c.add_cell(1, "e", {{0, 1}, {0, -1}});
+  c.add_cell(2, "d", std::vector<lacuna::exact_incidence>{{0, integer(lacuna::integer::big_type(order))}});
+  return c;
+}
+
+/// Loops a, b, c at one vertex and 2-cells along 2^70·a and 2^71·b: H_1 = Z + Z/2^70 + Z/2^71.
+cell_list big_torsion_mix() {
+  cell_list c;
+  c.add_cell(0, "v");
+  for (const char* e : {"a", "b", "c"}) c.add_cell(1, e, {{0, 1}, {0, -1}});
+  c.add_cell(2, "A", std::vector<lacuna::exact_incidence>{{0, integer(lacuna::integer::big_type("1180591620717411303424"))}});
+  c.add_cell(2, "B", std::vector<lacuna::exact_incidence>{{1, integer(lacuna::integer::big_type("2361183241434822606848"))}});
+  return c;
+}
+
+/// A binary volume as a cubical complex.
+lacuna::cubical_complex<3> cubical(const lacuna_volumes::volume& v) {
+  return lacuna::cubical_complex<3>::from_bytes(v.extents, v.voxels);
 }
 
 TEST_CASE("certificates of textbook spaces over Z check valid and give the textbook groups") {
@@ -200,10 +236,8 @@ int mutations_rejected(const C& c) {
                     auto& g = x.groups[f];
                     if (lacuna::cell_count(c, f + 1) == 0) return false;
                     lacuna::chain<integer> b{f, {}};
-                    for (auto&& v : lacuna::boundary(c, f + 1, 0)) {
-                      const auto inc = lacuna::as_incidence(v);
-                      b.terms.push_back({inc.face, integer(inc.coefficient)});
-                    }
+                    for (auto&& v : lacuna::boundary(c, f + 1, 0))
+                      b.terms.push_back({lacuna::incidence_face(v), lacuna::coefficient_as_integer(v)});
                     b.normalize_terms();
                     if (b.is_zero()) return false;
                     g.generators[0] = b;
@@ -237,6 +271,25 @@ int mutations_rejected(const C& c) {
   return applied;
 }
 
+TEST_CASE("certificates of larger complexes, big torsion and volumes check valid") {
+  // RP^2 × S^1 with 2170 cells (the six-vertex RP^2 times a 35-gon): Künneth (Hatcher 2002,
+  // Theorem 3B.6, from memory) gives Z, Z + Z/2, Z/2, 0.
+  const auto x = lacuna::product(six_vertex_rp2(), polygon(35));
+  REQUIRE(lacuna::total_cell_count(x) == 2170);
+  CHECK(certified<integer>(x) == std::vector<group>{{1, {}}, {1, {"2"}}, {0, {"2"}}, {0, {}}});
+  // Torsion beyond 2^64: H_1 = Z/(2^70 + 1), and Z + Z/2^70 + Z/2^71 (the cellular chain complex).
+  CHECK(certified<integer>(moore_space("1180591620717411303425")) ==
+        std::vector<group>{{1, {}}, {0, {"1180591620717411303425"}}, {0, {}}});
+  CHECK(certified<integer>(big_torsion_mix()) ==
+        std::vector<group>{{1, {}}, {1, {"1180591620717411303424", "2361183241434822606848"}}, {0, {}}});
+  // Volumes: Betti numbers from the independent count of volume_support.hpp (connected
+  // components and Alexander duality).
+  for (const auto& v : {lacuna_volumes::porous_volume(24, 2.0, 3), lacuna_volumes::coin_flip_volume(14, 0.5, 5)}) {
+    const auto d = lacuna_volumes::duality_betti(v);
+    CHECK(certified<integer>(cubical(v)) == std::vector<group>{{d.b0, {}}, {d.b1, {}}, {d.b2, {}}, {0, {}}});
+  }
+}
+
 TEST_CASE("mutations of certificates are rejected, naming the group and factor") {
   CHECK(mutations_rejected(cell_list::projective_plane()) >= 5);
   CHECK(mutations_rejected(cell_list::klein_bottle()) >= 8);
@@ -244,6 +297,12 @@ TEST_CASE("mutations of certificates are rejected, naming the group and factor")
   CHECK(mutations_rejected(seven_vertex_torus()) >= 5);
   CHECK(mutations_rejected(torsion_mix()) >= 10);
   CHECK(mutations_rejected(cell_list::real_projective_space(5)) >= 5);
+  // The size at which the coordinates-based check accepted Z/4 for Z/2.
+  CHECK(mutations_rejected(lacuna::product(six_vertex_rp2(), polygon(35))) >= 10);
+  CHECK(mutations_rejected(moore_space("1180591620717411303425")) >= 5);
+  CHECK(mutations_rejected(big_torsion_mix()) >= 10);
+  CHECK(mutations_rejected(cubical(lacuna_volumes::porous_volume(24, 2.0, 3))) >= 5);
+  CHECK(mutations_rejected(cubical(lacuna_volumes::coin_flip_volume(14, 0.5, 5))) >= 5);
 }
 
 }  // namespace certificate_certificate_test

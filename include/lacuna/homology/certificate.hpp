@@ -36,6 +36,7 @@
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
+#include <lacuna/ring/integer.hpp>
 
 #include <algorithm>
 #include <cstddef>
@@ -126,6 +127,31 @@ inline bool small_prime(std::uint64_t p) {
   return true;
 }
 
+/// One incidence of the complex as (face, value in R), exact whatever its size.
+template <class R, class V>
+std::pair<std::size_t, R> term_of(const V& v) {
+  if constexpr (small_incidence_like<std::remove_cvref_t<V>>) {
+    const incidence f = as_incidence(v);
+    return {f.face, from_integer<R>(f.coefficient)};
+  } else {
+    return {incidence_face(v), coefficient_in<R>(coefficient_as_integer(v), one<R>())};
+  }
+}
+
+/// An incidence modulo p < 2^32, as a residue in [0, p).
+template <class V>
+std::pair<std::size_t, std::uint64_t> residue_of(const V& v, std::uint64_t p) {
+  if constexpr (small_incidence_like<std::remove_cvref_t<V>>) {
+    const incidence f = as_incidence(v);
+    const std::int64_t m = f.coefficient % static_cast<std::int64_t>(p);
+    return {f.face, static_cast<std::uint64_t>(m < 0 ? m + static_cast<std::int64_t>(p) : m)};
+  } else {
+    integer m = div_rem(coefficient_as_integer(v), integer(static_cast<std::int64_t>(p))).remainder;
+    if (m.sign() < 0) m += integer(static_cast<std::int64_t>(p));
+    return {incidence_face(v), static_cast<std::uint64_t>(m.small_value())};
+  }
+}
+
 /// The boundary of a chain of k-cells, summed from lacuna::boundary of the complex.
 template <class R, cell_complex C>
 std::unordered_map<std::size_t, R> boundary_of(const C& c, const chain<R>& z) {
@@ -134,9 +160,9 @@ std::unordered_map<std::size_t, R> boundary_of(const C& c, const chain<R>& z) {
   if (k == 0) return out;
   for (const auto& t : z.terms)
     for (auto&& v : lacuna::boundary(c, k, t.cell)) {
-      const incidence f = as_incidence(v);
-      auto [it, fresh] = out.try_emplace(f.face, zero<R>());
-      it->second += from_integer<R>(f.coefficient) * t.coefficient;
+      const auto [face, e] = term_of<R>(v);
+      auto [it, fresh] = out.try_emplace(face, zero<R>());
+      it->second += e * t.coefficient;
     }
   return out;
 }
@@ -163,11 +189,9 @@ bool minor_nonsingular(const C& c, int k, const rank_witness& w, std::string& wh
   for (std::size_t j = 0; j < n; ++j) {
     col.clear();
     for (auto&& v : lacuna::boundary(c, k, w.columns[j])) {
-      const incidence f = as_incidence(v);
-      auto it = row_pos.find(f.face);
-      if (it == row_pos.end()) continue;
-      const std::int64_t m = f.coefficient % static_cast<std::int64_t>(p);
-      col.push_back({it->second, static_cast<std::uint64_t>(m < 0 ? m + static_cast<std::int64_t>(p) : m)});
+      const auto [face, m] = residue_of(v, p);
+      auto it = row_pos.find(face);
+      if (it != row_pos.end()) col.push_back({it->second, m});
     }
     std::sort(col.begin(), col.end());
     std::size_t o = 0;  // add up repeated rows, drop zeros
@@ -333,10 +357,9 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
       for (std::size_t s = 0; s < nk1 && rep.ok; ++s) {
         acc.clear();
         for (auto&& v : lacuna::boundary(c, k + 1, s)) {
-          const incidence f = as_incidence(v);
-          auto it = phi_at.find(f.face);
+          const auto [face, e] = detail::cert::term_of<R>(v);
+          auto it = phi_at.find(face);
           if (it == phi_at.end()) continue;
-          const R e = from_integer<R>(f.coefficient);
           for (const auto& [j, val] : it->second) {
             auto [a, fresh] = acc.try_emplace(j, zero<R>());
             a->second += e * val;
