@@ -305,4 +305,20 @@ TEST_CASE("mutations of certificates are rejected, naming the group and factor")
   CHECK(mutations_rejected(cubical(lacuna_volumes::coin_flip_volume(14, 0.5, 5))) >= 5);
 }
 
+TEST_CASE("a certificate is refused for a complex whose boundary of a boundary is not zero") {
+  const auto good = lacuna::certified_homology<integer>(cell_list::projective_plane()).certificate;
+  cell_list bad;  // RP^2 with ∂U = a + b + c: ∂∂U = 2w − 2v
+  bad.add_cell(0, "v");
+  bad.add_cell(0, "w");
+  bad.add_cell(1, "a", {{1, 1}, {0, -1}});
+  bad.add_cell(1, "b", {{1, 1}, {0, -1}});
+  bad.add_cell(1, "c", {{0, 1}, {0, -1}});
+  bad.add_cell(2, "U", {{0, 1}, {1, 1}, {2, 1}});
+  bad.add_cell(2, "L", {{0, 1}, {1, -1}, {2, 1}});
+  const auto rep = lacuna::check_certificate(bad, good);
+  CHECK(!rep.ok);
+  CHECK(rep.dimension == 2);
+  CHECK(rep.first_failure.find("not a chain complex") != std::string::npos);
+}
+
 }  // namespace certificate_certificate_test
