@@ -64,16 +64,32 @@ std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std:
                                          const run_control* control) {
   const int top = lacuna::top_dimension(c);
   const mod_p_dynamic u(1, p);
-  std::vector<sparse_matrix<mod_p_dynamic>> mats;
-  for (int k = 1; k <= top; ++k) mats.push_back(boundary_matrix<mod_p_dynamic>(c, k, u));
-  const auto red = reduce_chain_complex(mats, {.control = control, .phase = "rank witnesses modulo a prime"});
   std::vector<rank_witness> out(static_cast<std::size_t>(top) + 1);
+  // The direction of field_ranks.hpp's automatic choice: by coboundaries (the transposes, from
+  // dimension 1 up) when the top dimension holds more cells than the vertices — the fill-in of
+  // a triangulated surface reduced by boundaries is several times larger — else by boundaries.
+  const bool co = top >= 1 && lacuna::cell_count(c, top) > lacuna::cell_count(c, 0);
+  std::vector<sparse_matrix<mod_p_dynamic>> mats;
+  if (!co) {
+    for (int k = 1; k <= top; ++k) mats.push_back(boundary_matrix<mod_p_dynamic>(c, k, u));
+  } else {
+    for (int k = top; k >= 1; --k) {  // ∂_k^T: rows the k-cells, columns the (k-1)-cells
+      auto d = boundary_matrix<mod_p_dynamic>(c, k, u);
+      sparse_matrix<mod_p_dynamic> t(d.cols, d.rows);
+      for (std::size_t j = 0; j < d.cols; ++j)
+        for (const auto& e : d.columns[j]) t.add(j, e.index, e.value);
+      t.normalize();
+      mats.push_back(std::move(t));
+    }
+  }
+  const auto red = reduce_chain_complex(mats, {.control = control, .phase = "rank witnesses modulo a prime"});
   for (int k = 1; k <= top; ++k) {
     auto& w = out[static_cast<std::size_t>(k)];
     w.prime = p;
-    for (const auto& pv : red[static_cast<std::size_t>(k) - 1].pivots) {
-      w.rows.push_back(pv.row);
-      w.columns.push_back(pv.column);
+    // A pivot of ∂_k^T at (k-cell, (k-1)-cell) is one of ∂_k at ((k-1)-cell, k-cell).
+    for (const auto& pv : red[static_cast<std::size_t>(co ? top - k : k - 1)].pivots) {
+      w.rows.push_back(co ? pv.column : pv.row);
+      w.columns.push_back(co ? pv.row : pv.column);
     }
   }
   for (int k = 0; k <= top; ++k) {
