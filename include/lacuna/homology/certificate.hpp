@@ -14,9 +14,9 @@
 //       matrix (torsion rows modulo their d_i). Then ι: Z^r ⊕ ⊕ Z/d_i → H_k, standard basis to
 //       the generators, is well defined by (a), (b), and the φ_j induce Φ: H_k → Z^r ⊕ ⊕ Z/d_i
 //       with Φ∘ι = identity: ι is injective and its image a direct summand, H_k = im ι ⊕ ker Φ;
-//   (d) rank witnesses: for each boundary map ∂_k a prime p and pivot positions (rows I,
-//       columns J) whose square minor det ∂_k[I, J] is non-zero modulo p, checked here by an
-//       elimination mod p; so rank ∂_k ≥ |J| (over Q, and over F_p). Then
+//   (d) rank witnesses: for each boundary map ∂_k a prime p and a sequence of pivot positions
+//       (rows I, columns J) along which Gaussian elimination of the minor ∂_k[I, J] modulo p
+//       meets no zero pivot, so det ∂_k[I, J] ≢ 0 mod p; so rank ∂_k ≥ |J| (over Q, and over F_p). Then
 //       n_k − |J_k| − |J_{k+1}| = r_k bounds the free rank (the dimension over a field) of H_k
 //       by r_k, so ker Φ has rank 0.
 // Over a field, ker Φ = 0 and the generators are a basis of H_k. Over the integers,
@@ -169,74 +169,80 @@ std::unordered_map<std::size_t, R> boundary_of(const C& c, const chain<R>& z) {
   return out;
 }
 
-/// The minor of ∂_k on these rows and columns is non-zero modulo p: a column elimination mod
-/// p (each column reduced by the earlier ones, by its lowest row); singular when a column
-/// reduces to zero. Entries are residues below p < 2^32, so products fit in 64 bits.
+/// The minor of ∂_k on these rows and columns is non-zero modulo p, shown by Gaussian
+/// elimination mod p with the pivots in the order given: pivot i at (rows[i], columns[i]).
+/// Column i is reduced by the earlier pivot columns, in increasing pivot order (a min-heap of
+/// the pivot indices it meets: left-looking elimination), and must then be non-zero at
+/// rows[i]; then every leading principal minor, and so the whole minor, is non-zero (the
+/// determinant is the product of the pivots). A minor whose leading minors vanish in this
+/// order is refused, even if it is non-singular: the certificate names its order. Entries
+/// are residues below p < 2^32, so products fit in 64 bits. Cost: that of the elimination,
+/// as the reduction that chose the pivots.
 template <cell_complex C>
 bool minor_nonsingular(const C& c, int k, const rank_witness& w, std::string& why) {
   const std::uint64_t p = w.prime;
   const std::size_t n = w.rows.size();
-  std::unordered_map<std::size_t, std::uint32_t> row_pos;
+  std::unordered_map<std::size_t, std::uint32_t> row_pos;  // (k-1)-cell -> its pivot index
   row_pos.reserve(n);
   for (std::size_t i = 0; i < n; ++i) row_pos.emplace(w.rows[i], static_cast<std::uint32_t>(i));
-  std::vector<std::vector<std::pair<std::uint32_t, std::uint64_t>>> reduced(n);  // sorted by row
-  std::vector<std::int64_t> pivot_of(n, -1);                                    // row -> column
   auto inverse = [p](std::uint64_t a) {  // a^(p-2) mod p
     std::uint64_t r = 1, b = a % p, e = p - 2;
     for (; e; e >>= 1, b = b * b % p)
       if (e & 1) r = r * b % p;
     return r;
   };
-  std::vector<std::pair<std::uint32_t, std::uint64_t>> col, next;
-  for (std::size_t j = 0; j < n; ++j) {
-    col.clear();
-    for (auto&& v : lacuna::boundary(c, k, w.columns[j])) {
+  // Reduced pivot columns: entries at pivot indices >= their own; the first is the pivot.
+  std::vector<std::vector<std::pair<std::uint32_t, std::uint64_t>>> reduced(n);
+  std::vector<std::uint64_t> pivot_inverse(n, 0);
+  std::vector<std::uint64_t> acc(n, 0);
+  std::vector<char> seen(n, 0);
+  std::vector<std::uint32_t> touched, heap;
+  auto greater = [](std::uint32_t a, std::uint32_t b) { return a > b; };
+  for (std::size_t i = 0; i < n; ++i) {
+    touched.clear();
+    heap.clear();
+    auto touch = [&](std::uint32_t t) {
+      if (seen[t]) return;
+      seen[t] = 1;
+      touched.push_back(t);
+      if (t < i) {
+        heap.push_back(t);
+        std::push_heap(heap.begin(), heap.end(), greater);
+      }
+    };
+    for (auto&& v : lacuna::boundary(c, k, w.columns[i])) {
       const auto [face, m] = residue_of(v, p);
       auto it = row_pos.find(face);
-      if (it != row_pos.end()) col.push_back({it->second, m});
+      if (it == row_pos.end()) continue;
+      touch(it->second);
+      acc[it->second] = (acc[it->second] + m) % p;
     }
-    std::sort(col.begin(), col.end());
-    std::size_t o = 0;  // add up repeated rows, drop zeros
-    for (std::size_t s = 0; s < col.size();) {
-      std::uint64_t sum = 0;
-      std::size_t t = s;
-      for (; t < col.size() && col[t].first == col[s].first; ++t) sum = (sum + col[t].second) % p;
-      if (sum) col[o++] = {col[s].first, sum};
-      s = t;
-    }
-    col.resize(o);
-    while (!col.empty()) {
-      const auto [low, a] = col.back();
-      const std::int64_t q = pivot_of[low];
-      if (q < 0) break;
-      const auto& piv = reduced[static_cast<std::size_t>(q)];  // its low is `low`
-      const std::uint64_t f = a * inverse(piv.back().second) % p;
-      next.clear();
-      std::size_t x = 0, y = 0;
-      while (x < col.size() || y < piv.size()) {
-        if (y == piv.size() || (x < col.size() && col[x].first < piv[y].first)) {
-          next.push_back(col[x++]);
-        } else {
-          const std::uint64_t sub = f * piv[y].second % p;
-          if (x < col.size() && col[x].first == piv[y].first) {
-            const std::uint64_t r = (col[x].second + p - sub) % p;
-            if (r) next.push_back({col[x].first, r});
-            ++x;
-          } else {
-            next.push_back({piv[y].first, (p - sub) % p});
-          }
-          ++y;
-        }
+    while (!heap.empty()) {
+      std::pop_heap(heap.begin(), heap.end(), greater);
+      const std::uint32_t t = heap.back();
+      heap.pop_back();
+      if (acc[t] == 0) continue;
+      const std::uint64_t f = acc[t] * pivot_inverse[t] % p;
+      for (const auto& [u, val] : reduced[t]) {
+        touch(u);
+        acc[u] = (acc[u] + p - f * val % p) % p;
       }
-      col.swap(next);
     }
-    if (col.empty()) {
-      why = "column " + std::to_string(j) + " (" + std::to_string(k) + "-cell " + std::to_string(w.columns[j]) +
-            ") of the minor reduces to zero modulo " + std::to_string(p);
+    const bool ok = acc[i] != 0;
+    if (ok) {
+      auto& r = reduced[i];
+      r.push_back({static_cast<std::uint32_t>(i), acc[i]});
+      for (std::uint32_t u : touched)
+        if (u > i && acc[u] != 0) r.push_back({u, acc[u]});
+      pivot_inverse[i] = inverse(acc[i]);
+    }
+    for (std::uint32_t u : touched) acc[u] = 0, seen[u] = 0;
+    if (!ok) {
+      why = "pivot " + std::to_string(i) + " (" + std::to_string(k - 1) + "-cell " + std::to_string(w.rows[i]) + ", " +
+            std::to_string(k) + "-cell " + std::to_string(w.columns[i]) + ") is zero modulo " + std::to_string(p) +
+            " after elimination by the pivots before it";
       return false;
     }
-    pivot_of[col.back().first] = static_cast<std::int64_t>(j);
-    reduced[j] = col;
   }
   return true;
 }

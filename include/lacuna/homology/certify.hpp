@@ -100,6 +100,100 @@ std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std:
   return out;
 }
 
+/// Rank witnesses of ∂_k read off the engine's elimination: the unit pivots (b, a) of the
+/// log at this level, in their order, are Gaussian pivots of ∂_k (an elimination step takes a
+/// Schur complement in ∂_k and only deletes rows or columns of the neighbouring boundary
+/// maps), followed by pivots of the core that are left, chosen here by a left-looking
+/// elimination mod p over the unit pivot rows and the core rows (the same elimination the
+/// checker repeats). Returns false if a unit pivot vanishes mod p (it cannot: each is ±1 after
+/// the eliminations before it), so the caller can fall back to the field reduction.
+template <class R, cell_complex C>
+bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::uint64_t p, rank_witness& w) {
+  w = {};
+  w.prime = p;
+  const std::size_t L = static_cast<std::size_t>(k);
+  for (const auto& st : basis.log.steps)
+    if (st.level == k) w.rows.push_back(st.b), w.columns.push_back(st.a);
+  const std::size_t units = w.rows.size();
+  std::vector<std::size_t> universe = w.rows;  // rows of the minor: unit pivot rows, then core rows
+  for (std::uint32_t r : basis.levels[L - 1].core) universe.push_back(r);
+  std::unordered_map<std::size_t, std::uint32_t> pos;
+  pos.reserve(universe.size());
+  for (std::size_t i = 0; i < universe.size(); ++i) pos.emplace(universe[i], static_cast<std::uint32_t>(i));
+  std::vector<std::int64_t> pivot_at(universe.size(), -1);  // position -> pivot index
+  for (std::size_t i = 0; i < units; ++i) pivot_at[i] = static_cast<std::int64_t>(i);
+  auto inverse = [p](std::uint64_t x) {
+    std::uint64_t r = 1, b = x % p, e = p - 2;
+    for (; e; e >>= 1, b = b * b % p)
+      if (e & 1) r = r * b % p;
+    return r;
+  };
+  std::vector<std::vector<std::pair<std::uint32_t, std::uint64_t>>> reduced;  // by pivot: (position, value)
+  std::vector<std::uint32_t> pivot_pos;                                       // by pivot: its position
+  std::vector<std::uint64_t> acc(universe.size(), 0);
+  std::vector<char> seen(universe.size(), 0);
+  std::vector<std::uint32_t> touched;
+  std::vector<std::int64_t> heap;  // pivot indices, smallest first
+  auto greater = [](std::int64_t a, std::int64_t b) { return a > b; };
+  std::vector<std::size_t> columns = w.columns;
+  for (std::uint32_t col : basis.levels[L].core) columns.push_back(col);
+  w.rows.clear(), w.columns.clear();
+  for (std::size_t j = 0; j < columns.size(); ++j) {
+    const std::int64_t limit = static_cast<std::int64_t>(reduced.size());  // pivots before this column
+    touched.clear(), heap.clear();
+    auto touch = [&](std::uint32_t q) {
+      if (seen[q]) return;
+      seen[q] = 1;
+      touched.push_back(q);
+      if (pivot_at[q] >= 0 && pivot_at[q] < limit) {
+        heap.push_back(pivot_at[q]);
+        std::push_heap(heap.begin(), heap.end(), greater);
+      }
+    };
+    for (auto&& v : lacuna::boundary(c, k, columns[j])) {
+      const auto [face, m] = cert::residue_of(v, p);
+      auto it = pos.find(face);
+      if (it == pos.end()) continue;
+      touch(it->second);
+      acc[it->second] = (acc[it->second] + m) % p;
+    }
+    while (!heap.empty()) {
+      std::pop_heap(heap.begin(), heap.end(), greater);
+      const auto t = static_cast<std::size_t>(heap.back());
+      heap.pop_back();
+      const std::uint64_t x = acc[pivot_pos[t]];
+      if (x == 0) continue;
+      const std::uint64_t f = x * inverse(reduced[t].front().second) % p;
+      for (const auto& [q, val] : reduced[t]) {
+        touch(q);
+        acc[q] = (acc[q] + p - f * val % p) % p;
+      }
+    }
+    std::int64_t chosen = -1;  // the position of this column's pivot
+    if (j < units) {
+      chosen = static_cast<std::int64_t>(j);
+      if (acc[j] == 0) chosen = -2;
+    } else {
+      for (std::uint32_t q : touched)
+        if (pivot_at[q] < 0 && acc[q] != 0 && (chosen < 0 || q < chosen)) chosen = q;
+    }
+    if (chosen >= 0) {
+      const auto q = static_cast<std::uint32_t>(chosen);
+      pivot_at[q] = static_cast<std::int64_t>(reduced.size());
+      std::vector<std::pair<std::uint32_t, std::uint64_t>> r{{q, acc[q]}};
+      for (std::uint32_t u : touched)
+        if (u != q && acc[u] != 0 && (pivot_at[u] < 0 || pivot_at[u] > pivot_at[q])) r.push_back({u, acc[u]});
+      reduced.push_back(std::move(r));
+      pivot_pos.push_back(q);
+      w.rows.push_back(universe[q]);
+      w.columns.push_back(columns[j]);
+    }
+    for (std::uint32_t u : touched) acc[u] = 0, seen[u] = 0;
+    if (chosen == -2) return false;
+  }
+  return true;
+}
+
 }  // namespace detail::certify
 
 /// The homology of c over R with generators, and a certificate of it: for every group, its
@@ -165,10 +259,34 @@ certified_homology_result<R> certified_homology(const C& c, homology_options opt
     }
     cert.groups.push_back(std::move(cg));
   }
-  // Rank witnesses.
+  // Rank witnesses: from the elimination log first (no new reduction of the complex), else
+  // from a field reduction of the whole complex.
   std::vector<std::size_t> ranks;
   for (const auto& g : h.groups) ranks.push_back(g.rank);
+  auto from_log = [&](std::uint64_t p) {
+    std::vector<rank_witness> out(static_cast<std::size_t>(top) + 1);
+    for (int k = 1; k <= top; ++k)
+      if (!detail::certify::log_rank_witness(c, k, basis, p, out[static_cast<std::size_t>(k)])) return false;
+    for (int k = 0; k <= top; ++k) {
+      const std::size_t a = out[static_cast<std::size_t>(k)].rows.size();
+      const std::size_t b = k < top ? out[static_cast<std::size_t>(k) + 1].rows.size() : 0;
+      if (lacuna::cell_count(c, k) - a - b != ranks[static_cast<std::size_t>(k)]) return false;
+    }
+    cert.ranks = std::move(out);
+    return true;
+  };
   if constexpr (characteristic_v<R> != 0) {
+    from_log(characteristic_v<R>);
+  } else {
+    std::uint64_t p = (std::uint64_t{1} << 31) - 1;
+    for (int tries = 0; tries < 4 && top >= 1; ++tries, --p) {
+      while (!is_prime(p)) --p;
+      if (from_log(p)) break;
+    }
+  }
+  if (!cert.ranks.empty() || top < 1) {
+    if (top == 0) cert.ranks.assign(1, {});
+  } else if constexpr (characteristic_v<R> != 0) {
     cert.ranks = detail::certify::rank_witnesses(c, characteristic_v<R>, ranks, &options.control);
   } else {
     std::uint64_t p = (std::uint64_t{1} << 31) - 1;
