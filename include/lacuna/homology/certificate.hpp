@@ -182,9 +182,9 @@ template <cell_complex C>
 bool minor_nonsingular(const C& c, int k, const rank_witness& w, std::string& why) {
   const std::uint64_t p = w.prime;
   const std::size_t n = w.rows.size();
-  std::unordered_map<std::size_t, std::uint32_t> row_pos;  // (k-1)-cell -> its pivot index
-  row_pos.reserve(n);
-  for (std::size_t i = 0; i < n; ++i) row_pos.emplace(w.rows[i], static_cast<std::uint32_t>(i));
+  constexpr std::uint32_t none = ~std::uint32_t{0};
+  std::vector<std::uint32_t> row_pos(lacuna::cell_count(c, k - 1), none);  // (k-1)-cell -> its pivot index
+  for (std::size_t i = 0; i < n; ++i) row_pos[w.rows[i]] = static_cast<std::uint32_t>(i);
   auto inverse = [p](std::uint64_t a) {  // a^(p-2) mod p
     std::uint64_t r = 1, b = a % p, e = p - 2;
     for (; e; e >>= 1, b = b * b % p)
@@ -212,10 +212,10 @@ bool minor_nonsingular(const C& c, int k, const rank_witness& w, std::string& wh
     };
     for (auto&& v : lacuna::boundary(c, k, w.columns[i])) {
       const auto [face, m] = residue_of(v, p);
-      auto it = row_pos.find(face);
-      if (it == row_pos.end()) continue;
-      touch(it->second);
-      acc[it->second] = (acc[it->second] + m) % p;
+      const std::uint32_t q = row_pos[face];
+      if (q == none) continue;
+      touch(q);
+      acc[q] = (acc[q] + m) % p;
     }
     while (!heap.empty()) {
       std::pop_heap(heap.begin(), heap.end(), greater);
@@ -378,22 +378,32 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
     }
     if (!rep.ok) break;
     // (c) cocycles: rows of Φ by cell, then δΦ over the (k+1)-cells, then the pairing Φᵀ Z.
-    std::unordered_map<std::size_t, std::vector<std::pair<std::uint32_t, R>>> phi_at;
+    // Φ by rows (cells), in compressed form: the cochain values on cell x are
+    // phi_values[phi_start[x] .. phi_start[x + 1]).
+    std::vector<std::size_t> phi_start(nk + 1, 0);
+    std::vector<std::pair<std::uint32_t, R>> phi_values;
     for (std::size_t j = 0; j < N && rep.ok; ++j) {
       if (!in_range(g.cocycles[j], k, nk, j, "cocycle")) break;
-      for (const auto& t : g.cocycles[j].terms) phi_at[t.cell].push_back({static_cast<std::uint32_t>(j), t.coefficient});
+      for (const auto& t : g.cocycles[j].terms) ++phi_start[t.cell + 1];
     }
     if (!rep.ok) break;
+    for (std::size_t x = 0; x < nk; ++x) phi_start[x + 1] += phi_start[x];
+    phi_values.resize(phi_start[nk], {0, zero<R>()});
+    {
+      std::vector<std::size_t> fill(phi_start.begin(), phi_start.end() - 1);
+      for (std::size_t j = 0; j < N; ++j)
+        for (const auto& t : g.cocycles[j].terms) phi_values[fill[t.cell]++] = {static_cast<std::uint32_t>(j), t.coefficient};
+    }
     auto modulus = [&](std::size_t j) { return j < r ? zero<R>() : g.torsion[j - r]; };
-    if (k < top && !phi_at.empty()) {
+    if (k < top && !phi_values.empty()) {
       std::unordered_map<std::uint32_t, R> acc;
       for (std::size_t s = 0; s < nk1 && rep.ok; ++s) {
         acc.clear();
         for (auto&& v : lacuna::boundary(c, k + 1, s)) {
           const auto [face, e] = detail::cert::term_of<R>(v);
-          auto it = phi_at.find(face);
-          if (it == phi_at.end()) continue;
-          for (const auto& [j, val] : it->second) {
+          if (phi_start[face] == phi_start[face + 1]) continue;
+          for (std::size_t q = phi_start[face]; q < phi_start[face + 1]; ++q) {
+            const auto& [j, val] = phi_values[q];
             auto [a, fresh] = acc.try_emplace(j, zero<R>());
             a->second += e * val;
           }
@@ -412,9 +422,8 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
     for (std::size_t l = 0; l < N && rep.ok; ++l) {  // column l of the pairing: φ_j(z_l) for all j
       std::unordered_map<std::uint32_t, R> col;
       for (const auto& t : g.generators[l].terms) {
-        auto it = phi_at.find(t.cell);
-        if (it == phi_at.end()) continue;
-        for (const auto& [j, val] : it->second) {
+        for (std::size_t q = phi_start[t.cell]; q < phi_start[t.cell + 1]; ++q) {
+          const auto& [j, val] = phi_values[q];
           auto [a, fresh] = col.try_emplace(j, zero<R>());
           a->second += val * t.coefficient;
         }
