@@ -70,11 +70,12 @@ void chain_out(std::ostream& os, const C& c, const chain<R>& ch) {
 struct value {
   enum kind_t { object, array, string, number, literal } kind = literal;
   std::string text;  // string, number or literal
-  std::vector<std::pair<std::string, value>> members;
+  std::vector<std::string> keys;  // an object's keys, and their values in the same order
+  std::vector<value> members;     // (two vectors: a pair with the incomplete value is not allowed)
   std::vector<value> items;
   const value* find(const std::string& key) const {
-    for (const auto& [k, v] : members)
-      if (k == key) return &v;
+    for (std::size_t i = 0; i < keys.size(); ++i)
+      if (keys[i] == key) return &members[i];
     return nullptr;
   }
 };
@@ -116,7 +117,8 @@ class parser {
         skip();
         if (i_ >= s_.size() || s_[i_] != ':') fail("expected ':'");
         ++i_;
-        v.members.emplace_back(std::move(key), parse_value(depth + 1));
+        v.keys.push_back(std::move(key));
+        v.members.push_back(parse_value(depth + 1));
         skip();
         if (i_ < s_.size() && s_[i_] == ',') { ++i_; continue; }
         if (i_ < s_.size() && s_[i_] == '}') return ++i_, v;
