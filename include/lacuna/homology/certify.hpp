@@ -13,16 +13,22 @@
 //     vanish (modulo d for a torsion coordinate), and it is 1 on generator j and 0 on the
 //     others (modulo d) because f∘g is the identity. These facts are what the checker
 //     verifies; nothing of this derivation is trusted;
-//   * rank witnesses: the boundary matrices of the complex reduced modulo a prime
-//     (reduce_chain_complex, algorithm/field_reduction.hpp): the pivot rows and columns of a
-//     column reduction have a non-singular minor (the reduced pivot columns are the original
-//     ones times a unitriangular matrix, and with distinct lows they are triangular). Over the
-//     integers and Q the prime 2^31 − 1 first, then the next primes below it until the ranks
-//     mod p account for the free ranks (they do unless p divides a torsion order); over
-//     Z/p, p itself.
+//   * rank witnesses, from the elimination log: the unit pivots (b, a) of each boundary map,
+//     in the log's order, are the first Gaussian pivots of the minor of ∂_k on the pivots'
+//     rows and the core rows (an elementary reduction takes a Schur complement in ∂_k and only
+//     deletes rows or columns of ∂_{k-1} and ∂_{k+1}); the elimination is repeated here mod p
+//     (as the checker repeats it) and pivots of the core are chosen as it goes. Over Z the
+//     unit pivots are ±1, so only the core depends on p: 2^31 − 1 first, then the next primes
+//     below it while the core's rank mod p falls short (p divides a torsion order). When the
+//     log does not give the ranks (over Q, whose unit pivots are any non-zero rationals), the
+//     boundary matrices of the whole complex are reduced mod p instead (reduce_chain_complex,
+//     algorithm/field_reduction.hpp): pivots by increasing reduced column have non-singular
+//     leading minors (the reduced pivot columns are the original ones times a unitriangular
+//     matrix, and with distinct lows they are triangular). Over Z/p, p itself.
 // Cost: that of homology() with generators and a kept basis, plus the pull of one cochain per
 // generator through the log (as the lift of the generators), plus a product of the kept core
-// transforms, plus one field reduction of the whole complex (as homology over Z/p).
+// transforms, plus the elimination of each boundary map mod p in the log's order (about what
+// the engine's elimination cost; docs/performance.md, "Certified homology").
 #pragma once
 
 #include <lacuna/algorithm/elimination_maps.hpp>
