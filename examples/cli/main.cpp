@@ -6,7 +6,9 @@
 #include <lacuna/complex/polygon_mesh.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/homology/exact_sequence.hpp>
+#include <lacuna/homology/certify.hpp>
 #include <lacuna/homology/homology.hpp>
+#include <lacuna/io/certificate_json.hpp>
 #include <lacuna/homology/memory_estimate.hpp>
 #include <lacuna/io/cells.hpp>
 #include <lacuna/io/facets.hpp>
@@ -351,6 +353,7 @@ struct run_options {
   std::optional<std::uint64_t> max_facet_vertices;  ///< .facets: labels per line; unset: the reader's
   std::string reduction = "auto";  ///< --reduction: auto, none, collapses, coreductions, both, morse
   std::optional<std::uint64_t> max_memory;  ///< --max-memory in bytes; unset: a quarter of the machine's memory
+  std::string certificate;  ///< --certificate OUT.json; empty: none (docs/certificates.md)
 };
 
 /// The pre-reduction of --reduction. auto: the Morse complex for images and volumes (implicit,
@@ -511,6 +514,33 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
   if (interrupts) ho.control.stop = interrupts->token();
   ho.control.progress = [&progress](const lacuna::progress_report& r) { progress.report(r); };
   std::string out;  // nothing reaches stdout until the whole answer is known
+  if (!o.certificate.empty()) {
+    // The certificate: over Z and Z/2, of absolute homology (docs/certificates.md).
+    if (marks) throw usage_error("lacuna: --certificate is not offered with --relative");
+    if (o.co.k == coefficients::rationals || (o.co.k == coefficients::mod_p && o.co.p != 2))
+      throw usage_error("lacuna: --certificate is offered over Z and Z/2, not over " + o.co.text);
+    auto certify = [&]<class R>() {
+      lacuna::homology_options co = ho;
+      co.generators = co.witnesses = true;
+      co.keep_basis = true;
+      reserve_memory(lacuna::estimate_homology_memory<R>(cx, co, lacuna::sparse_elimination{}), ho.control);
+      co.control = ho.control;
+      auto r = lacuna::certified_homology<R>(cx, co);
+      std::ofstream file(o.certificate, std::ios::binary | std::ios::trunc);
+      if (!file) throw usage_error(o.certificate + ": cannot be written");
+      lacuna::io::write_certificate_json(file, cx, r.certificate, o.co.text);
+      file.flush();
+      if (!file) throw usage_error(o.certificate + ": cannot be written");
+      report(cx, r.result, o, out);
+    };
+    if (o.co.k == coefficients::integers)
+      certify.template operator()<lacuna::integer>();
+    else
+      certify.template operator()<lacuna::z2>();
+    progress.stop();
+    write_result(out);
+    return;
+  }
   auto go = [&]<class R>(const R& unit) {
     reserve_memory(lacuna::estimate_homology_memory<R>(cx, ho, algorithm_for<C>(o)), ho.control);
     if (marks)
@@ -934,6 +964,9 @@ int main(int argc, char** argv) {
       ->check(CLI::IsMember({"auto", "none", "collapses", "coreductions", "both", "morse"}));
   hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
       ->type_name("SUB");
+  hom->add_option("--certificate", o.certificate,
+                  "also write a certificate of the groups (over Z or Z/2; docs/certificates.md)")
+      ->type_name("OUT.json");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   run_options so;
   std::string seq_coeff_text = "Z";

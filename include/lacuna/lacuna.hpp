@@ -36,6 +36,8 @@
 
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/homology/verify.hpp>
+#include <lacuna/homology/certificate.hpp>
+#include <lacuna/homology/certify.hpp>
 #include <lacuna/homology/universal_coefficients.hpp>
 #include <lacuna/homology/induced_map.hpp>
 #include <lacuna/homology/exact_sequence.hpp>
@@ -54,3 +56,4 @@
 #include <lacuna/io/distances.hpp>
 #include <lacuna/io/values.hpp>
 #include <lacuna/io/persistence_svg.hpp>
+#include <lacuna/io/certificate_json.hpp>

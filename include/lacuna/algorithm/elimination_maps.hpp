@@ -82,6 +82,68 @@ std::vector<level_chain<R>> lift_chains(const elimination_log<R>& log, int level
   return out;
 }
 
+/// Pulls cochains of the reduced complex at `level` (values on surviving cells) back to
+/// cochains of the original complex, all at once: φ ↦ φ∘f, the transpose of push_chain, so
+/// (pull φ)(z) = φ(push z) for every chain z. Since f is a chain map, a cocycle pulls back to
+/// a cocycle, and φ(f(g(y))) = φ(y) for a lifted chain g(y). For one pivot (a, b) of the
+/// level above, f(b) = −c⁻¹(∂a − c·b), so the pulled value at b is −c⁻¹ Σ_{x≠b} <∂a, x> φ(x),
+/// and f(a) = 0 for a pivot of this level (a's value stays zero): the log is run backwards
+/// and only the steps whose b lives at `level` act. Needs the pivot columns in the log
+/// (elimination_options::record_pivots). Cost and result as lift_chains (each cochain is a
+/// level_chain of its non-zero values, sorted by index).
+template <class R>
+std::vector<level_chain<R>> pull_cochains(const elimination_log<R>& log, int level, std::size_t level_size,
+                                          const std::vector<level_chain<R>>& cochains,
+                                          const run_control* control = nullptr) {
+  constexpr std::uint32_t none = std::numeric_limits<std::uint32_t>::max();
+  struct node {
+    std::uint32_t cochain;
+    R value;
+    std::uint32_t next;
+  };
+  std::vector<std::uint32_t> head(level_size, none);
+  std::vector<node> nodes;
+  for (std::uint32_t g = 0; g < cochains.size(); ++g)
+    for (const auto& e : cochains[g]) {
+      nodes.push_back({g, e.value, head[e.index]});
+      head[e.index] = static_cast<std::uint32_t>(nodes.size() - 1);
+    }
+  std::vector<R> acc(cochains.size(), zero<R>());
+  std::vector<std::uint32_t> touched;
+  std::size_t seen = 0;
+  for (auto s = log.steps.rbegin(); s != log.steps.rend(); ++s) {
+    if (control && (++seen & 4095) == 0) control->check();
+    if (s->level != level + 1) continue;
+    touched.clear();
+    for (std::size_t k = s->pivot_begin; k < s->pivot_end; ++k) {
+      const auto& [x, w] = log.pivot[k];
+      if (x == s->b) continue;
+      for (std::uint32_t n = head[x]; n != none; n = nodes[n].next) {
+        if (acc[nodes[n].cochain] == zero<R>()) touched.push_back(nodes[n].cochain);
+        acc[nodes[n].cochain] += nodes[n].value * w;
+      }
+    }
+    for (std::uint32_t g : touched) {
+      const R t = acc[g];
+      acc[g] = zero<R>();
+      if (t == zero<R>()) continue;
+      nodes.push_back({g, -(s->c_inverse * t), head[s->b]});
+      head[s->b] = static_cast<std::uint32_t>(nodes.size() - 1);
+    }
+  }
+  std::vector<level_chain<R>> out(cochains.size());
+  for (std::uint32_t i = 0; i < level_size; ++i)
+    for (std::uint32_t n = head[i]; n != none; n = nodes[n].next) {
+      auto& ch = out[nodes[n].cochain];
+      if (!ch.empty() && ch.back().index == i)
+        ch.back().value += nodes[n].value;
+      else
+        ch.push_back({i, nodes[n].value});
+    }
+  for (auto& ch : out) std::erase_if(ch, [](const auto& e) { return e.value == zero<R>(); });
+  return out;
+}
+
 /// Pushes a chain of the original complex at `level` to the reduced complex: f applied to
 /// it. The result is supported on the surviving cells, sorted by index.
 template <class R>

@@ -75,6 +75,10 @@ concept homology_algorithm = smith_algorithm<P> || std::same_as<P, coboundary_re
 struct homology_options {
   bool generators = false;  ///< one cycle per free summand and per torsion factor
   bool reduced = false;     ///< reduced homology (augmented by the empty cell)
+  /// With generators, homology only: for every torsion generator z of order d, a (k+1)-chain
+  /// w with ∂w = d·z (homology_group::bounding_chains), for the certificates of
+  /// homology/certificate.hpp. Runs the elimination route without a Morse pre-reduction.
+  bool witnesses = false;
   /// Keep what coordinates() and is_boundary() need. Unset: kept exactly when generators
   /// are asked for. Set it to false with generators to save the memory (about a third).
   std::optional<bool> keep_basis{};
@@ -100,6 +104,9 @@ struct homology_group {
   /// With generators: rank free generators first (order 0), then one per torsion factor.
   std::vector<chain<R>> generators;
   std::vector<R> orders;  ///< beside generators: 0 for free ones, the factor for torsion ones
+  /// With homology_options::witnesses: one (k+1)-chain per torsion generator, in the order of
+  /// the torsion generators, whose boundary is the generator times its order.
+  std::vector<chain<R>> bounding_chains;
 };
 
 namespace detail {
@@ -158,6 +165,7 @@ struct level_result {
   std::vector<R> torsion;
   std::vector<level_chain<R>> generators;
   std::vector<R> orders;
+  std::vector<level_chain<R>> bounding;  // per torsion generator: a chain of level L+1
 };
 
 // Dense matrix of the boundary from level L to level L-1, restricted to the core cells. Its
@@ -183,7 +191,8 @@ dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<le
 
 template <class R, class W>
 std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool want_generators, bool keep,
-                                         std::vector<level_basis<R>>& lb, const run_control* control = nullptr) {
+                                         std::vector<level_basis<R>>& lb, const run_control* control = nullptr,
+                                         bool want_bounding = false) {
   const int nl = rc.levels();
   lb.assign(nl, {});
   for (int L = 0; L < nl; ++L) {
@@ -268,6 +277,19 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
       for (std::size_t i = s2.rank; i < kdim; ++i) res.generators.push_back(column(i)), res.orders.push_back(zero<R>());
       for (std::size_t i = 0; i < s2.rank; ++i)
         if (!ring_is_unit(s2.diagonal[i])) res.generators.push_back(column(i)), res.orders.push_back(s2.diagonal[i]);
+      if (want_bounding) {
+        // V^-1 D_{L+1} = [0; M] (D_L D_{L+1} = 0 kills the first r rows) and U' M V' = diag(e),
+        // so D_{L+1} V'[:, i] = V[:, r..] U'^-1 e_i e_i = e_i · (generator i): column i of V'
+        // bounds e_i times the generator, on the core; the lift is a chain map.
+        for (std::size_t i = 0; i < s2.rank; ++i) {
+          if (ring_is_unit(s2.diagonal[i])) continue;
+          level_chain<R> w;
+          for (std::size_t row = 0; row < s2.V.rows(); ++row)
+            if (!(s2.V(row, i) == zero<R>())) w.push_back({lb[L + 1].core[row], s2.V(row, i)});
+          std::sort(w.begin(), w.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+          res.bounding.push_back(std::move(w));
+        }
+      }
     }
   }
   return out;
@@ -341,7 +363,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     eliminate_unit_pivots(rc, eo, want_log ? &log : nullptr);
   }
   std::vector<level_basis<R>> lb;
-  auto levels = finish_core<R>(rc, opt.generators, keep, lb, control);
+  auto levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators) {
     control->report("lifting generators", 0, 1);
@@ -350,6 +372,11 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
       levels[L].generators = std::move(lifted);
       for (auto& ch : levels[L].generators)
         for (auto& e : ch) e.index = rc.original_index(L, e.index);
+      if (!levels[L].bounding.empty()) {
+        levels[L].bounding = lift_chains(rlog, L + 1, rc.size(L + 1), levels[L].bounding, control);
+        for (auto& ch : levels[L].bounding)
+          for (auto& e : ch) e.index = rc.original_index(L + 1, e.index);
+      }
     };
     const int top_level = rc.levels() - 1;
     if (opt.threads >= 2 && top_level >= 1) {
@@ -555,6 +582,7 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
                             const std::vector<std::vector<bool>>* excluded, const R& unit) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (co && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
+  if (co && opt.witnesses) throw std::invalid_argument("lacuna: witnesses are offered for homology, not cohomology");
   reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded, .threads = opt.threads};
   homology_result<R> res;
   res.cohomology = co;
@@ -576,6 +604,11 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
       for (const auto& e : lr.generators[i]) ch.terms.push_back({e.index, e.value});
       g.generators.push_back(std::move(ch));
       g.orders.push_back(lr.orders[i]);
+    }
+    for (const auto& w : lr.bounding) {
+      chain<R> ch{k + 1, {}};
+      for (const auto& e : w) ch.terms.push_back({e.index, e.value});
+      g.bounding_chains.push_back(std::move(ch));
     }
     res.groups.push_back(std::move(g));
   }
@@ -604,6 +637,7 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
                                                  const R& unit) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (co && (opt.generators || *opt.keep_basis)) return std::nullopt;
+  if (opt.witnesses) return std::nullopt;  // bounding chains are lifted through the elimination log only
   alg.reduction = pre_reduction::coreductions_and_collapses;
   try {
     if constexpr (has_implicit_morse_complex<C>) {

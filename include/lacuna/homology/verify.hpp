@@ -18,6 +18,11 @@
 //      unit invariant factors). A surjection Z^r ⊕ ⊕R/t_i → H sending the standard basis to
 //      the generators is then an isomorphism (finitely generated modules are Hopfian).
 //
+// Steps 3 and 4 lean on the engine's own elimination data, and step 4 only for small
+// complexes: for an answer that must be trusted, certified_homology and check_certificate
+// (homology/certify.hpp, homology/certificate.hpp; docs/certificates.md) check witnesses
+// against the complex itself at any size.
+//
 // Failures are reported, not thrown: the report holds the first failure in words. Errors of
 // use (a result without generators) throw std::invalid_argument.
 #pragma once

@@ -1,0 +1,93 @@
+// Certified homology (homology/certify.hpp) and its checker (homology/certificate.hpp) beside
+// the computation of generators alone, over the integers, one thread: the k x k torus and
+// porous and coin-flip volumes (tests/cubical/volume_support.hpp). Each case times one of
+//   generators   lacuna::homology with generators (the elimination route, basis kept);
+//   certify      lacuna::certified_homology (the same, plus cocycles, bounding chains and
+//                the rank witnesses mod p);
+//   check        lacuna::check_certificate on a certificate made outside the timed loop.
+//   build/bin/bench_certificate --benchmark_filter='torus/1024|porous/64'
+#include "../tests/cubical/volume_support.hpp"
+#include "bench_support.hpp"
+
+#include <lacuna/homology/certificate.hpp>
+#include <lacuna/homology/certify.hpp>
+#include <lacuna/ring/integer.hpp>
+
+#include <benchmark/benchmark.h>
+
+#include <map>
+#include <optional>
+#include <memory>
+
+namespace {
+
+using lacuna::integer;
+
+const lacuna::cubical_complex<3>& porous(std::size_t n) {
+  static std::map<std::size_t, std::unique_ptr<lacuna::cubical_complex<3>>> cache;
+  auto& slot = cache[n];
+  if (!slot) {
+    const auto v = lacuna_volumes::porous_volume(n, 2.0, 7);
+    slot = std::make_unique<lacuna::cubical_complex<3>>(lacuna::cubical_complex<3>::from_bytes(v.extents, v.voxels));
+  }
+  return *slot;
+}
+
+enum class what { generators, certify, check };
+
+template <class C>
+void run(benchmark::State& s, const C& c, what w) {
+  std::size_t b1 = 0, witness_terms = 0;
+  std::optional<lacuna::homology_certificate<integer>> cert;
+  if (w == what::check) cert = lacuna::certified_homology<integer>(c).certificate;
+  for (auto _ : s) {
+    if (w == what::generators) {
+      auto h = lacuna::homology<integer>(c, {.generators = true, .keep_basis = true});
+      b1 = h.groups.size() > 1 ? h.groups[1].rank : 0;
+      benchmark::DoNotOptimize(h);
+    } else if (w == what::certify) {
+      auto r = lacuna::certified_homology<integer>(c);
+      b1 = r.result.groups.size() > 1 ? r.result.groups[1].rank : 0;
+      benchmark::DoNotOptimize(r);
+    } else {
+      const auto rep = lacuna::check_certificate(c, *cert);
+      if (!rep.ok) s.SkipWithError(rep.first_failure.c_str());
+      b1 = cert->groups.size() > 1 ? cert->groups[1].rank : 0;
+    }
+  }
+  if (cert)
+    for (const auto& g : cert->groups)
+      for (const auto& x : g.cocycles) witness_terms += x.terms.size();
+  s.counters["cells"] = static_cast<double>(lacuna::total_cell_count(c));
+  s.counters["b1"] = static_cast<double>(b1);
+  if (cert) s.counters["cocycle_terms"] = static_cast<double>(witness_terms);
+}
+
+void torus_generators(benchmark::State& s) { run(s, lacuna_bench::torus(static_cast<int>(s.range(0))), what::generators); }
+void torus_certify(benchmark::State& s) { run(s, lacuna_bench::torus(static_cast<int>(s.range(0))), what::certify); }
+void torus_check(benchmark::State& s) { run(s, lacuna_bench::torus(static_cast<int>(s.range(0))), what::check); }
+void porous_generators(benchmark::State& s) { run(s, porous(static_cast<std::size_t>(s.range(0))), what::generators); }
+void porous_certify(benchmark::State& s) { run(s, porous(static_cast<std::size_t>(s.range(0))), what::certify); }
+void porous_check(benchmark::State& s) { run(s, porous(static_cast<std::size_t>(s.range(0))), what::check); }
+void coin_flip_generators(benchmark::State& s) {
+  run(s, lacuna_bench::random_volume(static_cast<std::size_t>(s.range(0))), what::generators);
+}
+void coin_flip_certify(benchmark::State& s) {
+  run(s, lacuna_bench::random_volume(static_cast<std::size_t>(s.range(0))), what::certify);
+}
+void coin_flip_check(benchmark::State& s) {
+  run(s, lacuna_bench::random_volume(static_cast<std::size_t>(s.range(0))), what::check);
+}
+
+}  // namespace
+
+BENCHMARK(torus_generators)->Arg(256)->Arg(1024)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(torus_certify)->Arg(256)->Arg(1024)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(torus_check)->Arg(256)->Arg(1024)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(porous_generators)->Arg(64)->Arg(128)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(porous_certify)->Arg(64)->Arg(128)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(porous_check)->Arg(64)->Arg(128)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(coin_flip_generators)->Arg(64)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(coin_flip_certify)->Arg(64)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(coin_flip_check)->Arg(64)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK_MAIN();

@@ -1,0 +1,504 @@
+// lacuna/homology/certificate.hpp — certificates of homology groups, and their checker.
+//
+// A certificate states the groups H_k(X; R) of a cell complex X (R the integers or a field)
+// with generators, and carries witnesses that make the statement checkable from the complex's
+// own boundaries alone, with exact arithmetic and one elimination modulo a prime per boundary
+// map. This header holds the certificate and check_certificate; it includes nothing of the
+// engine (homology.hpp): the witnesses are produced by homology/certify.hpp, and what they
+// prove, with the proofs, is in docs/certificates.md. In short, for every degree k, with
+// generators z_1..z_r (free) and z_{r+1}..z_{r+m} (torsion, orders d_1 | ... | d_m):
+//   (a) every z_j is a cycle: ∂z_j = 0;
+//   (b) every torsion generator has a bounding chain w_i with ∂w_i = d_i·z_{r+i};
+//   (c) every generator has a cochain φ_j: free ones integral cocycles (δφ_j = 0), torsion
+//       ones cocycles modulo d_i (δφ ≡ 0 mod d_i), and the pairing φ_j(z_l) is the identity
+//       matrix (torsion rows modulo their d_i). Then ι: Z^r ⊕ ⊕ Z/d_i → H_k, standard basis to
+//       the generators, is well defined by (a), (b), and the φ_j induce Φ: H_k → Z^r ⊕ ⊕ Z/d_i
+//       with Φ∘ι = identity: ι is injective and its image a direct summand, H_k = im ι ⊕ ker Φ;
+//   (d) rank witnesses: for each boundary map ∂_k a prime p and a sequence of pivot positions
+//       (rows I, columns J) along which Gaussian elimination of the minor ∂_k[I, J] modulo p
+//       meets no zero pivot, so det ∂_k[I, J] ≢ 0 mod p; so rank ∂_k ≥ |J| (over Q, and over F_p). Then
+//       n_k − |J_k| − |J_{k+1}| = r_k bounds the free rank (the dimension over a field) of H_k
+//       by r_k, so ker Φ has rank 0.
+// Over a field, ker Φ = 0 and the generators are a basis of H_k. Over the integers,
+// H_k = Z^r ⊕ ⊕ Z/d_i ⊕ K with K a finite group (the claimed summands, each generator of
+// exactly its order, are a direct summand); K = 0 — no torsion left out — is NOT proved by
+// these witnesses (docs/certificates.md, "What is not proved yet").
+//
+// The checker also verifies ∂∂ = 0 on the complex (over R), so nothing is assumed of it.
+//
+// Cost of the check: one pass over the faces of the faces of every cell (∂∂ = 0); one pass
+// over the boundaries of the cells the chains meet (cycles and bounding chains); one pass
+// over the (k+1)-cells for the cocycles, each face looking up the cochains that are non-zero
+// on it (the sparse product δΦ); the pairing as the sparse product Φᵀ Z (only the cells where
+// a cochain and a generator meet: no dense matrix of generators by generators); one sparse
+// column elimination mod p per boundary map.
+#pragma once
+
+#include <lacuna/chain/chain.hpp>
+#include <lacuna/complex/concepts.hpp>
+#include <lacuna/ring/concepts.hpp>
+#include <lacuna/ring/euclid.hpp>
+#include <lacuna/ring/integer.hpp>
+
+#include <algorithm>
+#include <cstddef>
+#include <cstdint>
+#include <sstream>
+#include <string>
+#include <unordered_map>
+#include <utility>
+#include <vector>
+
+namespace lacuna {
+
+/// One group of a certificate: H_k = R^rank ⊕ R/torsion[0] ⊕ ... with its generators and
+/// witnesses. generators: rank free ones, then one per torsion factor; cocycles: one per
+/// generator, in the same order (values on k-cells; for a torsion generator of order d, the
+/// values matter modulo d); bounding_chains: one (k+1)-chain per torsion generator.
+template <class R>
+struct certified_group {
+  int dimension = 0;
+  std::size_t rank = 0;
+  std::vector<R> torsion;
+  std::vector<chain<R>> generators;
+  std::vector<chain<R>> cocycles;
+  std::vector<chain<R>> bounding_chains;
+};
+
+/// A lower bound of the rank of one boundary map ∂_k: the square submatrix of ∂_k on the
+/// (k−1)-cells `rows[i]` and the k-cells `columns[i]` is non-singular modulo `prime`.
+struct rank_witness {
+  std::uint64_t prime = 0;
+  std::vector<std::size_t> rows, columns;
+};
+
+/// A certificate of the homology of a complex over R (lacuna::integer or a field):
+/// groups[k] for k = 0..top, ranks[k] for ∂_k, k = 0..top (ranks[0] empty: ∂_0 = 0).
+template <class R>
+struct homology_certificate {
+  std::vector<certified_group<R>> groups;
+  std::vector<rank_witness> ranks;
+};
+
+/// The outcome of check_certificate. On failure, `dimension` is the degree k of the group
+/// found wrong (or of the boundary map ∂_k, for a rank witness), `generator` the index of
+/// the generator concerned (torsion factor i is generator rank + i; -1: none), and
+/// first_failure says what failed, in words.
+struct certificate_report {
+  bool ok = true;
+  std::string first_failure;
+  int dimension = -1;
+  std::ptrdiff_t generator = -1;
+  std::size_t checks = 0;  ///< facts verified (a test can see that something was checked)
+  explicit operator bool() const noexcept { return ok; }
+};
+
+namespace detail::cert {
+
+template <class T>
+std::string text(const T& x) {
+  if constexpr (requires { { x.to_string() } -> std::convertible_to<std::string>; }) {
+    return x.to_string();
+  } else {
+    std::ostringstream os;
+    os << x;
+    return os.str();
+  }
+}
+
+template <class R>
+bool unit(const R& x) {
+  if constexpr (field<R>)
+    return !(x == zero<R>());
+  else
+    return !(x == zero<R>()) && lacuna::is_unit(x);
+}
+
+/// x ≡ y modulo d (d = 0: x == y).
+template <class R>
+bool congruent(const R& x, const R& y, const R& d) {
+  if (d == zero<R>()) return x == y;
+  return div_rem(x - y, d).remainder == zero<R>();
+}
+
+/// Trial division: enough for the primes below 2^32 that the rank witnesses use.
+inline bool small_prime(std::uint64_t p) {
+  if (p < 2 || p >= (std::uint64_t{1} << 32)) return false;
+  for (std::uint64_t q = 2; q * q <= p; ++q)
+    if (p % q == 0) return false;
+  return true;
+}
+
+/// One incidence of the complex as (face, value in R), exact whatever its size.
+template <class R, class V>
+std::pair<std::size_t, R> term_of(const V& v) {
+  if constexpr (small_incidence_like<std::remove_cvref_t<V>>) {
+    const incidence f = as_incidence(v);
+    return {f.face, from_integer<R>(f.coefficient)};
+  } else {
+    return {incidence_face(v), coefficient_in<R>(coefficient_as_integer(v), one<R>())};
+  }
+}
+
+/// An incidence modulo p < 2^32, as a residue in [0, p).
+template <class V>
+std::pair<std::size_t, std::uint64_t> residue_of(const V& v, std::uint64_t p) {
+  if constexpr (small_incidence_like<std::remove_cvref_t<V>>) {
+    const incidence f = as_incidence(v);
+    const std::int64_t m = f.coefficient % static_cast<std::int64_t>(p);
+    return {f.face, static_cast<std::uint64_t>(m < 0 ? m + static_cast<std::int64_t>(p) : m)};
+  } else {
+    integer m = div_rem(coefficient_as_integer(v), integer(static_cast<std::int64_t>(p))).remainder;
+    if (m.sign() < 0) m += integer(static_cast<std::int64_t>(p));
+    return {incidence_face(v), static_cast<std::uint64_t>(m.small_value())};
+  }
+}
+
+/// The boundary of a chain of k-cells, summed from lacuna::boundary of the complex.
+template <class R, cell_complex C>
+std::unordered_map<std::size_t, R> boundary_of(const C& c, const chain<R>& z) {
+  std::unordered_map<std::size_t, R> out;
+  const int k = z.dimension;
+  if (k == 0) return out;
+  for (const auto& t : z.terms)
+    for (auto&& v : lacuna::boundary(c, k, t.cell)) {
+      const auto [face, e] = term_of<R>(v);
+      auto [it, fresh] = out.try_emplace(face, zero<R>());
+      it->second += e * t.coefficient;
+    }
+  return out;
+}
+
+/// The minor of ∂_k on these rows and columns is non-zero modulo p, shown by Gaussian
+/// elimination mod p with the pivots in the order given: pivot i at (rows[i], columns[i]).
+/// Column i is reduced by the earlier pivot columns, in increasing pivot order (a min-heap of
+/// the pivot indices it meets: left-looking elimination), and must then be non-zero at
+/// rows[i]; then every leading principal minor, and so the whole minor, is non-zero (the
+/// determinant is the product of the pivots). A minor whose leading minors vanish in this
+/// order is refused, even if it is non-singular: the certificate names its order. Entries
+/// are residues below p < 2^32, so products fit in 64 bits. Cost: that of the elimination,
+/// as the reduction that chose the pivots.
+template <cell_complex C>
+bool minor_nonsingular(const C& c, int k, const rank_witness& w, std::string& why) {
+  const std::uint64_t p = w.prime;
+  const std::size_t n = w.rows.size();
+  constexpr std::uint32_t none = ~std::uint32_t{0};
+  std::vector<std::uint32_t> row_pos(lacuna::cell_count(c, k - 1), none);  // (k-1)-cell -> its pivot index
+  for (std::size_t i = 0; i < n; ++i) row_pos[w.rows[i]] = static_cast<std::uint32_t>(i);
+  auto inverse = [p](std::uint64_t a) {  // a^(p-2) mod p
+    std::uint64_t r = 1, b = a % p, e = p - 2;
+    for (; e; e >>= 1, b = b * b % p)
+      if (e & 1) r = r * b % p;
+    return r;
+  };
+  // Reduced pivot columns: entries at pivot indices >= their own; the first is the pivot.
+  std::vector<std::vector<std::pair<std::uint32_t, std::uint64_t>>> reduced(n);
+  std::vector<std::uint64_t> pivot_inverse(n, 0);
+  std::vector<std::uint64_t> acc(n, 0);
+  std::vector<char> seen(n, 0);
+  std::vector<std::uint32_t> touched, heap;
+  auto greater = [](std::uint32_t a, std::uint32_t b) { return a > b; };
+  for (std::size_t i = 0; i < n; ++i) {
+    touched.clear();
+    heap.clear();
+    auto touch = [&](std::uint32_t t) {
+      if (seen[t]) return;
+      seen[t] = 1;
+      touched.push_back(t);
+      if (t < i) {
+        heap.push_back(t);
+        std::push_heap(heap.begin(), heap.end(), greater);
+      }
+    };
+    for (auto&& v : lacuna::boundary(c, k, w.columns[i])) {
+      const auto [face, m] = residue_of(v, p);
+      const std::uint32_t q = row_pos[face];
+      if (q == none) continue;
+      touch(q);
+      acc[q] = (acc[q] + m) % p;
+    }
+    while (!heap.empty()) {
+      std::pop_heap(heap.begin(), heap.end(), greater);
+      const std::uint32_t t = heap.back();
+      heap.pop_back();
+      if (acc[t] == 0) continue;
+      const std::uint64_t f = acc[t] * pivot_inverse[t] % p;
+      for (const auto& [u, val] : reduced[t]) {
+        touch(u);
+        acc[u] = (acc[u] + p - f * val % p) % p;
+      }
+    }
+    const bool ok = acc[i] != 0;
+    if (ok) {
+      auto& r = reduced[i];
+      r.push_back({static_cast<std::uint32_t>(i), acc[i]});
+      for (std::uint32_t u : touched)
+        if (u > i && acc[u] != 0) r.push_back({u, acc[u]});
+      pivot_inverse[i] = inverse(acc[i]);
+    }
+    for (std::uint32_t u : touched) acc[u] = 0, seen[u] = 0;
+    if (!ok) {
+      why = "pivot " + std::to_string(i) + " (" + std::to_string(k - 1) + "-cell " + std::to_string(w.rows[i]) + ", " +
+            std::to_string(k) + "-cell " + std::to_string(w.columns[i]) + ") is zero modulo " + std::to_string(p) +
+            " after elimination by the pivots before it";
+      return false;
+    }
+  }
+  return true;
+}
+
+}  // namespace detail::cert
+
+/// Checks a certificate against the complex c it claims to describe (see the top of this
+/// header and docs/certificates.md for what a passing check proves). R models
+/// euclidean_domain (lacuna::integer, or a field); C models cell_complex. Never throws on a
+/// wrong certificate: the report names the first failure, its degree and generator.
+/// Complexity: a pass over the faces of faces of every cell (∂∂ = 0), linear in the size of
+/// the cells the witnesses meet, one pass over the (k+1)-cells per degree, and the
+/// eliminations mod p of the rank witnesses.
+template <euclidean_domain R, cell_complex C>
+certificate_report check_certificate(const C& c, const homology_certificate<R>& cert) {
+  certificate_report rep;
+  auto fail = [&](int k, std::ptrdiff_t g, std::string what) {
+    if (rep.ok) {
+      rep.first_failure = std::move(what);
+      rep.dimension = k;
+      rep.generator = g;
+    }
+    rep.ok = false;
+  };
+  const int top = lacuna::top_dimension(c);
+  if (static_cast<int>(cert.groups.size()) != top + 1 || static_cast<int>(cert.ranks.size()) != top + 1) {
+    fail(-1, -1, "the certificate has " + std::to_string(cert.groups.size()) + " groups and " +
+                     std::to_string(cert.ranks.size()) + " rank witnesses; the complex has dimension " +
+                     std::to_string(top));
+    return rep;
+  }
+  // (0) The complex is a chain complex over R (∂∂ = 0), so that H_k is defined and the rank
+  // count of (d) holds: one pass over the faces of the faces of every cell.
+  for (int k = 2; k <= top && rep.ok; ++k) {
+    std::unordered_map<std::size_t, R> dd;
+    for (std::size_t s = 0; s < lacuna::cell_count(c, k); ++s) {
+      dd.clear();
+      for (auto&& v : lacuna::boundary(c, k, s)) {
+        const auto [face, e] = detail::cert::term_of<R>(v);
+        for (auto&& u : lacuna::boundary(c, k - 1, face)) {
+          const auto [ff, e2] = detail::cert::term_of<R>(u);
+          auto [it, fresh] = dd.try_emplace(ff, zero<R>());
+          it->second += e * e2;
+        }
+      }
+      for (const auto& [ff, x] : dd)
+        if (!(x == zero<R>())) {
+          fail(k, -1, "the complex is not a chain complex: the boundary of the boundary of " + std::to_string(k) +
+                          "-cell " + std::to_string(s) + " is not zero");
+          break;
+        }
+      if (!rep.ok) break;
+    }
+    ++rep.checks;
+  }
+  for (int k = 0; k <= top && rep.ok; ++k) {
+    const auto& g = cert.groups[static_cast<std::size_t>(k)];
+    const std::string H = "H_" + std::to_string(k);
+    const std::size_t r = g.rank, m = g.torsion.size(), N = r + m;
+    const std::size_t nk = lacuna::cell_count(c, k);
+    const std::size_t nk1 = k < top ? lacuna::cell_count(c, k + 1) : 0;
+    if (g.dimension != k) fail(k, -1, H + ": the group is labelled dimension " + std::to_string(g.dimension));
+    if (g.generators.size() != N || g.cocycles.size() != N || g.bounding_chains.size() != m) {
+      fail(k, -1, H + ": " + std::to_string(g.generators.size()) + " generators, " + std::to_string(g.cocycles.size()) +
+                      " cocycles and " + std::to_string(g.bounding_chains.size()) + " bounding chains for rank " +
+                      std::to_string(r) + " and " + std::to_string(m) + " torsion factors");
+      break;
+    }
+    // The torsion factors: non-units, each dividing the next (a field has none).
+    for (std::size_t i = 0; i < m; ++i) {
+      const std::string Ti = H + " torsion factor " + std::to_string(i) + " (order " + detail::cert::text(g.torsion[i]) + ")";
+      if (g.torsion[i] == zero<R>() || detail::cert::unit(g.torsion[i]))
+        fail(k, static_cast<std::ptrdiff_t>(r + i), Ti + ": an order must be neither zero nor a unit");
+      else if (i + 1 < m && !(div_rem(g.torsion[i + 1], g.torsion[i]).remainder == zero<R>()))
+        fail(k, static_cast<std::ptrdiff_t>(r + i), Ti + ": does not divide the next factor " + detail::cert::text(g.torsion[i + 1]));
+    }
+    if (!rep.ok) break;
+    auto label = [&](std::size_t j) {
+      return j < r ? H + " free generator " + std::to_string(j)
+                   : H + " torsion factor " + std::to_string(j - r) + " (order " + detail::cert::text(g.torsion[j - r]) + ")";
+    };
+    auto in_range = [&](const chain<R>& ch, int dim, std::size_t count, std::size_t j, const char* what) {
+      if (ch.dimension != dim) {
+        fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": its " + what + " has dimension " + std::to_string(ch.dimension));
+        return false;
+      }
+      for (std::size_t t = 0; t < ch.terms.size(); ++t) {
+        if (ch.terms[t].cell >= count) {
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": its " + what + " names cell " + std::to_string(ch.terms[t].cell) +
+                                                      ", out of range");
+          return false;
+        }
+        if (t > 0 && ch.terms[t].cell <= ch.terms[t - 1].cell) {
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the terms of its " + what + " are not sorted and distinct");
+          return false;
+        }
+      }
+      return true;
+    };
+    // (a) cycles, (b) bounding chains.
+    for (std::size_t j = 0; j < N && rep.ok; ++j) {
+      const auto& z = g.generators[j];
+      if (!in_range(z, k, nk, j, "generator")) break;
+      if (z.is_zero()) {
+        fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is the zero chain");
+        break;
+      }
+      for (const auto& [cell, v] : detail::cert::boundary_of(c, z))
+        if (!(v == zero<R>())) {
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not a cycle (its boundary is " +
+                                                      detail::cert::text(v) + " on " + std::to_string(k - 1) + "-cell " +
+                                                      std::to_string(cell) + ")");
+          break;
+        }
+      ++rep.checks;
+      if (j < r || !rep.ok) continue;
+      const auto& w = g.bounding_chains[j - r];
+      if (!in_range(w, k + 1, nk1, j, "bounding chain")) break;
+      auto dw = detail::cert::boundary_of(c, w);
+      const R& d = g.torsion[j - r];
+      for (const auto& t : z.terms) {
+        auto [it, fresh] = dw.try_emplace(t.cell, zero<R>());
+        it->second -= d * t.coefficient;
+      }
+      for (const auto& [cell, v] : dw)
+        if (!(v == zero<R>())) {
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the boundary of its bounding chain is not " +
+                                                      detail::cert::text(d) + " times the generator (they differ on " +
+                                                      std::to_string(k) + "-cell " + std::to_string(cell) + ")");
+          break;
+        }
+      ++rep.checks;
+    }
+    if (!rep.ok) break;
+    // (c) cocycles: rows of Φ by cell, then δΦ over the (k+1)-cells, then the pairing Φᵀ Z.
+    // Φ by rows (cells), in compressed form: the cochain values on cell x are
+    // phi_values[phi_start[x] .. phi_start[x + 1]).
+    std::vector<std::size_t> phi_start(nk + 1, 0);
+    std::vector<std::pair<std::uint32_t, R>> phi_values;
+    for (std::size_t j = 0; j < N && rep.ok; ++j) {
+      if (!in_range(g.cocycles[j], k, nk, j, "cocycle")) break;
+      for (const auto& t : g.cocycles[j].terms) ++phi_start[t.cell + 1];
+    }
+    if (!rep.ok) break;
+    for (std::size_t x = 0; x < nk; ++x) phi_start[x + 1] += phi_start[x];
+    phi_values.resize(phi_start[nk], {0, zero<R>()});
+    {
+      std::vector<std::size_t> fill(phi_start.begin(), phi_start.end() - 1);
+      for (std::size_t j = 0; j < N; ++j)
+        for (const auto& t : g.cocycles[j].terms) phi_values[fill[t.cell]++] = {static_cast<std::uint32_t>(j), t.coefficient};
+    }
+    auto modulus = [&](std::size_t j) { return j < r ? zero<R>() : g.torsion[j - r]; };
+    if (k < top && !phi_values.empty()) {
+      std::unordered_map<std::uint32_t, R> acc;
+      for (std::size_t s = 0; s < nk1 && rep.ok; ++s) {
+        acc.clear();
+        for (auto&& v : lacuna::boundary(c, k + 1, s)) {
+          const auto [face, e] = detail::cert::term_of<R>(v);
+          if (phi_start[face] == phi_start[face + 1]) continue;
+          for (std::size_t q = phi_start[face]; q < phi_start[face + 1]; ++q) {
+            const auto& [j, val] = phi_values[q];
+            auto [a, fresh] = acc.try_emplace(j, zero<R>());
+            a->second += e * val;
+          }
+        }
+        for (const auto& [j, v] : acc)
+          if (!detail::cert::congruent(v, zero<R>(), modulus(j))) {
+            fail(k, j, label(j) + ": its cochain is not a cocycle" +
+                           (j < r ? std::string() : " modulo " + detail::cert::text(modulus(j))) + " (the coboundary is " +
+                           detail::cert::text(v) + " on " + std::to_string(k + 1) + "-cell " + std::to_string(s) + ")");
+            break;
+          }
+      }
+      rep.checks += N;
+    }
+    if (!rep.ok) break;
+    for (std::size_t l = 0; l < N && rep.ok; ++l) {  // column l of the pairing: φ_j(z_l) for all j
+      std::unordered_map<std::uint32_t, R> col;
+      for (const auto& t : g.generators[l].terms) {
+        for (std::size_t q = phi_start[t.cell]; q < phi_start[t.cell + 1]; ++q) {
+          const auto& [j, val] = phi_values[q];
+          auto [a, fresh] = col.try_emplace(j, zero<R>());
+          a->second += val * t.coefficient;
+        }
+      }
+      auto diag = col.find(static_cast<std::uint32_t>(l));
+      const R dv = diag == col.end() ? zero<R>() : diag->second;
+      if (!detail::cert::congruent(dv, one<R>(), modulus(l))) {
+        fail(k, static_cast<std::ptrdiff_t>(l),
+             label(l) + ": its cocycle takes the value " + detail::cert::text(dv) + " on it, not 1" +
+                 (l < r ? std::string() : " modulo " + detail::cert::text(modulus(l))) +
+                 (l < r ? " (the generator is not shown to be free and independent)"
+                        : " (the generator is not shown to have exactly this order)"));
+        break;
+      }
+      for (const auto& [j, v] : col)
+        if (j != l && !detail::cert::congruent(v, zero<R>(), modulus(j))) {
+          fail(k, static_cast<std::ptrdiff_t>(j),
+               label(j) + ": its cocycle takes the value " + detail::cert::text(v) + " on generator " + std::to_string(l) +
+                   ", not 0" + (j < r ? std::string() : " modulo " + detail::cert::text(modulus(j))));
+          break;
+        }
+      ++rep.checks;
+    }
+  }
+  if (!rep.ok) return rep;
+  // (d) rank witnesses, then the free ranks (dimensions) they bound.
+  std::vector<std::size_t> rho(static_cast<std::size_t>(top) + 2, 0);
+  for (int k = 1; k <= top && rep.ok; ++k) {
+    const auto& w = cert.ranks[static_cast<std::size_t>(k)];
+    const std::string D = "the rank witness of the boundary map from dimension " + std::to_string(k);
+    if (w.rows.size() != w.columns.size()) {
+      fail(k, -1, D + ": " + std::to_string(w.rows.size()) + " rows for " + std::to_string(w.columns.size()) + " columns");
+      break;
+    }
+    if (!w.rows.empty()) {
+      if (!detail::cert::small_prime(w.prime)) {
+        fail(k, -1, D + ": " + std::to_string(w.prime) + " is not a prime below 2^32");
+        break;
+      }
+      if constexpr (characteristic_v<R> != 0)
+        if (w.prime != characteristic_v<R>) {
+          fail(k, -1, D + ": works modulo " + std::to_string(w.prime) + ", not the characteristic " +
+                          std::to_string(characteristic_v<R>));
+          break;
+        }
+    }
+    auto distinct = [](std::vector<std::size_t> v, std::size_t bound) {
+      std::sort(v.begin(), v.end());
+      return std::adjacent_find(v.begin(), v.end()) == v.end() && (v.empty() || v.back() < bound);
+    };
+    if (!distinct(w.rows, lacuna::cell_count(c, k - 1)) || !distinct(w.columns, lacuna::cell_count(c, k))) {
+      fail(k, -1, D + ": rows or columns repeated or out of range");
+      break;
+    }
+    std::string why;
+    if (!detail::cert::minor_nonsingular(c, k, w, why)) {
+      fail(k, -1, D + ": " + why);
+      break;
+    }
+    rho[static_cast<std::size_t>(k)] = w.rows.size();
+    ++rep.checks;
+  }
+  for (int k = 0; k <= top && rep.ok; ++k) {
+    const std::size_t nk = lacuna::cell_count(c, k);
+    const std::size_t a = rho[static_cast<std::size_t>(k)], b = rho[static_cast<std::size_t>(k) + 1];
+    const std::size_t r = cert.groups[static_cast<std::size_t>(k)].rank;
+    if (a + b > nk || nk - a - b != r) {
+      fail(k, -1, "H_" + std::to_string(k) + ": the rank witnesses bound the free rank by " +
+                      (a + b > nk ? std::string("(inconsistent: more pivots than cells)") : std::to_string(nk - a - b)) +
+                      ", the certificate claims " + std::to_string(r));
+      break;
+    }
+    ++rep.checks;
+  }
+  return rep;
+}
+
+}  // namespace lacuna

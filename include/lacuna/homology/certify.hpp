@@ -1,0 +1,310 @@
+// lacuna/homology/certify.hpp — homology with a certificate (homology/certificate.hpp) that a
+// checker written apart from the engine verifies; docs/certificates.md says what it proves.
+//
+// How each witness is obtained (the engine's elimination route, homology/homology.hpp):
+//   * generators and their bounding chains: homology() with generators and
+//     homology_options::witnesses — on the core left by the unit-pivot elimination,
+//     D_{k+1} V'[:, i] = e_i·(generator i) (the second Smith form's column transform), and
+//     both are lifted to the original cells by the same chain map;
+//   * cocycles: coordinate j of the engine's coordinates() is a linear form on k-chains —
+//     the push f of the elimination log (a chain map), then rows of U_M·V⁻¹ on the core. As a
+//     cochain it is the row of U_M V⁻¹ pulled back through the log (pull_cochains, the
+//     transpose of the push). It vanishes on boundaries, since coordinates of boundaries
+//     vanish (modulo d for a torsion coordinate), and it is 1 on generator j and 0 on the
+//     others (modulo d) because f∘g is the identity. These facts are what the checker
+//     verifies; nothing of this derivation is trusted;
+//   * rank witnesses, from the elimination log: the unit pivots (b, a) of each boundary map,
+//     in the log's order, are the first Gaussian pivots of the minor of ∂_k on the pivots'
+//     rows and the core rows (an elementary reduction takes a Schur complement in ∂_k and only
+//     deletes rows or columns of ∂_{k-1} and ∂_{k+1}); the elimination is repeated here mod p
+//     (as the checker repeats it) and pivots of the core are chosen as it goes. Over Z the
+//     unit pivots are ±1, so only the core depends on p: 2^31 − 1 first, then the next primes
+//     below it while the core's rank mod p falls short (p divides a torsion order). When the
+//     log does not give the ranks (over Q, whose unit pivots are any non-zero rationals), the
+//     boundary matrices of the whole complex are reduced mod p instead (reduce_chain_complex,
+//     algorithm/field_reduction.hpp): pivots by increasing reduced column have non-singular
+//     leading minors (the reduced pivot columns are the original ones times a unitriangular
+//     matrix, and with distinct lows they are triangular). Over Z/p, p itself.
+// Cost: that of homology() with generators and a kept basis, plus the pull of one cochain per
+// generator through the log (as the lift of the generators), plus a product of the kept core
+// transforms, plus the elimination of each boundary map mod p in the log's order (about what
+// the engine's elimination cost; docs/performance.md, "Certified homology").
+#pragma once
+
+#include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/field_reduction.hpp>
+#include <lacuna/chain/sparse_matrix.hpp>
+#include <lacuna/homology/certificate.hpp>
+#include <lacuna/homology/homology.hpp>
+#include <lacuna/ring/integer.hpp>
+#include <lacuna/ring/mod_p.hpp>
+#include <lacuna/ring/primality.hpp>
+#include <lacuna/ring/rational.hpp>
+
+#include <concepts>
+#include <cstdint>
+#include <stdexcept>
+#include <vector>
+
+namespace lacuna {
+
+/// The rings certified_homology works over: the integers, Q, and fields of a characteristic
+/// below 2^32 fixed at compile time (z2, mod_p<P>).
+template <class R>
+concept certifiable_ring = euclidean_domain<R> && (std::same_as<R, integer> || std::same_as<R, rational> ||
+                                                   (characteristic_v<R> != 0 && characteristic_v<R> < (std::uint64_t{1} << 32)));
+
+/// A homology result with generators and the certificate of its groups.
+template <class R>
+struct certified_homology_result {
+  homology_result<R> result;
+  homology_certificate<R> certificate;
+};
+
+namespace detail::certify {
+
+/// Rank witnesses of every ∂_k of c modulo p, or an empty vector when the ranks mod p do not
+/// account for the free ranks claimed in `rank` (p divides a torsion order).
+template <cell_complex C>
+std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std::vector<std::size_t>& rank,
+                                         const run_control* control) {
+  const int top = lacuna::top_dimension(c);
+  const mod_p_dynamic u(1, p);
+  std::vector<rank_witness> out(static_cast<std::size_t>(top) + 1);
+  // The direction of field_ranks.hpp's automatic choice: by coboundaries (the transposes, from
+  // dimension 1 up) when the top dimension holds more cells than the vertices — the fill-in of
+  // a triangulated surface reduced by boundaries is several times larger — else by boundaries.
+  const bool co = top >= 1 && lacuna::cell_count(c, top) > lacuna::cell_count(c, 0);
+  std::vector<sparse_matrix<mod_p_dynamic>> mats;
+  if (!co) {
+    for (int k = 1; k <= top; ++k) mats.push_back(boundary_matrix<mod_p_dynamic>(c, k, u));
+  } else {
+    for (int k = top; k >= 1; --k) {  // ∂_k^T: rows the k-cells, columns the (k-1)-cells
+      auto d = boundary_matrix<mod_p_dynamic>(c, k, u);
+      sparse_matrix<mod_p_dynamic> t(d.cols, d.rows);
+      for (std::size_t j = 0; j < d.cols; ++j)
+        for (const auto& e : d.columns[j]) t.add(j, e.index, e.value);
+      t.normalize();
+      mats.push_back(std::move(t));
+    }
+  }
+  const auto red = reduce_chain_complex(mats, {.control = control, .phase = "rank witnesses modulo a prime"});
+  for (int k = 1; k <= top; ++k) {
+    auto& w = out[static_cast<std::size_t>(k)];
+    w.prime = p;
+    // A pivot of ∂_k^T at (k-cell, (k-1)-cell) is one of ∂_k at ((k-1)-cell, k-cell).
+    for (const auto& pv : red[static_cast<std::size_t>(co ? top - k : k - 1)].pivots) {
+      w.rows.push_back(co ? pv.column : pv.row);
+      w.columns.push_back(co ? pv.row : pv.column);
+    }
+  }
+  for (int k = 0; k <= top; ++k) {
+    const std::size_t a = out[static_cast<std::size_t>(k)].rows.size();
+    const std::size_t b = k < top ? out[static_cast<std::size_t>(k) + 1].rows.size() : 0;
+    if (lacuna::cell_count(c, k) - a - b != rank[static_cast<std::size_t>(k)]) return {};
+  }
+  return out;
+}
+
+/// Rank witnesses of ∂_k read off the engine's elimination: the unit pivots (b, a) of the
+/// log at this level, in their order, are Gaussian pivots of ∂_k (an elimination step takes a
+/// Schur complement in ∂_k and only deletes rows or columns of the neighbouring boundary
+/// maps), followed by pivots of the core that are left, chosen here by a left-looking
+/// elimination mod p over the unit pivot rows and the core rows (the same elimination the
+/// checker repeats). Returns false if a unit pivot vanishes mod p (it cannot: each is ±1 after
+/// the eliminations before it), so the caller can fall back to the field reduction.
+template <class R, cell_complex C>
+bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::uint64_t p, rank_witness& w) {
+  w = {};
+  w.prime = p;
+  const std::size_t L = static_cast<std::size_t>(k);
+  for (const auto& st : basis.log.steps)
+    if (st.level == k) w.rows.push_back(st.b), w.columns.push_back(st.a);
+  const std::size_t units = w.rows.size();
+  std::vector<std::size_t> universe = w.rows;  // rows of the minor: unit pivot rows, then core rows
+  for (std::uint32_t r : basis.levels[L - 1].core) universe.push_back(r);
+  std::unordered_map<std::size_t, std::uint32_t> pos;
+  pos.reserve(universe.size());
+  for (std::size_t i = 0; i < universe.size(); ++i) pos.emplace(universe[i], static_cast<std::uint32_t>(i));
+  std::vector<std::int64_t> pivot_at(universe.size(), -1);  // position -> pivot index
+  for (std::size_t i = 0; i < units; ++i) pivot_at[i] = static_cast<std::int64_t>(i);
+  auto inverse = [p](std::uint64_t x) {
+    std::uint64_t r = 1, b = x % p, e = p - 2;
+    for (; e; e >>= 1, b = b * b % p)
+      if (e & 1) r = r * b % p;
+    return r;
+  };
+  std::vector<std::vector<std::pair<std::uint32_t, std::uint64_t>>> reduced;  // by pivot: (position, value)
+  std::vector<std::uint32_t> pivot_pos;                                       // by pivot: its position
+  std::vector<std::uint64_t> acc(universe.size(), 0);
+  std::vector<char> seen(universe.size(), 0);
+  std::vector<std::uint32_t> touched;
+  std::vector<std::int64_t> heap;  // pivot indices, smallest first
+  auto greater = [](std::int64_t a, std::int64_t b) { return a > b; };
+  std::vector<std::size_t> columns = w.columns;
+  for (std::uint32_t col : basis.levels[L].core) columns.push_back(col);
+  w.rows.clear(), w.columns.clear();
+  for (std::size_t j = 0; j < columns.size(); ++j) {
+    const std::int64_t limit = static_cast<std::int64_t>(reduced.size());  // pivots before this column
+    touched.clear(), heap.clear();
+    auto touch = [&](std::uint32_t q) {
+      if (seen[q]) return;
+      seen[q] = 1;
+      touched.push_back(q);
+      if (pivot_at[q] >= 0 && pivot_at[q] < limit) {
+        heap.push_back(pivot_at[q]);
+        std::push_heap(heap.begin(), heap.end(), greater);
+      }
+    };
+    for (auto&& v : lacuna::boundary(c, k, columns[j])) {
+      const auto [face, m] = cert::residue_of(v, p);
+      auto it = pos.find(face);
+      if (it == pos.end()) continue;
+      touch(it->second);
+      acc[it->second] = (acc[it->second] + m) % p;
+    }
+    while (!heap.empty()) {
+      std::pop_heap(heap.begin(), heap.end(), greater);
+      const auto t = static_cast<std::size_t>(heap.back());
+      heap.pop_back();
+      const std::uint64_t x = acc[pivot_pos[t]];
+      if (x == 0) continue;
+      const std::uint64_t f = x * inverse(reduced[t].front().second) % p;
+      for (const auto& [q, val] : reduced[t]) {
+        touch(q);
+        acc[q] = (acc[q] + p - f * val % p) % p;
+      }
+    }
+    std::int64_t chosen = -1;  // the position of this column's pivot
+    if (j < units) {
+      chosen = static_cast<std::int64_t>(j);
+      if (acc[j] == 0) chosen = -2;
+    } else {
+      for (std::uint32_t q : touched)
+        if (pivot_at[q] < 0 && acc[q] != 0 && (chosen < 0 || q < chosen)) chosen = q;
+    }
+    if (chosen >= 0) {
+      const auto q = static_cast<std::uint32_t>(chosen);
+      pivot_at[q] = static_cast<std::int64_t>(reduced.size());
+      std::vector<std::pair<std::uint32_t, std::uint64_t>> r{{q, acc[q]}};
+      for (std::uint32_t u : touched)
+        if (u != q && acc[u] != 0 && (pivot_at[u] < 0 || pivot_at[u] > pivot_at[q])) r.push_back({u, acc[u]});
+      reduced.push_back(std::move(r));
+      pivot_pos.push_back(q);
+      w.rows.push_back(universe[q]);
+      w.columns.push_back(columns[j]);
+    }
+    for (std::uint32_t u : touched) acc[u] = 0, seen[u] = 0;
+    if (chosen == -2) return false;
+  }
+  return true;
+}
+
+}  // namespace detail::certify
+
+/// The homology of c over R with generators, and a certificate of it: for every group, its
+/// generators, a cocycle per generator (identity pairing), a bounding chain per torsion
+/// generator, and rank witnesses of the boundary maps (homology/certificate.hpp). R models
+/// certifiable_ring; C models cell_complex. options: as for homology(); generators, a kept
+/// basis and witnesses are switched on; reduced homology is refused (std::invalid_argument).
+/// The result is what homology() with those options returns (the elimination route, without
+/// a Morse pre-reduction). check_certificate(c, r.certificate) verifies the certificate.
+template <certifiable_ring R, cell_complex C>
+certified_homology_result<R> certified_homology(const C& c, homology_options options = {}) {
+  if (options.reduced) throw std::invalid_argument("lacuna::certified_homology: reduced homology is not certified");
+  options.generators = true;
+  options.keep_basis = true;
+  options.witnesses = true;
+  certified_homology_result<R> out;
+  out.result = homology<R>(c, options, sparse_elimination{});
+  const auto& h = out.result;
+  if (!h.basis_ || h.project_) throw std::logic_error("lacuna::certified_homology: the engine kept no elimination basis");
+  const auto& basis = *h.basis_;
+  const int top = lacuna::top_dimension(c);
+  auto& cert = out.certificate;
+  for (int k = 0; k <= top; ++k) {
+    const auto& g = h[k];
+    certified_group<R> cg;
+    cg.dimension = k;
+    cg.rank = g.rank;
+    cg.torsion = g.torsion;
+    cg.generators = g.generators;
+    cg.bounding_chains = g.bounding_chains;
+    const std::size_t L = static_cast<std::size_t>(k);  // absolute homology: level = dimension
+    const auto& b = basis.levels[L];
+    if (!basis.from_original[L].empty()) throw std::logic_error("lacuna::certified_homology: cells were excluded");
+    // The coordinate forms on the level, in the order of the generators (coordinates_on_levels).
+    const std::size_t n = b.core.size(), kdim = n - b.r;
+    std::vector<level_chain<R>> forms;
+    for (std::uint32_t cell : b.isolated) forms.push_back({{cell, one<R>()}});
+    auto row = [&](std::size_t i) {  // row i of U_M · V_inv[r.., :], on the core cells
+      level_chain<R> f;
+      std::vector<R> v(n, zero<R>());
+      for (std::size_t t = 0; t < kdim; ++t) {
+        const R& u = b.U_M(i, t);
+        if (u == zero<R>()) continue;
+        for (std::size_t j = 0; j < n; ++j)
+          if (!(b.V_inv(b.r + t, j) == zero<R>())) v[j] += u * b.V_inv(b.r + t, j);
+      }
+      for (std::size_t j = 0; j < n; ++j)
+        if (!(v[j] == zero<R>())) f.push_back({b.core[j], v[j]});
+      return f;
+    };
+    std::vector<R> moduli(b.isolated.size(), zero<R>());
+    for (std::size_t i = b.factors.size(); i < kdim; ++i) forms.push_back(row(i)), moduli.push_back(zero<R>());
+    for (std::size_t i = 0; i < b.factors.size(); ++i)
+      if (!detail::ring_is_unit(b.factors[i])) forms.push_back(row(i)), moduli.push_back(b.factors[i]);
+    auto pulled = pull_cochains(basis.log, static_cast<int>(L), basis.level_sizes[L], forms, &options.control);
+    for (std::size_t j = 0; j < pulled.size(); ++j) {
+      chain<R> phi{k, {}};
+      for (const auto& e : pulled[j]) {
+        R v = moduli[j] == zero<R>() ? e.value : detail::canonical_residue(e.value, moduli[j]);
+        if (!(v == zero<R>())) phi.terms.push_back({e.index, std::move(v)});
+      }
+      cg.cocycles.push_back(std::move(phi));
+    }
+    cert.groups.push_back(std::move(cg));
+  }
+  // Rank witnesses: from the elimination log first (no new reduction of the complex), else
+  // from a field reduction of the whole complex.
+  std::vector<std::size_t> ranks;
+  for (const auto& g : h.groups) ranks.push_back(g.rank);
+  auto from_log = [&](std::uint64_t p) {
+    std::vector<rank_witness> out(static_cast<std::size_t>(top) + 1);
+    for (int k = 1; k <= top; ++k)
+      if (!detail::certify::log_rank_witness(c, k, basis, p, out[static_cast<std::size_t>(k)])) return false;
+    for (int k = 0; k <= top; ++k) {
+      const std::size_t a = out[static_cast<std::size_t>(k)].rows.size();
+      const std::size_t b = k < top ? out[static_cast<std::size_t>(k) + 1].rows.size() : 0;
+      if (lacuna::cell_count(c, k) - a - b != ranks[static_cast<std::size_t>(k)]) return false;
+    }
+    cert.ranks = std::move(out);
+    return true;
+  };
+  if constexpr (characteristic_v<R> != 0) {
+    from_log(characteristic_v<R>);
+  } else {
+    std::uint64_t p = (std::uint64_t{1} << 31) - 1;
+    for (int tries = 0; tries < 4 && top >= 1; ++tries, --p) {
+      while (!is_prime(p)) --p;
+      if (from_log(p)) break;
+    }
+  }
+  if (!cert.ranks.empty() || top < 1) {
+    if (top == 0) cert.ranks.assign(1, {});
+  } else if constexpr (characteristic_v<R> != 0) {
+    cert.ranks = detail::certify::rank_witnesses(c, characteristic_v<R>, ranks, &options.control);
+  } else {
+    std::uint64_t p = (std::uint64_t{1} << 31) - 1;
+    for (int tries = 0; tries < 16 && cert.ranks.empty(); ++tries, --p) {
+      while (!is_prime(p)) --p;
+      cert.ranks = detail::certify::rank_witnesses(c, p, ranks, &options.control);
+    }
+  }
+  if (cert.ranks.empty() && top >= 0)
+    throw std::logic_error("lacuna::certified_homology: no prime tried gives ranks that account for the free ranks");
+  if (top < 0) cert.ranks.clear();
+  return out;
+}
+
+}  // namespace lacuna
