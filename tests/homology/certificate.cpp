@@ -4,7 +4,7 @@
 // boundary, two orders swapped, one coefficient of a witness perturbed — is rejected, naming
 // the group (and the generator or torsion factor) that is wrong.
 #include "homology/support.hpp"
-#include "mutations.hpp"
+#include "homology/certificate_mutations.hpp"
 
 #include "cubical/volume_support.hpp"
 
@@ -18,7 +18,7 @@
 
 #include <functional>
 
-namespace certificate_certificate_test {
+namespace homology_certificate_test {
 
 using namespace lacuna_test;
 using namespace certificate_mutations;
@@ -183,4 +183,4 @@ TEST_CASE("a certificate is refused for a complex whose boundary of a boundary i
   CHECK(rep.first_failure.find("not a chain complex") != std::string::npos);
 }
 
-}  // namespace certificate_certificate_test
+}  // namespace homology_certificate_test

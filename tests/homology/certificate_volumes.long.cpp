@@ -3,11 +3,11 @@
 // components and Alexander duality), and every mutation is rejected with the group and
 // generator named.
 #include "cubical/volume_support.hpp"
-#include "mutations.hpp"
+#include "homology/certificate_mutations.hpp"
 
 #include <lacuna/complex/cubical_complex.hpp>
 
-namespace certificate_volumes_test {
+namespace homology_certificate_volumes_test {
 
 using namespace certificate_mutations;
 
@@ -31,4 +31,4 @@ TEST_CASE("certificates of porous and coin-flip volumes of 10^6 cells and more")
   certify_volume(lacuna_volumes::coin_flip_volume(64, 0.5, 7), 1'000'000);    // 1.75 M cells, b1 about 19 000
 }
 
-}  // namespace certificate_volumes_test
+}  // namespace homology_certificate_volumes_test

@@ -12,7 +12,7 @@
 
 #include <random>
 
-namespace certificate_pull_cochains_test {
+namespace homology_pull_cochains_test {
 
 using lacuna::integer;
 
@@ -72,4 +72,4 @@ TEST_CASE("pull_cochains is the transpose of push_chain") {
   CHECK(compared > 50);
 }
 
-}  // namespace certificate_pull_cochains_test
+}  // namespace homology_pull_cochains_test
