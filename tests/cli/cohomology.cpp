@@ -241,6 +241,37 @@ TEST_CASE("the text output") {
   CHECK(r.out.find("H_") == std::string::npos);
 }
 
+TEST_CASE("the examples of docs/cli.md, *Cohomology*, byte for byte") {
+  // The page's examples, run on the files of tests/data/cli (named there without a directory).
+  const std::string rp2 = data("projective_plane.cells").string();
+  auto r = run({"cohomology", rp2});
+  REQUIRE(r.status == 0);
+  CHECK(r.out ==
+        "cohomology of " + rp2 +
+            " over Z\ncells: 1 in dimension 0, 1 in dimension 1, 1 in dimension 2\nEuler characteristic: 1\n"
+            "H^0 = Z\nH^1 = 0\nH^2 = Z/2\n");
+  r = run({"cohomology", "--json", "--generators", data("torus.cells").string()});
+  REQUIRE(r.status == 0);
+  CHECK(r.out == R"({
+  "coefficients": "Z",
+  "cells": [1, 3, 2],
+  "euler_characteristic": 0,
+  "cohomology": [
+    {"dimension": 0, "rank": 1, "torsion": [], "generators": [
+      {"order": 0, "cochain": [[1, "v"]]}
+    ]},
+    {"dimension": 1, "rank": 2, "torsion": [], "generators": [
+      {"order": 0, "cochain": [[-1, "a"], [1, "b"]]},
+      {"order": 0, "cochain": [[1, "a"], [1, "c"]]}
+    ]},
+    {"dimension": 2, "rank": 1, "torsion": [], "generators": [
+      {"order": 0, "cochain": [[1, "L"]]}
+    ]}
+  ]
+}
+)");
+}
+
 TEST_CASE("universal coefficients: H^n(X; Z) = Z^{rank H_n} + torsion H_{n-1}, on random complexes") {
   // Hatcher 2002, Theorem 3.2 (Ext(H_{n-1}, Z) is the torsion of H_{n-1}, Hom(H_n, Z) free of
   // rank H_n), with homology and cohomology both computed by the tool; over a field F,
