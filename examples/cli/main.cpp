@@ -8,6 +8,7 @@
 #include <lacuna/homology/exact_sequence.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/homology/memory_estimate.hpp>
+#include <lacuna/homology/universal_coefficients.hpp>
 #include <lacuna/io/cells.hpp>
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/line_reader.hpp>
@@ -344,6 +345,7 @@ struct run_options {
   std::string relative;  ///< SUB of --relative (or of the sequence subcommand); empty: none
   bool cohomology = false;  ///< the cohomology subcommand: H^k with cocycle generators
   bool reduced = false;     ///< homology --reduced: the homology of the augmented complex
+  bool check = false;       ///< homology --check: Euler and universal-coefficient identities
   coefficients co;
   bool generators = false;
   bool json = false;
@@ -381,7 +383,7 @@ lacuna::io::facets_read_options facets_options(const run_options& o) {
 
 template <class R, class C>
 void report(const C& cx, const lacuna::homology_result<R>& h, const run_options& o, std::string& out,
-            const marks_t* marks = nullptr) {
+            const marks_t* marks = nullptr, const std::vector<lacuna::identity_check>* checks = nullptr) {
   const int top = lacuna::top_dimension(cx);
   std::vector<std::size_t> cells;
   // Of a pair (X, A): the cells of X not in A, which span the relative chain complex.
@@ -456,6 +458,16 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
       out += "}";
     }
     out += h.groups.empty() ? "]" : "\n  ]";
+    if (checks) {  // --check: after the fixed keys (an extension, docs/cli.md)
+      out += ",\n  \"checks\": [";
+      for (std::size_t i = 0; i < checks->size(); ++i) {
+        const auto& c = (*checks)[i];
+        out += i ? ",\n    {\"statement\": " : "\n    {\"statement\": ";
+        append_json_string(out, c.statement);
+        out += ", \"predicted\": " + c.predicted + ", \"computed\": " + c.computed + ", \"holds\": true}";
+      }
+      out += checks->empty() ? "]" : "\n  ]";
+    }
     out += "\n}\n";
     return;
   }
@@ -486,6 +498,8 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
       out += "\n";
     }
   }
+  if (checks)
+    for (const auto& c : *checks) out += "check: " + c.statement + ": " + c.predicted + " = " + c.computed + "\n";
 }
 
 void write_out(const std::string& out) {
@@ -508,6 +522,51 @@ void reserve_memory(const lacuna::memory_estimate& e, lacuna::run_control& contr
   control.memory_limit = std::max<std::uint64_t>(lacuna_cli::budget.bytes - needed, 1);
 }
 
+/// --check: the identities the groups `h` (over R, of FILE or of the pair) must satisfy. The
+/// Euler characteristic from the cell counts against the alternating sum of the ranks (Hatcher,
+/// Algebraic Topology, 2002, Theorem 2.44; it holds over any field and for the free ranks over
+/// Z; for a pair the cells counted are those of the quotient; reduced, the augmented complex has
+/// one more cell, in dimension -1). Over a field F, hz the integral groups of the same complex:
+/// dim H_k(F) predicted by universal coefficients (Theorem 3A.3): over Q the free rank of H_k(Z),
+/// over Z/p that plus the number of torsion factors of H_k(Z) and of H_{k-1}(Z) that p divides.
+/// Both sides are exact integers, each computed on its own (cells counted, groups eliminated).
+template <class R>
+std::vector<lacuna::identity_check> group_checks(const lacuna::homology_result<R>& h, std::int64_t chi_cells,
+                                                 const lacuna::homology_result<lacuna::integer>* hz,
+                                                 const run_options& o) {
+  std::vector<lacuna::identity_check> out;
+  const std::string H = o.reduced ? "H~" : "H";
+  std::int64_t alternating = 0;
+  for (const auto& g : h.groups) alternating += (g.dimension % 2 == 0 ? 1 : -1) * static_cast<std::int64_t>(g.rank);
+  const std::int64_t predicted = o.reduced ? chi_cells - 1 : chi_cells;
+  out.push_back({std::string(o.reduced ? "χ − 1" : "χ") + " from the cells = Σ (-1)^k " +
+                     (o.co.k == coefficients::integers ? "rank " : "dim ") + H + "_k",
+                 std::to_string(predicted), std::to_string(alternating), predicted == alternating});
+  if (!hz) return out;
+  auto divisible = [&](const std::vector<lacuna::integer>& t) {
+    std::size_t n = 0;
+    for (const auto& x : t)
+      if (lacuna::div_rem(x, lacuna::integer(static_cast<std::int64_t>(o.co.p))).remainder == lacuna::integer(0)) ++n;
+    return n;
+  };
+  for (const auto& g : h.groups) {
+    const int k = g.dimension;
+    const auto& z = (*hz)[k];
+    std::size_t p = z.rank;
+    const std::string K = std::to_string(k);
+    std::string why = "rank " + H + "_" + K + "(Z)";
+    if (o.co.k == coefficients::mod_p) {
+      const std::string P = std::to_string(o.co.p);
+      p += divisible(z.torsion) + (k > 0 ? divisible((*hz)[k - 1].torsion) : 0);
+      why += " + #{" + P + " | torsion of " + H + "_" + K + "(Z)}";
+      if (k > 0) why += " + #{" + P + " | torsion of " + H + "_" + std::to_string(k - 1) + "(Z)}";
+    }
+    out.push_back({"dim " + H + "_" + K + "(" + o.co.text + ") = " + why, std::to_string(p), std::to_string(g.rank),
+                   p == g.rank && g.torsion.empty()});
+  }
+  return out;
+}
+
 template <class C>
 void compute_and_report(const C& cx, const run_options& o, progress_line& progress, const marks_t* marks = nullptr) {
   // The augmented complex of the empty complex has its one group, Z, in dimension -1, which
@@ -526,12 +585,38 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
     // Cohomology runs the same elimination on the dual (transposed) chain complex, of the same
     // size: the homology estimate is its estimate too.
     reserve_memory(lacuna::estimate_homology_memory<R>(cx, ho, algorithm_for<C>(o)), ho.control);
-    if (o.cohomology)
+    if (o.cohomology) {
       report(cx, lacuna::cohomology<R>(cx, ho, algorithm_for<C>(o), unit), o, out);
-    else if (marks)
-      report(cx, lacuna::relative_homology<R>(cx, *marks, ho, algorithm_for<C>(o), unit), o, out, marks);
-    else
-      report(cx, lacuna::homology<R>(cx, ho, algorithm_for<C>(o), unit), o, out);
+      return;
+    }
+    auto compute = [&]<class S>(const S& u, const lacuna::homology_options& opt) {
+      return marks ? lacuna::relative_homology<S>(cx, *marks, opt, algorithm_for<C>(o), u)
+                   : lacuna::homology<S>(cx, opt, algorithm_for<C>(o), u);
+    };
+    const auto h = compute(unit, ho);
+    if (!o.check) return report(cx, h, o, out, marks);
+    // --check: over a field, the integral groups too (ranks and torsion, no generators)
+    std::optional<lacuna::homology_result<lacuna::integer>> hz;
+    if constexpr (!std::same_as<R, lacuna::integer>) {
+      lacuna::homology_options zo = ho;
+      zo.generators = false;
+      reserve_memory(lacuna::estimate_homology_memory<lacuna::integer>(cx, zo, algorithm_for<C>(o)), zo.control);
+      hz = compute(lacuna::one<lacuna::integer>(), zo);
+    }
+    std::int64_t chi = 0;
+    for (int k = 0; k <= lacuna::top_dimension(cx); ++k) {
+      std::int64_t n = static_cast<std::int64_t>(lacuna::cell_count(cx, k));
+      if (marks)
+        for (bool b : (*marks)[static_cast<std::size_t>(k)]) n -= b ? 1 : 0;
+      chi += (k % 2 == 0 ? 1 : -1) * n;
+    }
+    const auto checks = group_checks(h, chi, hz ? &*hz : nullptr, o);
+    // A failed identity means a fault of the tool: no result is printed (exit status 2).
+    for (const auto& c : checks)
+      if (!c.holds)
+        throw std::runtime_error("--check failed: " + c.statement + ": " + c.predicted + " predicted, " + c.computed +
+                                 " computed; no result was printed (please report this)");
+    report(cx, h, o, out, marks, &checks);
   };
   switch (o.co.k) {
     case coefficients::integers:
@@ -958,6 +1043,9 @@ int main(int argc, char** argv) {
   auto* hom = app.add_subcommand("homology", "homology groups (ranks and torsion), optionally with generators");
   add_group_options(hom, o, hom_texts, "print one cycle per free summand and per torsion factor");
   hom->add_flag("--reduced", o.reduced, "reduced homology: H_0 one rank smaller, the same groups above");
+  hom->add_flag("--check", o.check,
+                "also check the Euler characteristic against the ranks and, over Q or Z/p, each dimension "
+                "against universal coefficients from the groups over Z");
   hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
       ->type_name("SUB");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
