@@ -142,4 +142,19 @@ TEST_CASE("with --generators, and in the text output") {
   CHECK(run({"homology", "--json", data("klein_bottle.cells").string()}).out.find("checks") == std::string::npos);
 }
 
+TEST_CASE("the example of docs/cli.md, *Checks*, byte for byte") {
+  const std::string file = data("klein_bottle.cells").string();
+  const auto r = run({"homology", "--check", "--coefficients", "Z/2", file});
+  REQUIRE(r.status == 0);
+  CHECK(r.out == "homology of " + file +
+                     " over Z/2\n"
+                     "cells: 1 in dimension 0, 2 in dimension 1, 1 in dimension 2\n"
+                     "Euler characteristic: 0\n"
+                     "H_0 = Z/2\nH_1 = (Z/2)^2\nH_2 = Z/2\n"
+                     "check: χ from the cells = Σ (-1)^k dim H_k: 0 = 0\n"
+                     "check: dim H_0(Z/2) = rank H_0(Z) + #{2 | torsion of H_0(Z)}: 1 = 1\n"
+                     "check: dim H_1(Z/2) = rank H_1(Z) + #{2 | torsion of H_1(Z)} + #{2 | torsion of H_0(Z)}: 2 = 2\n"
+                     "check: dim H_2(Z/2) = rank H_2(Z) + #{2 | torsion of H_2(Z)} + #{2 | torsion of H_1(Z)}: 1 = 1\n");
+}
+
 }  // namespace cli_check_test
