@@ -1042,7 +1042,7 @@ int main(int argc, char** argv) {
   option_texts hom_texts;
   auto* hom = app.add_subcommand("homology", "homology groups (ranks and torsion), optionally with generators");
   add_group_options(hom, o, hom_texts, "print one cycle per free summand and per torsion factor");
-  hom->add_flag("--reduced", o.reduced, "reduced homology: H_0 one rank smaller, the same groups above");
+  hom->add_flag("--reduced", o.reduced, "reduced homology (of the augmented complex): H_0 has one free summand fewer, the other groups are the same");
   hom->add_flag("--check", o.check,
                 "also check the Euler characteristic against the ranks and, over Q or Z/p, each dimension "
                 "against universal coefficients from the groups over Z");
