@@ -10,6 +10,7 @@
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/io/certificate_json.hpp>
 #include <lacuna/homology/memory_estimate.hpp>
+#include <lacuna/homology/universal_coefficients.hpp>
 #include <lacuna/io/cells.hpp>
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/line_reader.hpp>
@@ -344,6 +345,9 @@ using marks_t = std::vector<std::vector<bool>>;
 struct run_options {
   std::string file;
   std::string relative;  ///< SUB of --relative (or of the sequence subcommand); empty: none
+  bool cohomology = false;  ///< the cohomology subcommand: H^k with cocycle generators
+  bool reduced = false;     ///< homology --reduced: the homology of the augmented complex
+  bool check = false;       ///< homology --check: Euler and universal-coefficient identities
   coefficients co;
   bool generators = false;
   bool json = false;
@@ -382,7 +386,7 @@ lacuna::io::facets_read_options facets_options(const run_options& o) {
 
 template <class R, class C>
 void report(const C& cx, const lacuna::homology_result<R>& h, const run_options& o, std::string& out,
-            const marks_t* marks = nullptr) {
+            const marks_t* marks = nullptr, const std::vector<lacuna::identity_check>* checks = nullptr) {
   const int top = lacuna::top_dimension(cx);
   std::vector<std::size_t> cells;
   // Of a pair (X, A): the cells of X not in A, which span the relative chain complex.
@@ -415,6 +419,7 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
       out += ",\n  \"relative_to\": ";
       append_json_string(out, o.relative);
     }
+    if (o.reduced) out += ",\n  \"reduced\": true";
     out += ",\n  \"cells\": [";
     for (std::size_t k = 0; k < cells.size(); ++k) {
       if (k) out += ", ";
@@ -422,7 +427,8 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
     }
     out += "],\n  \"euler_characteristic\": ";
     num(chi);
-    out += ",\n  \"homology\": [";
+    // cohomology: the same layout under the key "cohomology", cochains under "cochain"
+    out += o.cohomology ? ",\n  \"cohomology\": [" : ",\n  \"homology\": [";
     for (std::size_t k = 0; k < h.groups.size(); ++k) {
       const auto& g = h.groups[k];
       out += k ? ",\n" : "\n";
@@ -440,7 +446,7 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
           const auto& ch = g.generators[i];
           const auto coeffs = chain_coefficients(ch, o.co);
           out += i ? ",\n      " : "\n      ";
-          out += "{\"order\": " + order_text(g, i) + ", \"chain\": [";
+          out += "{\"order\": " + order_text(g, i) + (o.cohomology ? ", \"cochain\": [" : ", \"chain\": [");
           for (std::size_t j = 0; j < coeffs.size(); ++j) {
             out += j ? ", [" : "[";
             out += coeffs[j];
@@ -455,17 +461,29 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
       out += "}";
     }
     out += h.groups.empty() ? "]" : "\n  ]";
+    if (checks) {  // --check: after the fixed keys (an extension, docs/cli.md)
+      out += ",\n  \"checks\": [";
+      for (std::size_t i = 0; i < checks->size(); ++i) {
+        const auto& c = (*checks)[i];
+        out += i ? ",\n    {\"statement\": " : "\n    {\"statement\": ";
+        append_json_string(out, c.statement);
+        out += ", \"predicted\": " + c.predicted + ", \"computed\": " + c.computed + ", \"holds\": true}";
+      }
+      out += checks->empty() ? "]" : "\n  ]";
+    }
     out += "\n}\n";
     return;
   }
-  out += "homology of " + o.file + (o.relative.empty() ? "" : " relative to " + o.relative) + " over " + o.co.text + "\n";
+  out += std::string(o.reduced ? "reduced " : "") + (o.cohomology ? "cohomology" : "homology") + " of " + o.file +
+         (o.relative.empty() ? "" : " relative to " + o.relative) + " over " + o.co.text + "\n";
   out += "cells:";
   if (cells.empty()) out += " none (the empty complex)";
   for (std::size_t k = 0; k < cells.size(); ++k)
     out += (k ? ", " : " ") + std::to_string(cells[k]) + " in dimension " + std::to_string(k);
   out += "\nEuler characteristic: " + std::to_string(chi) + "\n";
   for (const auto& g : h.groups) {
-    out += "H_" + std::to_string(g.dimension) + " = " + group_text(g.rank, torsion_texts(g), o.co) + "\n";
+    out += (o.cohomology ? "H^" : "H_") + std::to_string(g.dimension) + " = " + group_text(g.rank, torsion_texts(g), o.co) +
+           "\n";
     if (!o.generators) continue;
     for (std::size_t i = 0; i < g.generators.size(); ++i) {
       const auto& ch = g.generators[i];
@@ -483,6 +501,8 @@ void report(const C& cx, const lacuna::homology_result<R>& h, const run_options&
       out += "\n";
     }
   }
+  if (checks)
+    for (const auto& c : *checks) out += "check: " + c.statement + ": " + c.predicted + " = " + c.computed + "\n";
 }
 
 void write_out(const std::string& out) {
@@ -505,12 +525,62 @@ void reserve_memory(const lacuna::memory_estimate& e, lacuna::run_control& contr
   control.memory_limit = std::max<std::uint64_t>(lacuna_cli::budget.bytes - needed, 1);
 }
 
+/// --check: the identities the groups `h` (over R, of FILE or of the pair) must satisfy. The
+/// Euler characteristic from the cell counts against the alternating sum of the ranks (Hatcher,
+/// Algebraic Topology, 2002, Theorem 2.44; it holds over any field and for the free ranks over
+/// Z; for a pair the cells counted are those of the quotient; reduced, the augmented complex has
+/// one more cell, in dimension -1). Over a field F, hz the integral groups of the same complex:
+/// dim H_k(F) predicted by universal coefficients (Theorem 3A.3): over Q the free rank of H_k(Z),
+/// over Z/p that plus the number of torsion factors of H_k(Z) and of H_{k-1}(Z) that p divides.
+/// Both sides are exact integers, each computed on its own (cells counted, groups eliminated).
+template <class R>
+std::vector<lacuna::identity_check> group_checks(const lacuna::homology_result<R>& h, std::int64_t chi_cells,
+                                                 const lacuna::homology_result<lacuna::integer>* hz,
+                                                 const run_options& o) {
+  std::vector<lacuna::identity_check> out;
+  const std::string H = o.reduced ? "H~" : "H";
+  std::int64_t alternating = 0;
+  for (const auto& g : h.groups) alternating += (g.dimension % 2 == 0 ? 1 : -1) * static_cast<std::int64_t>(g.rank);
+  const std::int64_t predicted = o.reduced ? chi_cells - 1 : chi_cells;
+  out.push_back({std::string(o.reduced ? "χ − 1" : "χ") + " from the cells = Σ (-1)^k " +
+                     (o.co.k == coefficients::integers ? "rank " : "dim ") + H + "_k",
+                 std::to_string(predicted), std::to_string(alternating), predicted == alternating});
+  if (!hz) return out;
+  auto divisible = [&](const std::vector<lacuna::integer>& t) {
+    std::size_t n = 0;
+    for (const auto& x : t)
+      if (lacuna::div_rem(x, lacuna::integer(static_cast<std::int64_t>(o.co.p))).remainder == lacuna::integer(0)) ++n;
+    return n;
+  };
+  for (const auto& g : h.groups) {
+    const int k = g.dimension;
+    const auto& z = (*hz)[k];
+    std::size_t p = z.rank;
+    const std::string K = std::to_string(k);
+    std::string why = "rank " + H + "_" + K + "(Z)";
+    if (o.co.k == coefficients::mod_p) {
+      const std::string P = std::to_string(o.co.p);
+      p += divisible(z.torsion) + (k > 0 ? divisible((*hz)[k - 1].torsion) : 0);
+      why += " + #{" + P + " | torsion of " + H + "_" + K + "(Z)}";
+      if (k > 0) why += " + #{" + P + " | torsion of " + H + "_" + std::to_string(k - 1) + "(Z)}";
+    }
+    out.push_back({"dim " + H + "_" + K + "(" + o.co.text + ") = " + why, std::to_string(p), std::to_string(g.rank),
+                   p == g.rank && g.torsion.empty()});
+  }
+  return out;
+}
+
 template <class C>
 void compute_and_report(const C& cx, const run_options& o, progress_line& progress, const marks_t* marks = nullptr) {
-  progress.phase("computing homology");
+  // The augmented complex of the empty complex has its one group, Z, in dimension -1, which
+  // the layout of docs/formats.md (dimensions 0 .. top) cannot hold: refused, not printed as [].
+  if (o.reduced && lacuna::top_dimension(cx) < 0)
+    throw usage_error(o.file + ": the complex is empty: its reduced homology is Z in dimension -1, which --reduced "
+                               "does not print");
+  progress.phase(o.cohomology ? "computing cohomology" : "computing homology");
   // Generators without coordinates: the tool never asks for classes of other cycles.
   // Both cores where the work splits: lacuna's own complexes are safe to read from two threads.
-  lacuna::homology_options ho{.generators = o.generators, .keep_basis = false, .threads = 2};
+  lacuna::homology_options ho{.generators = o.generators, .reduced = o.reduced, .keep_basis = false, .threads = 2};
   if (interrupts) ho.control.stop = interrupts->token();
   ho.control.progress = [&progress](const lacuna::progress_report& r) { progress.report(r); };
   std::string out;  // nothing reaches stdout until the whole answer is known
@@ -542,11 +612,41 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
     return;
   }
   auto go = [&]<class R>(const R& unit) {
+    // Cohomology runs the same elimination on the dual (transposed) chain complex, of the same
+    // size: the homology estimate is its estimate too.
     reserve_memory(lacuna::estimate_homology_memory<R>(cx, ho, algorithm_for<C>(o)), ho.control);
-    if (marks)
-      report(cx, lacuna::relative_homology<R>(cx, *marks, ho, algorithm_for<C>(o), unit), o, out, marks);
-    else
-      report(cx, lacuna::homology<R>(cx, ho, algorithm_for<C>(o), unit), o, out);
+    if (o.cohomology) {
+      report(cx, lacuna::cohomology<R>(cx, ho, algorithm_for<C>(o), unit), o, out);
+      return;
+    }
+    auto compute = [&]<class S>(const S& u, const lacuna::homology_options& opt) {
+      return marks ? lacuna::relative_homology<S>(cx, *marks, opt, algorithm_for<C>(o), u)
+                   : lacuna::homology<S>(cx, opt, algorithm_for<C>(o), u);
+    };
+    const auto h = compute(unit, ho);
+    if (!o.check) return report(cx, h, o, out, marks);
+    // --check: over a field, the integral groups too (ranks and torsion, no generators)
+    std::optional<lacuna::homology_result<lacuna::integer>> hz;
+    if constexpr (!std::same_as<R, lacuna::integer>) {
+      lacuna::homology_options zo = ho;
+      zo.generators = false;
+      reserve_memory(lacuna::estimate_homology_memory<lacuna::integer>(cx, zo, algorithm_for<C>(o)), zo.control);
+      hz = compute(lacuna::one<lacuna::integer>(), zo);
+    }
+    std::int64_t chi = 0;
+    for (int k = 0; k <= lacuna::top_dimension(cx); ++k) {
+      std::int64_t n = static_cast<std::int64_t>(lacuna::cell_count(cx, k));
+      if (marks)
+        for (bool b : (*marks)[static_cast<std::size_t>(k)]) n -= b ? 1 : 0;
+      chi += (k % 2 == 0 ? 1 : -1) * n;
+    }
+    const auto checks = group_checks(h, chi, hz ? &*hz : nullptr, o);
+    // A failed identity means a fault of the tool: no result is printed (exit status 2).
+    for (const auto& c : checks)
+      if (!c.holds)
+        throw std::runtime_error("--check failed: " + c.statement + ": " + c.predicted + " predicted, " + c.computed +
+                                 " computed; no result was printed (please report this)");
+    report(cx, h, o, out, marks, &checks);
   };
   switch (o.co.k) {
     case coefficients::integers:
@@ -932,6 +1032,33 @@ std::string one_line(std::string s) {
   return s;
 }
 
+/// The text of the options that homology and cohomology share, read once the command line is
+/// parsed (numbers by lacuna_cli::parse_number, coefficients by parse_coefficients).
+struct option_texts {
+  std::string coefficients = "Z";
+  std::optional<std::string> threshold, max_cells, max_facet, max_memory;
+};
+
+/// Adds the options that homology and cohomology share, in the order --help lists them.
+void add_group_options(CLI::App* c, run_options& r, option_texts& t, const char* generators_help) {
+  c->add_option("--coefficients", t.coefficients, "Z (default), Q, or Z/p for a prime p");
+  c->add_flag("--generators", r.generators, generators_help);
+  c->add_flag("--json", r.json, "one JSON object (docs/formats.md)");
+  c->add_flag("--quiet", r.quiet, "no progress on stderr");
+  c->add_option("--threshold", t.threshold, "images and volumes: foreground is a value >= T")->type_name("T");
+  c->add_option("--max-facet-vertices", t.max_facet, ".facets: refuse a line of more labels than this (default 20)")
+      ->type_name("N");
+  c->add_option("--max-cells", t.max_cells, "refuse inputs announcing more cells than this")->type_name("N");
+  c->add_option("--max-memory", t.max_memory,
+                "refuse a computation that would need more memory than this (bytes, or with K, M, G, T; "
+                "default: a quarter of the machine's memory)")
+      ->type_name("SIZE");
+  c->add_option("--reduction", r.reduction,
+                "before the algebra: auto (default: morse for images and volumes, both otherwise), "
+                "none, collapses, coreductions, both, morse")
+      ->check(CLI::IsMember({"auto", "none", "collapses", "coreductions", "both", "morse"}));
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -942,32 +1069,30 @@ int main(int argc, char** argv) {
   // tool's one number parser: CLI11's own conversion reads 010 as octal and "" as no value.
   app.require_subcommand(1);
   run_options o;
-  std::string coeff_text = "Z";
-  std::optional<std::string> threshold_text, max_cells_text, max_facet_text, max_memory_text;
+  option_texts hom_texts;
   auto* hom = app.add_subcommand("homology", "homology groups (ranks and torsion), optionally with generators");
-  hom->add_option("--coefficients", coeff_text, "Z (default), Q, or Z/p for a prime p");
-  hom->add_flag("--generators", o.generators, "print one cycle per free summand and per torsion factor");
-  hom->add_flag("--json", o.json, "one JSON object (docs/formats.md)");
-  hom->add_flag("--quiet", o.quiet, "no progress on stderr");
-  hom->add_option("--threshold", threshold_text, "images and volumes: foreground is a value >= T")->type_name("T");
-  hom->add_option("--max-facet-vertices", max_facet_text,
-                  ".facets: refuse a line of more labels than this (default 20)")
-      ->type_name("N");
-  hom->add_option("--max-cells", max_cells_text, "refuse inputs announcing more cells than this")->type_name("N");
-  hom->add_option("--max-memory", max_memory_text,
-                  "refuse a computation that would need more memory than this (bytes, or with K, M, G, T; "
-                  "default: a quarter of the machine's memory)")
-      ->type_name("SIZE");
-  hom->add_option("--reduction", o.reduction,
-                  "before the algebra: auto (default: morse for images and volumes, both otherwise), "
-                  "none, collapses, coreductions, both, morse")
-      ->check(CLI::IsMember({"auto", "none", "collapses", "coreductions", "both", "morse"}));
+  add_group_options(hom, o, hom_texts, "print one cycle per free summand and per torsion factor");
+  hom->add_flag("--reduced", o.reduced, "reduced homology (of the augmented complex): H_0 has one free summand fewer, the other groups are the same");
+  hom->add_flag("--check", o.check,
+                "also check the Euler characteristic against the ranks and, over Q or Z/p, each dimension "
+                "against universal coefficients from the groups over Z");
   hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
       ->type_name("SUB");
   hom->add_option("--certificate", o.certificate,
                   "also write a certificate of the groups (over Z or Z/2; docs/certificates.md)")
       ->type_name("OUT.json");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
+  run_options cob;
+  cob.cohomology = true;
+  option_texts coh_texts;
+  auto* coh = app.add_subcommand("cohomology", "cohomology groups (ranks and torsion), optionally with cocycle generators");
+  add_group_options(coh, cob, coh_texts, "print one cocycle per free summand and per torsion factor");
+  // Not offered for cohomology; taken (and not listed by --help) to be refused with a reason.
+  std::optional<std::string> coh_relative;
+  bool coh_reduced = false;
+  coh->add_option("--relative", coh_relative)->group("");
+  coh->add_flag("--reduced", coh_reduced)->group("");
+  coh->add_option("FILE", cob.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   run_options so;
   std::string seq_coeff_text = "Z";
   std::optional<std::string> seq_max_cells_text, seq_max_facet_text, seq_max_memory_text;
@@ -1018,8 +1143,21 @@ int main(int argc, char** argv) {
       throw usage_error("lacuna: " + msg + " (lacuna --help)");
     }
     if (hom->parsed()) {
-      read_numbers(o, threshold_text, max_cells_text, max_facet_text, max_memory_text);
-      o.co = parse_coefficients(coeff_text);
+      read_numbers(o, hom_texts.threshold, hom_texts.max_cells, hom_texts.max_facet, hom_texts.max_memory);
+      o.co = parse_coefficients(hom_texts.coefficients);
+      if (o.reduced && !o.relative.empty())
+        throw usage_error("lacuna: --reduced does not apply to a pair (--relative): the homology of a pair is not "
+                          "augmented, and for SUB not empty it is already the reduced one");
+    }
+    if (coh->parsed()) {
+      if (coh_relative)
+        throw usage_error("lacuna: cohomology: --relative is not offered (relative cohomology is not computed by the "
+                          "tool; lacuna homology --relative gives relative homology)");
+      if (coh_reduced)
+        throw usage_error("lacuna: cohomology: --reduced is not offered (the library computes reduced homology only; "
+                          "lacuna homology --reduced)");
+      read_numbers(cob, coh_texts.threshold, coh_texts.max_cells, coh_texts.max_facet, coh_texts.max_memory);
+      cob.co = parse_coefficients(coh_texts.coefficients);
     }
     if (seq->parsed()) read_numbers(so, std::nullopt, seq_max_cells_text, seq_max_facet_text, seq_max_memory_text);
     if (!interrupts) interrupts = new interrupt_watch;  // one per process, never deleted: its thread may outlive main
@@ -1036,6 +1174,10 @@ int main(int argc, char** argv) {
       return status;
     }
     if (hom->parsed()) run_homology(o);
+    if (coh->parsed()) {
+      o.file = cob.file;  // for messages
+      run_homology(cob);
+    }
     if (seq->parsed()) {
       o.file = so.file;  // for messages
       so.co = parse_coefficients(seq_coeff_text);

@@ -65,7 +65,7 @@ TEST_CASE("errors: bad command lines") {
            {"homology", "--json"},           // missing FILE, with an option
            {"homology", f, f},               // two files
            {},                               // no subcommand
-           {"cohomology", f},                // unknown subcommand
+           {"homotopy", f},                  // unknown subcommand
            {"homology", "--coefficients"},   // option without its value
            {"homology", "--threshold", "x", f},
        }) {
