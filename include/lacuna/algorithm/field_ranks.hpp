@@ -186,7 +186,7 @@ std::vector<std::size_t> field_betti_numbers(reducible_complex<F>& rc, const eli
   std::vector<std::size_t> betti(static_cast<std::size_t>(nl > 0 ? nl : 0), 0);
   for (int L = 0; L < nl; ++L) {
     std::size_t n = 0;
-    for (std::uint32_t i = 0; i < rc.size(L); ++i) n += rc.alive(L, i) ? 1 : 0;
+    for (std::uint32_t i = 0; i < rc.size(L); ++i) if (rc.alive(L, i)) ++n;
     betti[static_cast<std::size_t>(L)] = n - ranks[static_cast<std::size_t>(L)] -
                                          (L + 1 < nl ? ranks[static_cast<std::size_t>(L + 1)] : 0);
   }

@@ -543,7 +543,7 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
     work.assign(r * w, 0);
     for (std::size_t ii = 0; ii < r; ++ii) {
       for (std::size_t jj = 0; jj < r; ++jj) work[ii * w + jj] = ap[I[ii] * m + J[jj]];
-      for (int k = 0; k < n_b; ++k) work[ii * w + r + k] = detail::reduce_signed(bvec[k][ii], p);
+      for (std::size_t k = 0; k < n_b; ++k) work[ii * w + r + k] = detail::reduce_signed(bvec[k][ii], p);
     }
     const u64 det = md::det_and_adjugate_solve(work, r, n_b, p);
     if (det == 0) {  // p | det B: adj(B) b is not found this way; take another prime
@@ -551,9 +551,9 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
       continue;
     }
     res[0] = det;
-    for (int k = 0; k < n_b; ++k)
+    for (std::size_t k = 0; k < n_b; ++k)
       for (std::size_t ii = 0; ii < r; ++ii) res[1 + k * r + ii] = work[ii * w + r + k];
-    for (int k = 0; compress && k < n_q; ++k) {
+    for (std::size_t k = 0; compress && k < n_q; ++k) {
       // P A (r x m), then (P A) Q (r x r), mod p.
       if (square_p) {
         pa = ap;
@@ -585,7 +585,7 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
   const big D = crt.symmetric(0);
   if (D == 0) return std::nullopt;  // cannot happen: B is non-singular mod a prime
   big Gc = boost::multiprecision::abs(D);
-  for (int k = 0; compress && k < n_q; ++k)
+  for (std::size_t k = 0; compress && k < n_q; ++k)
     Gc = md::lehmer_gcd(Gc, crt.symmetric(1 + n_b * r + k));
   big g = 0;
   for (std::size_t i = 1; i < 1 + n_b * r; ++i) g = md::lehmer_gcd(g, crt.symmetric(i));

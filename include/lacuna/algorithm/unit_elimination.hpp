@@ -110,10 +110,10 @@ class unit_eliminator {
 
   elimination_statistics run() {
     const int nl = rc_.levels();
-    active_count_.resize(nl);
-    empty_.resize(nl);
+    active_count_.resize(static_cast<std::size_t>(nl));
+    empty_.resize(static_cast<std::size_t>(nl));
     for (int L = 0; L < nl; ++L) {
-      active_count_[L].resize(rc_.size(L));
+      active_count_[static_cast<std::size_t>(L)].resize(rc_.size(L));
       for (std::uint32_t i = 0; i < rc_.size(L); ++i) {
         if (!rc_.alive(L, i)) continue;
         recount(L, i);
@@ -162,13 +162,13 @@ class unit_eliminator {
     if (L > 0)
       for (const auto& e : rc_.boundary(L, i))
         if (rc_.cell_state(L - 1, e.index) == st::active) ++n;
-    active_count_[L][i] = n;
+    active_count_[static_cast<std::size_t>(L)][i] = n;
   }
   void consider(int L, std::uint32_t i) {
     if (rc_.cell_state(L, i) != st::active) return;
-    const auto n = active_count_[L][i];
+    const auto n = active_count_[static_cast<std::size_t>(L)][i];
     if (n == 1 && opt_.coreductions) push_candidate(L, i);
-    if (n == 0 && opt_.set_aside) empty_[L].push_back(i);
+    if (n == 0 && opt_.set_aside) empty_[static_cast<std::size_t>(L)].push_back(i);
     if (opt_.collapses && L + 1 < rc_.levels() && rc_.cofaces(L, i).size() == 1) push_candidate(L, i);
   }
 
@@ -184,7 +184,7 @@ class unit_eliminator {
   // A coreduction with i as a, or a collapse with i as b, when one applies.
   void try_zero_fill(int L, std::uint32_t i) {
     if (rc_.cell_state(L, i) != st::active) return;
-    if (opt_.coreductions && L > 0 && active_count_[L][i] == 1) {
+    if (opt_.coreductions && L > 0 && active_count_[static_cast<std::size_t>(L)][i] == 1) {
       for (const auto& e : rc_.boundary(L, i)) {
         if (rc_.cell_state(L - 1, e.index) != st::active) continue;
         R inv;
@@ -239,16 +239,16 @@ class unit_eliminator {
 
   bool set_aside_one() {
     for (int L = 0; L < rc_.levels(); ++L) {
-      auto& stack = empty_[L];
+      auto& stack = empty_[static_cast<std::size_t>(L)];
       while (!stack.empty()) {
         const std::uint32_t s = stack.back();
         stack.pop_back();
-        if (rc_.cell_state(L, s) != st::active || active_count_[L][s] != 0) continue;
+        if (rc_.cell_state(L, s) != st::active || active_count_[static_cast<std::size_t>(L)][s] != 0) continue;
         rc_.cell_state(L, s) = st::critical;
         ++stats_.set_aside;
         if (L + 1 < rc_.levels())
           for (std::uint32_t x : rc_.cofaces(L, s)) {
-            --active_count_[L + 1][x];
+            --active_count_[static_cast<std::size_t>(L + 1)][x];
             consider(L + 1, x);
           }
         rc_.release_cofaces(L, s);
@@ -298,7 +298,7 @@ class unit_eliminator {
 
   std::uint64_t cost(int L, std::uint32_t a, std::uint32_t b) const {
     const std::uint64_t nb = rc_.cofaces(L - 1, b).size();
-    const std::uint64_t na = active_count_[L][a];
+    const std::uint64_t na = active_count_[static_cast<std::size_t>(L)][a];
     return (nb - 1) * (na > 0 ? na - 1 : 0);
   }
 
@@ -331,7 +331,7 @@ class unit_eliminator {
       if (lone) {
         const R w = rc_.take_face(L, y, b);
         if (log_) log_->affected.push_back({y, w});
-        --active_count_[L][y];  // b was active
+        --active_count_[static_cast<std::size_t>(L)][y];  // b was active
       } else {
         const R w = coefficient(L, y, b);
         if (log_) log_->affected.push_back({y, w});
@@ -359,7 +359,7 @@ class unit_eliminator {
       xs_.assign(xa.begin(), xa.end());
       for (std::uint32_t x : xs_) {
         rc_.erase_face(L + 1, x, a);
-        --active_count_[L + 1][x];  // a was active when it was chosen
+        --active_count_[static_cast<std::size_t>(L + 1)][x];  // a was active when it was chosen
         consider(L + 1, x);
       }
     }
@@ -376,7 +376,7 @@ class unit_eliminator {
     scratch_.clear();
     scratch_.reserve(dy.size() + da.size());
     std::size_t i = 0, j = 0;
-    auto& cnt = active_count_[L][y];
+    auto& cnt = active_count_[static_cast<std::size_t>(L)][y];
     while (i < dy.size() || j < da.size()) {
       if (j == da.size() || (i < dy.size() && dy[i].index < da[j].index)) {
         scratch_.push_back(dy[i++]);

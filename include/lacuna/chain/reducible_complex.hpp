@@ -68,43 +68,43 @@ class reducible_complex {
   /// The level of a dimension (may be outside 0..levels()-1).
   int level_of_dimension(int dim) const { return dual_ ? top_ - dim : dim - offset_; }
   bool is_dual() const { return dual_; }
-  std::size_t size(int level) const { return state_[level].size(); }
+  std::size_t size(int level) const { return state_[index(level)].size(); }
 
   /// The boundary of a cell, sorted by face. Valid until the next change of a boundary.
-  std::span<const entry> boundary(int level, std::uint32_t i) const { return bd_[level][i]; }
+  std::span<const entry> boundary(int level, std::uint32_t i) const { return bd_[index(level)][i]; }
   /// The cofaces of a cell, in no order. Valid until the next change of a coface list.
-  std::span<const std::uint32_t> cofaces(int level, std::uint32_t i) const { return cob_[level][i]; }
-  state& cell_state(int level, std::uint32_t i) { return state_[level][i]; }
+  std::span<const std::uint32_t> cofaces(int level, std::uint32_t i) const { return cob_[index(level)][i]; }
+  state& cell_state(int level, std::uint32_t i) { return state_[index(level)][i]; }
   state cell_state(int level, std::uint32_t i) const { return state_[level][i]; }
-  bool alive(int level, std::uint32_t i) const { return state_[level][i] != state::eliminated; }
+  bool alive(int level, std::uint32_t i) const { return state_[index(level)][i] != state::eliminated; }
 
   // ---- changes (for reductions) ----
-  void set_boundary(int level, std::uint32_t i, std::span<const entry> b) { bd_[level].assign(i, b); }
+  void set_boundary(int level, std::uint32_t i, std::span<const entry> b) { bd_[index(level)].assign(i, b); }
   /// Removes the term of a face from a boundary, if present.
   void erase_face(int level, std::uint32_t i, std::uint32_t face) {
-    auto b = bd_[level][i];
+    auto b = bd_[index(level)][i];
     auto it = std::lower_bound(b.begin(), b.end(), face, [](const entry& e, std::uint32_t f) { return e.index < f; });
-    if (it != b.end() && it->index == face) bd_[level].erase_at(i, static_cast<std::size_t>(it - b.begin()));
+    if (it != b.end() && it->index == face) bd_[index(level)].erase_at(i, static_cast<std::size_t>(it - b.begin()));
   }
   /// Removes the term of a face from a boundary and returns its coefficient (zero if absent).
   R take_face(int level, std::uint32_t i, std::uint32_t face) {
-    auto b = bd_[level][i];
+    auto b = bd_[index(level)][i];
     auto it = std::lower_bound(b.begin(), b.end(), face, [](const entry& e, std::uint32_t f) { return e.index < f; });
     if (it == b.end() || it->index != face) return zero<R>();
     R v = it->value;
-    bd_[level].erase_at(i, static_cast<std::size_t>(it - b.begin()));
+    bd_[index(level)].erase_at(i, static_cast<std::size_t>(it - b.begin()));
     return v;
   }
-  void release_boundary(int level, std::uint32_t i) { bd_[level].release(i); }
-  void add_coface(int level, std::uint32_t i, std::uint32_t coface) { cob_[level].push_back(i, coface); }
+  void release_boundary(int level, std::uint32_t i) { bd_[index(level)].release(i); }
+  void add_coface(int level, std::uint32_t i, std::uint32_t coface) { cob_[index(level)].push_back(i, coface); }
   /// Removes a coface from a coface list, if present.
   void remove_coface(int level, std::uint32_t i, std::uint32_t coface) {
-    auto c = cob_[level][i];
+    auto c = cob_[index(level)][i];
     auto it = std::find(c.begin(), c.end(), coface);
-    if (it != c.end()) cob_[level].swap_remove(i, static_cast<std::size_t>(it - c.begin()));
+    if (it != c.end()) cob_[index(level)].swap_remove(i, static_cast<std::size_t>(it - c.begin()));
   }
-  void clear_cofaces(int level, std::uint32_t i) { cob_[level].clear(i); }
-  void release_cofaces(int level, std::uint32_t i) { cob_[level].release(i); }
+  void clear_cofaces(int level, std::uint32_t i) { cob_[index(level)].clear(i); }
+  void release_cofaces(int level, std::uint32_t i) { cob_[index(level)].release(i); }
   std::size_t memory_bytes() const {
     std::size_t n = 0;
     for (int L = 0; L < levels(); ++L) n += bd_[L].memory_bytes() + cob_[L].memory_bytes() + state_[L].capacity();
@@ -113,11 +113,11 @@ class reducible_complex {
 
   /// Maps an original cell index to this complex (identity unless cells were excluded) and back.
   std::uint32_t original_index(int level, std::uint32_t i) const {
-    return to_original_[level].empty() ? i : to_original_[level][i];
+    return to_original_[index(level)].empty() ? i : to_original_[index(level)][i];
   }
   const std::vector<std::uint32_t>& original_indices(int level) const { return to_original_[level]; }
   /// Original index -> local index (-1: excluded); empty when the level is the identity.
-  const std::vector<std::int64_t>& local_indices(int level) const { return from_original_[level]; }
+  const std::vector<std::int64_t>& local_indices(int level) const { return from_original_[index(level)]; }
   /// -1 when the original cell was excluded.
   std::int64_t local_index(int level, std::size_t original) const {
     return from_original_[level].empty() ? static_cast<std::int64_t>(original) : from_original_[level][original];
@@ -138,50 +138,51 @@ class reducible_complex {
     rc.resize_levels(nlev);
 
     // Per dimension: which cells are kept, and their local indices.
-    std::vector<std::vector<std::int64_t>> local(top + 1);
-    std::vector<std::size_t> kept(top + 1, 0);
+    std::vector<std::vector<std::int64_t>> local(index(top + 1));
+    std::vector<std::size_t> kept(index(top + 1), 0);
     for (int k = 0; k <= top; ++k) {
       const std::size_t n = lacuna::cell_count(c, k);
       if (n >= std::numeric_limits<std::uint32_t>::max())
         throw std::length_error("lacuna: more than 2^32-1 cells of dimension " + std::to_string(k));
       const bool has_excl = opt.excluded && static_cast<std::size_t>(k) < opt.excluded->size() &&
-                            !(*opt.excluded)[k].empty();
+                            !(*opt.excluded)[index(k)].empty();
       if (has_excl) {
-        local[k].assign(n, -1);
+        local[index(k)].assign(n, -1);
         for (std::size_t i = 0; i < n; ++i)
-          if (!(*opt.excluded)[k][i]) local[k][i] = static_cast<std::int64_t>(kept[k]++);
+          if (!(*opt.excluded)[index(k)][i]) local[index(k)][i] = static_cast<std::int64_t>(kept[index(k)]++);
       } else {
-        kept[k] = n;
+        kept[index(k)] = n;
       }
     }
     auto lvl = [&](int dim) { return rc.level_of_dimension(dim); };
     for (int k = 0; k <= top; ++k) {
       const int L = lvl(k);
-      rc.state_[L].assign(kept[k], state::active);
-      if (!local[k].empty()) {
-        rc.from_original_[L] = local[k];
-        rc.to_original_[L].resize(kept[k]);
-        for (std::size_t i = 0; i < local[k].size(); ++i)
-          if (local[k][i] >= 0) rc.to_original_[L][static_cast<std::size_t>(local[k][i])] = static_cast<std::uint32_t>(i);
+      rc.state_[index(L)].assign(kept[index(k)], state::active);
+      if (!local[index(k)].empty()) {
+        rc.from_original_[index(L)] = local[index(k)];
+        rc.to_original_[index(L)].resize(kept[index(k)]);
+        for (std::size_t i = 0; i < local[index(k)].size(); ++i)
+          if (local[index(k)][i] >= 0)
+            rc.to_original_[index(L)][static_cast<std::size_t>(local[index(k)][i])] = static_cast<std::uint32_t>(i);
       }
     }
     if (opt.augmented) rc.state_[0].assign(1, state::active);
 
     // For each k >= 1, the k-th boundary in CSR (columns: k-cells), then its transpose.
-    std::vector<std::vector<entry>> down_data(top + 1);
-    std::vector<std::vector<std::uint64_t>> down_off(top + 1);
+    std::vector<std::vector<entry>> down_data(index(top + 1));
+    std::vector<std::vector<std::uint64_t>> down_off(index(top + 1));
     auto build_dimension = [&](int k) {
       std::vector<sparse_entry<std::int64_t>> scratch;
       std::vector<sparse_entry<integer>> exact;  // terms beyond int64, and every term of a cell summed exactly
       const std::size_t n = lacuna::cell_count(c, k);
       const std::size_t nf = lacuna::cell_count(c, k - 1);
-      auto& data = down_data[k];
-      auto& off = down_off[k];
-      off.reserve(kept[k] + 1);
+      auto& data = down_data[index(k)];
+      auto& off = down_off[index(k)];
+      off.reserve(kept[index(k)] + 1);
       off.push_back(0);
       for (std::size_t i = 0; i < n; ++i) {
         if (opt.control && (i & 4095) == 0) opt.control->check();
-        const std::int64_t li = local[k].empty() ? static_cast<std::int64_t>(i) : local[k][i];
+        const std::int64_t li = local[index(k)].empty() ? static_cast<std::int64_t>(i) : local[index(k)][i];
         if (li < 0) continue;
         scratch.clear();
         exact.clear();
@@ -192,17 +193,17 @@ class reducible_complex {
                                       "): face index " + std::to_string(face) + " is out of range (" +
                                       std::to_string(nf) + " cells of dimension " + std::to_string(k - 1) + ")",
                                   k, i);
-          const std::int64_t lf = local[k - 1].empty() ? static_cast<std::int64_t>(face) : local[k - 1][face];
+          const std::int64_t lf = local[index(k - 1)].empty() ? static_cast<std::int64_t>(face) : local[index(k - 1)][face];
           if (lf < 0) continue;
           if constexpr (small_incidence_like<std::remove_cvref_t<decltype(v)>>) {
-            const std::int64_t n = as_incidence(v).coefficient;
-            if (n != 0) scratch.push_back({static_cast<std::uint32_t>(lf), n});
+            const std::int64_t incidence = as_incidence(v).coefficient;
+            if (incidence != 0) scratch.push_back({static_cast<std::uint32_t>(lf), incidence});
           } else {  // coefficients of any size: the int64 ones on the fast path, the others exact
-            integer n = coefficient_as_integer(v);
-            if (!n.is_small())
-              exact.push_back({static_cast<std::uint32_t>(lf), std::move(n)});
-            else if (n.small_value() != 0)
-              scratch.push_back({static_cast<std::uint32_t>(lf), n.small_value()});
+            integer incidence = coefficient_as_integer(v);
+            if (!incidence.is_small())
+              exact.push_back({static_cast<std::uint32_t>(lf), std::move(incidence)});
+            else if (incidence.small_value() != 0)
+              scratch.push_back({static_cast<std::uint32_t>(lf), incidence.small_value()});
           }
         }
         std::sort(scratch.begin(), scratch.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
@@ -245,7 +246,7 @@ class reducible_complex {
       int big = 1;
       std::size_t best = 0;
       for (int k = 1; k <= top; ++k) {
-        const std::size_t w = kept[k] * static_cast<std::size_t>(k + 1);
+        const std::size_t w = kept[index(k)] * static_cast<std::size_t>(k + 1);
         if (w > best) best = w, big = k;
       }
       detail::side_by_side([&] { build_dimension(big); },
@@ -258,18 +259,18 @@ class reducible_complex {
     }
     for (int k = 0; k <= top; ++k) {
       // The transpose of the (k+1)-th boundary: for each k-cell, its cofaces with values.
-      const std::size_t nk = kept[k];
+      const std::size_t nk = kept[index(k)];
       std::vector<std::uint64_t> up_off(nk + 1, 0);
       std::vector<entry> up_data;
       if (k + 1 <= top) {
-        for (const auto& e : down_data[k + 1]) ++up_off[e.index + 1];
+        for (const auto& e : down_data[index(k + 1)]) ++up_off[e.index + 1];
         for (std::size_t i = 0; i < nk; ++i) up_off[i + 1] += up_off[i];
-        up_data.resize(down_data[k + 1].size(), entry{0, zero<R>()});
+        up_data.resize(down_data[index(k + 1)].size(), entry{0, zero<R>()});
         std::vector<std::uint64_t> fill(up_off.begin(), up_off.end() - 1);
-        const auto& off = down_off[k + 1];
+        const auto& off = down_off[index(k + 1)];
         for (std::size_t j = 0; j + 1 < off.size(); ++j)
           for (std::uint64_t t = off[j]; t < off[j + 1]; ++t) {
-            const auto& e = down_data[k + 1][t];
+            const auto& e = down_data[index(k + 1)][t];
             up_data[fill[e.index]++] = {static_cast<std::uint32_t>(j), e.value};
           }
       }
@@ -277,22 +278,22 @@ class reducible_complex {
       if (!opt.dual) {
         // boundary(level k) = down_data[k]; cofaces(level k) = indices of up_data
         if (k >= 1)
-          rc.bd_[L] = slotted_lists<entry>(std::move(down_data[k]), down_off[k]);
+          rc.bd_[index(L)] = slotted_lists<entry>(std::move(down_data[index(k)]), down_off[index(k)]);
         else
-          rc.bd_[L] = slotted_lists<entry>(nk);
+          rc.bd_[index(L)] = slotted_lists<entry>(nk);
         std::vector<std::uint32_t> idx(up_data.size());
         for (std::size_t t = 0; t < up_data.size(); ++t) idx[t] = up_data[t].index;
-        rc.cob_[L] = slotted_lists<std::uint32_t>(std::move(idx), up_off);
+        rc.cob_[index(L)] = slotted_lists<std::uint32_t>(std::move(idx), up_off);
       } else {
         // dual: boundary(level of k) = coboundary (up_data); cofaces = faces (down indices)
-        rc.bd_[L] = slotted_lists<entry>(std::move(up_data), up_off);
+        rc.bd_[index(L)] = slotted_lists<entry>(std::move(up_data), up_off);
         if (k >= 1) {
-          std::vector<std::uint32_t> idx(down_data[k].size());
-          for (std::size_t t = 0; t < down_data[k].size(); ++t) idx[t] = down_data[k][t].index;
-          rc.cob_[L] = slotted_lists<std::uint32_t>(std::move(idx), down_off[k]);
-          std::vector<entry>().swap(down_data[k]);
+          std::vector<std::uint32_t> idx(down_data[index(k)].size());
+          for (std::size_t t = 0; t < down_data[index(k)].size(); ++t) idx[t] = down_data[index(k)][t].index;
+          rc.cob_[index(L)] = slotted_lists<std::uint32_t>(std::move(idx), down_off[index(k)]);
+          std::vector<entry>().swap(down_data[index(k)]);
         } else {
-          rc.cob_[L] = slotted_lists<std::uint32_t>(nk);
+          rc.cob_[index(L)] = slotted_lists<std::uint32_t>(nk);
         }
       }
     }
@@ -304,9 +305,9 @@ class reducible_complex {
         const std::size_t nv = rc.size(L0);
         for (std::uint32_t v = 0; v < nv; ++v) {
           const entry e{0, unit};
-          std::vector<entry> b(rc.bd_[L0][v].begin(), rc.bd_[L0][v].end());
+          std::vector<entry> b(rc.bd_[index(L0)][v].begin(), rc.bd_[index(L0)][v].end());
           b.insert(b.begin(), e);
-          rc.bd_[L0].assign(v, b);
+          rc.bd_[index(L0)].assign(v, b);
           rc.cob_[0].push_back(0, v);
         }
       }
@@ -349,12 +350,14 @@ class reducible_complex {
   }
 
  private:
+  /// A level (or, in build, a dimension >= 0) as an index of the per-level vectors.
+  static std::size_t index(int level) { return static_cast<std::size_t>(level); }
   void resize_levels(int n) {
-    bd_.resize(n);
-    cob_.resize(n);
-    state_.resize(n);
-    to_original_.resize(n);
-    from_original_.resize(n);
+    bd_.resize(index(n));
+    cob_.resize(index(n));
+    state_.resize(index(n));
+    to_original_.resize(index(n));
+    from_original_.resize(index(n));
   }
   int top_ = -1, offset_ = 0;
   bool dual_ = false;

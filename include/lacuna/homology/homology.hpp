@@ -174,16 +174,17 @@ struct level_result {
 template <class R, class W>
 dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_basis<R>>& lb, int L,
                             const run_control* control = nullptr) {
-  const std::uint64_t rows = lb[L - 1].core.size(), cols = lb[L].core.size();
+  const std::uint64_t rows = lb[static_cast<std::size_t>(L - 1)].core.size(),
+                      cols = lb[static_cast<std::size_t>(L)].core.size();
   if (control && control->memory_limit) {
     const double bytes = (double(rows) * double(cols) + double(rows) * double(rows) + double(cols) * double(cols)) *
                          double(sizeof(R));  // in double: the product of two counts may pass 2^64
     control->require_memory(bytes >= 1.8e19 ? ~std::uint64_t{0} : static_cast<std::uint64_t>(bytes), "the dense core");
   }
-  dense_matrix<R> D(lb[L - 1].core.size(), lb[L].core.size());
-  for (std::size_t j = 0; j < lb[L].core.size(); ++j)
-    for (const auto& e : rc.boundary(L, lb[L].core[j])) {
-      const auto p = lb[L - 1].core_position[e.index];
+  dense_matrix<R> D(lb[static_cast<std::size_t>(L - 1)].core.size(), lb[static_cast<std::size_t>(L)].core.size());
+  for (std::size_t j = 0; j < lb[static_cast<std::size_t>(L)].core.size(); ++j)
+    for (const auto& e : rc.boundary(L, lb[static_cast<std::size_t>(L)].core[j])) {
+      const auto p = lb[static_cast<std::size_t>(L - 1)].core_position[e.index];
       D(static_cast<std::size_t>(p), j) = to_ring<R>(e.value);
     }
   return D;
@@ -194,9 +195,9 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
                                          std::vector<level_basis<R>>& lb, const run_control* control = nullptr,
                                          bool want_bounding = false) {
   const int nl = rc.levels();
-  lb.assign(nl, {});
+  lb.assign(static_cast<std::size_t>(nl), {});
   for (int L = 0; L < nl; ++L) {
-    auto& b = lb[L];
+    auto& b = lb[static_cast<std::size_t>(L)];
     b.core_position.assign(rc.size(L), -1);
     b.isolated_position.assign(rc.size(L), -1);
     for (std::uint32_t i = 0; i < rc.size(L); ++i) {
@@ -211,31 +212,33 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
       }
     }
   }
-  std::vector<level_result<R>> out(nl);
+  std::vector<level_result<R>> out(static_cast<std::size_t>(nl));
   if (!want_generators && !keep) {
     // Ranks and invariant factors of each core boundary matrix suffice.
-    std::vector<smith_decomposition<R>> snf(nl + 1);
+    std::vector<smith_decomposition<R>> snf(static_cast<std::size_t>(nl + 1));
     for (int L = 1; L < nl; ++L) {
       auto core = core_matrix<R>(rc, lb, L, control);
       if constexpr (std::same_as<R, integer>)  // integral cores: modular_smith.hpp, else dense
         if (auto s = prefer_modular_smith(core) ? modular_smith_invariants(core, control) : std::nullopt) {
-          snf[L].rank = s->rank, snf[L].diagonal = std::move(s->factors);
+          snf[static_cast<std::size_t>(L)].rank = s->rank,
+          snf[static_cast<std::size_t>(L)].diagonal = std::move(s->factors);
           continue;
         }
-      snf[L] = dense_smith_form(std::move(core), {.control = control});
+      snf[static_cast<std::size_t>(L)] = dense_smith_form(std::move(core), {.control = control});
     }
     for (int L = 0; L < nl; ++L) {
-      const std::size_t rL = L >= 1 ? snf[L].rank : 0;
-      const std::size_t rN = L + 1 < nl ? snf[L + 1].rank : 0;
-      out[L].rank = lb[L].isolated.size() + lb[L].core.size() - rL - rN;
+      const std::size_t rL = L >= 1 ? snf[static_cast<std::size_t>(L)].rank : 0;
+      const std::size_t rN = L + 1 < nl ? snf[static_cast<std::size_t>(L + 1)].rank : 0;
+      out[static_cast<std::size_t>(L)].rank =
+          lb[static_cast<std::size_t>(L)].isolated.size() + lb[static_cast<std::size_t>(L)].core.size() - rL - rN;
       if (L + 1 < nl)
-        for (const auto& d : snf[L + 1].diagonal)
-          if (!ring_is_unit(d)) out[L].torsion.push_back(d);
+        for (const auto& d : snf[static_cast<std::size_t>(L + 1)].diagonal)
+          if (!ring_is_unit(d)) out[static_cast<std::size_t>(L)].torsion.push_back(d);
     }
     return out;
   }
   for (int L = 0; L < nl; ++L) {
-    auto& b = lb[L];
+    auto& b = lb[static_cast<std::size_t>(L)];
     const std::size_t n = b.core.size();
     smith_decomposition<R> s1;
     if (L >= 1) {
@@ -246,7 +249,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
     }
     b.r = s1.rank;
     const std::size_t kdim = n - b.r;
-    dense_matrix<R> M(kdim, L + 1 < nl ? lb[L + 1].core.size() : 0);
+    dense_matrix<R> M(kdim, L + 1 < nl ? lb[static_cast<std::size_t>(L + 1)].core.size() : 0);
     if (L + 1 < nl && M.cols() > 0 && kdim > 0) {
       const dense_matrix<R> P = s1.V_inv * core_matrix<R>(rc, lb, L + 1, control);
       for (std::size_t i = 0; i < kdim; ++i)
@@ -256,7 +259,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
     b.factors = s2.diagonal;
     b.V_inv = s1.V_inv;
     b.U_M = s2.U;
-    auto& res = out[L];
+    auto& res = out[static_cast<std::size_t>(L)];
     // Free: isolated cells, then the core columns past the rank of M; torsion: non-unit e_i.
     res.rank = b.isolated.size() + (kdim - s2.rank);
     for (const auto& e : s2.diagonal)
@@ -368,9 +371,9 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   if (opt.generators) {
     control->report("lifting generators", 0, 1);
     auto lift_level = [&](int L) {
-      auto lifted = lift_chains(rlog, L, rc.size(L), levels[L].generators, control);
-      levels[L].generators = std::move(lifted);
-      for (auto& ch : levels[L].generators)
+      auto lifted = lift_chains(rlog, L, rc.size(L), levels[static_cast<std::size_t>(L)].generators, control);
+      levels[static_cast<std::size_t>(L)].generators = std::move(lifted);
+      for (auto& ch : levels[static_cast<std::size_t>(L)].generators)
         for (auto& e : ch) e.index = rc.original_index(L, e.index);
       if (!levels[L].bounding.empty()) {
         levels[L].bounding = lift_chains(rlog, L + 1, rc.size(L + 1), levels[L].bounding, control);
@@ -484,17 +487,17 @@ class homology_result {
     level_chain<R> lc;
     for (const auto& t : cycle.terms) {
       std::int64_t li = static_cast<std::int64_t>(t.cell);
-      if (!basis_->from_original[L].empty()) {
-        if (t.cell >= basis_->from_original[L].size()) continue;
-        li = basis_->from_original[L][t.cell];
+      if (!basis_->from_original[static_cast<std::size_t>(L)].empty()) {
+        if (t.cell >= basis_->from_original[static_cast<std::size_t>(L)].size()) continue;
+        li = basis_->from_original[static_cast<std::size_t>(L)][t.cell];
         if (li < 0) continue;  // a cell of the subcomplex: zero in the quotient
       }
-      if (static_cast<std::size_t>(li) >= basis_->level_sizes[L])
+      if (static_cast<std::size_t>(li) >= basis_->level_sizes[static_cast<std::size_t>(L)])
         throw std::invalid_argument("lacuna: a chain names a cell that does not exist");
       lc.push_back({static_cast<std::uint32_t>(li), t.coefficient});
     }
     const level_chain<R> red = push_chain(basis_->log, L, lc);
-    const auto& b = basis_->levels[L];
+    const auto& b = basis_->levels[static_cast<std::size_t>(L)];
     std::vector<R> zc(b.core.size(), zero<R>());
     std::vector<R> out;
     std::vector<R> iso(b.isolated.size(), zero<R>());

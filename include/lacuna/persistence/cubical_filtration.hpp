@@ -202,7 +202,7 @@ class cubical_filtration {
       } else {
         const std::size_t x = p[a] / 2;
         lo[a] = x > 0 ? x - 1 : 0;
-        count[a] = (x > 0 ? 1 : 0) + (x < extents_[a] ? 1 : 0);
+        count[a] = static_cast<std::size_t>((x > 0 ? 1 : 0) + (x < extents_[a] ? 1 : 0));
       }
     }
     std::size_t base = 0;
