@@ -66,6 +66,11 @@ TEST_CASE("the Klein bottle and the projective plane: torsion") {
   CHECK(co[2].torsion[0] == integer(2));
   const auto uct = lacuna::check_universal_coefficients<2, 3>(klein);
   CHECK(uct.ok());
+  // a certificate of the Klein bottle's groups over Z and over Z/2, checked (docs/certificates.md)
+  const auto cz = lacuna::certified_homology<integer>(klein);
+  CHECK(lacuna::check_certificate(klein, cz.certificate).ok);
+  const auto c2 = lacuna::certified_homology<lacuna::z2>(klein);
+  CHECK(lacuna::check_certificate(klein, c2.certificate).ok);
 }
 
 TEST_CASE("relative homology, an induced map and the long exact sequence of a pair") {

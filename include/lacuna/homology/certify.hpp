@@ -270,15 +270,15 @@ certified_homology_result<R> certified_homology(const C& c, homology_options opt
   std::vector<std::size_t> ranks;
   for (const auto& g : h.groups) ranks.push_back(g.rank);
   auto from_log = [&](std::uint64_t p) {
-    std::vector<rank_witness> out(static_cast<std::size_t>(top) + 1);
+    std::vector<rank_witness> witnessed(static_cast<std::size_t>(top) + 1);
     for (int k = 1; k <= top; ++k)
-      if (!detail::certify::log_rank_witness(c, k, basis, p, out[static_cast<std::size_t>(k)])) return false;
+      if (!detail::certify::log_rank_witness(c, k, basis, p, witnessed[static_cast<std::size_t>(k)])) return false;
     for (int k = 0; k <= top; ++k) {
-      const std::size_t a = out[static_cast<std::size_t>(k)].rows.size();
-      const std::size_t b = k < top ? out[static_cast<std::size_t>(k) + 1].rows.size() : 0;
+      const std::size_t a = witnessed[static_cast<std::size_t>(k)].rows.size();
+      const std::size_t b = k < top ? witnessed[static_cast<std::size_t>(k) + 1].rows.size() : 0;
       if (lacuna::cell_count(c, k) - a - b != ranks[static_cast<std::size_t>(k)]) return false;
     }
-    cert.ranks = std::move(out);
+    cert.ranks = std::move(witnessed);
     return true;
   };
   if constexpr (characteristic_v<R> != 0) {

@@ -288,7 +288,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
           if (ring_is_unit(s2.diagonal[i])) continue;
           level_chain<R> w;
           for (std::size_t row = 0; row < s2.V.rows(); ++row)
-            if (!(s2.V(row, i) == zero<R>())) w.push_back({lb[L + 1].core[row], s2.V(row, i)});
+            if (!(s2.V(row, i) == zero<R>())) w.push_back({lb[static_cast<std::size_t>(L) + 1].core[row], s2.V(row, i)});
           std::sort(w.begin(), w.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
           res.bounding.push_back(std::move(w));
         }
@@ -375,9 +375,10 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
       levels[static_cast<std::size_t>(L)].generators = std::move(lifted);
       for (auto& ch : levels[static_cast<std::size_t>(L)].generators)
         for (auto& e : ch) e.index = rc.original_index(L, e.index);
-      if (!levels[L].bounding.empty()) {
-        levels[L].bounding = lift_chains(rlog, L + 1, rc.size(L + 1), levels[L].bounding, control);
-        for (auto& ch : levels[L].bounding)
+      auto& bounding = levels[static_cast<std::size_t>(L)].bounding;
+      if (!bounding.empty()) {
+        bounding = lift_chains(rlog, L + 1, rc.size(L + 1), bounding, control);
+        for (auto& ch : bounding)
           for (auto& e : ch) e.index = rc.original_index(L + 1, e.index);
       }
     };

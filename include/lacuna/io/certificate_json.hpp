@@ -36,7 +36,8 @@ namespace detail::cert_json {
 
 inline void string_out(std::ostream& os, const std::string& s) {
   os << '"';
-  for (unsigned char ch : s) {
+  for (const char c : s) {
+    const auto ch = static_cast<unsigned char>(c);
     if (ch == '"') os << "\\\"";
     else if (ch == '\\') os << "\\\\";
     else if (ch < 0x20) {
