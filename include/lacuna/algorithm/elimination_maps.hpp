@@ -15,6 +15,7 @@
 
 #include <cstdint>
 #include <limits>
+#include <optional>
 #include <unordered_map>
 #include <vector>
 
@@ -23,6 +24,79 @@ namespace lacuna {
 /// A chain at one level of a reducible_complex: (local index, coefficient) pairs.
 template <class R>
 using level_chain = std::vector<sparse_entry<R>>;
+
+namespace detail {
+
+/// What one step of the log does in a backward sweep: the entries (x, w) to read, the cell
+/// `skip` among them left out, and the cell `target` that receives −c⁻¹ Σ w·v(x).
+template <class R>
+struct sweep_action {
+  const sparse_entry<R>* first;
+  const sparse_entry<R>* last;
+  std::uint32_t skip, target;
+};
+
+/// The backward sweep of lift_chains and pull_cochains: `vectors` (chains or cochains of one
+/// level of level_size cells) are kept as one linked list of (vector, value) per cell; the
+/// steps of the log run last first, and for each one `action(step)` returns (an optional
+/// sweep_action), each vector's Σ w·v(x) over the entries is taken and −c⁻¹ times it added at
+/// the target cell. Cost: proportional to the entries read times the vectors meeting them.
+/// The results are sorted by index, without zeros; the stop request is checked every 4096
+/// steps.
+template <class R, class Action>
+std::vector<level_chain<R>> sweep_log_backwards(const elimination_log<R>& log, std::size_t level_size,
+                                                const std::vector<level_chain<R>>& vectors,
+                                                const run_control* control, Action&& action) {
+  constexpr std::uint32_t none = std::numeric_limits<std::uint32_t>::max();
+  struct node {
+    std::uint32_t vector;
+    R value;
+    std::uint32_t next;
+  };
+  std::vector<std::uint32_t> head(level_size, none);
+  std::vector<node> nodes;
+  for (std::uint32_t g = 0; g < vectors.size(); ++g)
+    for (const auto& e : vectors[g]) {
+      nodes.push_back({g, e.value, head[e.index]});
+      head[e.index] = static_cast<std::uint32_t>(nodes.size() - 1);
+    }
+  std::vector<R> acc(vectors.size(), zero<R>());
+  std::vector<std::uint32_t> touched;
+  std::size_t seen = 0;
+  for (auto s = log.steps.rbegin(); s != log.steps.rend(); ++s) {
+    if (control && (++seen & 4095) == 0) control->check();
+    const std::optional<sweep_action<R>> act = action(*s);
+    if (!act) continue;
+    touched.clear();
+    for (const sparse_entry<R>* e = act->first; e != act->last; ++e) {
+      if (e->index == act->skip) continue;
+      for (std::uint32_t n = head[e->index]; n != none; n = nodes[n].next) {
+        if (acc[nodes[n].vector] == zero<R>()) touched.push_back(nodes[n].vector);
+        acc[nodes[n].vector] += nodes[n].value * e->value;
+      }
+    }
+    for (std::uint32_t g : touched) {
+      const R t = acc[g];
+      acc[g] = zero<R>();
+      if (t == zero<R>()) continue;
+      nodes.push_back({g, -(s->c_inverse * t), head[act->target]});
+      head[act->target] = static_cast<std::uint32_t>(nodes.size() - 1);
+    }
+  }
+  std::vector<level_chain<R>> out(vectors.size());
+  for (std::uint32_t i = 0; i < level_size; ++i)
+    for (std::uint32_t n = head[i]; n != none; n = nodes[n].next) {
+      auto& ch = out[nodes[n].vector];
+      if (!ch.empty() && ch.back().index == i)
+        ch.back().value += nodes[n].value;
+      else
+        ch.push_back({i, nodes[n].value});
+    }
+  for (auto& ch : out) std::erase_if(ch, [](const auto& e) { return e.value == zero<R>(); });
+  return out;
+}
+
+}  // namespace detail
 
 /// Lifts chains of the reduced complex at `level` (cells surviving the elimination) to
 /// chains of the original complex, all at once: g applied to each. level_size is the number
@@ -34,52 +108,15 @@ template <class R>
 std::vector<level_chain<R>> lift_chains(const elimination_log<R>& log, int level, std::size_t level_size,
                                         const std::vector<level_chain<R>>& chains,
                                         const run_control* control = nullptr) {
-  constexpr std::uint32_t none = std::numeric_limits<std::uint32_t>::max();
-  struct node {
-    std::uint32_t chain;
-    R value;
-    std::uint32_t next;
-  };
-  std::vector<std::uint32_t> head(level_size, none);
-  std::vector<node> nodes;
-  for (std::uint32_t g = 0; g < chains.size(); ++g)
-    for (const auto& e : chains[g]) {
-      nodes.push_back({g, e.value, head[e.index]});
-      head[e.index] = static_cast<std::uint32_t>(nodes.size() - 1);
-    }
-  std::vector<R> acc(chains.size(), zero<R>());
-  std::vector<std::uint32_t> touched;
-  std::size_t seen = 0;
-  for (auto s = log.steps.rbegin(); s != log.steps.rend(); ++s) {
-    if (control && (++seen & 4095) == 0) control->check();
-    if (s->level != level) continue;
-    touched.clear();
-    for (std::size_t k = s->affected_begin; k < s->affected_end; ++k) {
-      const auto& [y, w] = log.affected[k];
-      for (std::uint32_t n = head[y]; n != none; n = nodes[n].next) {
-        if (acc[nodes[n].chain] == zero<R>()) touched.push_back(nodes[n].chain);
-        acc[nodes[n].chain] += nodes[n].value * w;
-      }
-    }
-    for (std::uint32_t g : touched) {
-      const R t = acc[g];
-      acc[g] = zero<R>();
-      if (t == zero<R>()) continue;
-      nodes.push_back({g, -(s->c_inverse * t), head[s->a]});
-      head[s->a] = static_cast<std::uint32_t>(nodes.size() - 1);
-    }
-  }
-  std::vector<level_chain<R>> out(chains.size());
-  for (std::uint32_t i = 0; i < level_size; ++i)
-    for (std::uint32_t n = head[i]; n != none; n = nodes[n].next) {
-      auto& ch = out[nodes[n].chain];
-      if (!ch.empty() && ch.back().index == i)
-        ch.back().value += nodes[n].value;
-      else
-        ch.push_back({i, nodes[n].value});
-    }
-  for (auto& ch : out) std::erase_if(ch, [](const auto& e) { return e.value == zero<R>(); });
-  return out;
+  // g(y) = y − c⁻¹ <dy, b> a for the pivots (a, b) of this level, last first: read the
+  // cofaces y of b (log.affected holds (y, <dy, b>)), add at a
+  constexpr std::uint32_t nothing = std::numeric_limits<std::uint32_t>::max();
+  return detail::sweep_log_backwards(log, level_size, chains, control,
+                                     [&](const elimination_step<R>& s) -> std::optional<detail::sweep_action<R>> {
+                                       if (s.level != level) return std::nullopt;
+                                       return detail::sweep_action<R>{log.affected.data() + s.affected_begin,
+                                                                      log.affected.data() + s.affected_end, nothing, s.a};
+                                     });
 }
 
 /// Pulls cochains of the reduced complex at `level` (values on surviving cells) back to
@@ -95,53 +132,13 @@ template <class R>
 std::vector<level_chain<R>> pull_cochains(const elimination_log<R>& log, int level, std::size_t level_size,
                                           const std::vector<level_chain<R>>& cochains,
                                           const run_control* control = nullptr) {
-  constexpr std::uint32_t none = std::numeric_limits<std::uint32_t>::max();
-  struct node {
-    std::uint32_t cochain;
-    R value;
-    std::uint32_t next;
-  };
-  std::vector<std::uint32_t> head(level_size, none);
-  std::vector<node> nodes;
-  for (std::uint32_t g = 0; g < cochains.size(); ++g)
-    for (const auto& e : cochains[g]) {
-      nodes.push_back({g, e.value, head[e.index]});
-      head[e.index] = static_cast<std::uint32_t>(nodes.size() - 1);
-    }
-  std::vector<R> acc(cochains.size(), zero<R>());
-  std::vector<std::uint32_t> touched;
-  std::size_t seen = 0;
-  for (auto s = log.steps.rbegin(); s != log.steps.rend(); ++s) {
-    if (control && (++seen & 4095) == 0) control->check();
-    if (s->level != level + 1) continue;
-    touched.clear();
-    for (std::size_t k = s->pivot_begin; k < s->pivot_end; ++k) {
-      const auto& [x, w] = log.pivot[k];
-      if (x == s->b) continue;
-      for (std::uint32_t n = head[x]; n != none; n = nodes[n].next) {
-        if (acc[nodes[n].cochain] == zero<R>()) touched.push_back(nodes[n].cochain);
-        acc[nodes[n].cochain] += nodes[n].value * w;
-      }
-    }
-    for (std::uint32_t g : touched) {
-      const R t = acc[g];
-      acc[g] = zero<R>();
-      if (t == zero<R>()) continue;
-      nodes.push_back({g, -(s->c_inverse * t), head[s->b]});
-      head[s->b] = static_cast<std::uint32_t>(nodes.size() - 1);
-    }
-  }
-  std::vector<level_chain<R>> out(cochains.size());
-  for (std::uint32_t i = 0; i < level_size; ++i)
-    for (std::uint32_t n = head[i]; n != none; n = nodes[n].next) {
-      auto& ch = out[nodes[n].cochain];
-      if (!ch.empty() && ch.back().index == i)
-        ch.back().value += nodes[n].value;
-      else
-        ch.push_back({i, nodes[n].value});
-    }
-  for (auto& ch : out) std::erase_if(ch, [](const auto& e) { return e.value == zero<R>(); });
-  return out;
+  // read ∂a (log.pivot) without b, add at b
+  return detail::sweep_log_backwards(log, level_size, cochains, control,
+                                     [&](const elimination_step<R>& s) -> std::optional<detail::sweep_action<R>> {
+                                       if (s.level != level + 1) return std::nullopt;
+                                       return detail::sweep_action<R>{log.pivot.data() + s.pivot_begin,
+                                                                      log.pivot.data() + s.pivot_end, s.b, s.b};
+                                     });
 }
 
 /// Pushes a chain of the original complex at `level` to the reduced complex: f applied to
