@@ -34,6 +34,9 @@
 //   H_0: Kruskal's union-find over the edges in filtration order; an edge joining two
 //        components kills the younger one (whose oldest vertex is younger: all vertices enter
 //        at 0, so the one with the smaller number), an essential class per component left.
+//        Diagram 0 alone of points or a full matrix: over the edges of the minimum spanning
+//        forest only, found by Prim's algorithm (O(n^2) time, O(n) memory; see spanning_edges
+//        for why the pairs and cells are those of the pass over every edge).
 //   H_k, k = 1..D: the coboundary matrix of dimension k reduced with clearing (de Silva,
 //        Morozov & Vejdemo-Johansson 2011, "Dualities in persistent (co)homology"; Chen &
 //        Kerber 2011): columns are the k-simplices in reverse filtration order, the pivot of
@@ -56,6 +59,13 @@
 //        reach the top. So memory grows with the columns actually reduced, the pivots, and
 //        the list of k-simplices (only those not already paired by a shortcut, and all
 //        k-simplices when k < D, to enumerate the (k+1)-simplices from).
+//
+// Threads (options.threads): the edges, the enumeration of the k-simplices with their shortcut
+// tests, and the sorts are cut into chunks (chain/parallel_chunks.hpp) whose lists are joined
+// in chunk order, so the result is the same for any number of threads. A sparse metric
+// (rips_metric::from_links) lists its pairs in neighbour lists; the cofacets of a simplex are
+// then looked for among the neighbours of its vertex with the fewest, and a pair not listed
+// has no edge.
 //
 // The threshold. None given: the enclosing radius r = min_i max_j d(i, j). Beyond r the
 // complex is a cone: if c is a point with max_j d(c, j) = r, then for s >= r every simplex
