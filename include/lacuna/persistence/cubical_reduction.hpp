@@ -207,7 +207,7 @@ class pairing_codes {
   }
   std::uint8_t get(std::uint64_t l) const noexcept {
     if constexpr (nibbles)
-      return static_cast<std::uint8_t>((bytes_[l >> 1] >> ((l & 1) * 4)) & 15u);
+      return static_cast<std::uint8_t>((static_cast<unsigned>(bytes_[l >> 1]) >> ((l & 1) * 4)) & 15u);
     else
       return bytes_[l];
   }
