@@ -292,14 +292,8 @@ class rips_metric {
   }
   double computed(std::size_t a, std::size_t b) const {
     // lacuna::euclidean_distance, without its check of the dimensions (equal here)
-    const double* x = coordinates_.data() + a * dimension_;
-    const double* y = coordinates_.data() + b * dimension_;
-    double sum = 0.0;
-    for (std::size_t i = 0; i < dimension_; ++i) {
-      const double d = x[i] - y[i];
-      sum += detail::unfused(d * d);
-    }
-    return std::sqrt(sum);
+    return detail::euclidean_distance_of(coordinates_.data() + a * dimension_, coordinates_.data() + b * dimension_,
+                                         dimension_);
   }
 
   std::size_t n_ = 0, dimension_ = 0;

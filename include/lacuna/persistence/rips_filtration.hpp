@@ -47,6 +47,17 @@ inline double unfused(double x) noexcept {
   return x;
 }
 
+/// The distance of euclidean_distance for two points of `dimension` coordinates each (no
+/// check): the square root of the sum, in coordinate order, of the rounded squares.
+inline double euclidean_distance_of(const double* a, const double* b, std::size_t dimension) noexcept {
+  double sum = 0.0;
+  for (std::size_t i = 0; i < dimension; ++i) {
+    const double d = a[i] - b[i];
+    sum += unfused(d * d);
+  }
+  return std::sqrt(sum);
+}
+
 /// The input rules of point clouds and distance matrices, shared by rips_filtration and
 /// rips_metric (persistence/implicit_rips.hpp); `who` starts each message.
 /// Points: dimension >= 1, the coordinates split into points, every one finite.
@@ -101,12 +112,7 @@ inline double euclidean_distance(std::span<const double> a, std::span<const doub
   if (a.size() != b.size())
     throw std::invalid_argument("lacuna::euclidean_distance: points of dimensions " + std::to_string(a.size()) +
                                 " and " + std::to_string(b.size()));
-  double sum = 0.0;
-  for (std::size_t i = 0; i < a.size(); ++i) {
-    const double d = a[i] - b[i];
-    sum += detail::unfused(d * d);
-  }
-  return std::sqrt(sum);
+  return detail::euclidean_distance_of(a.data(), b.data(), a.size());
 }
 
 /// How a Vietoris–Rips filtration is built.
