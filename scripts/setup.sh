@@ -14,6 +14,7 @@ packages=(
   libcli11-dev          # argument parsing of the command-line tool
   zlib1g-dev            # gzip-encoded NRRD volumes
   libexpat1-dev         # tests: the SVG pictures of persistence are parsed back as XML
+  doxygen               # the API reference (target docs, test docs/api_reference)
   clang                 # libFuzzer targets
   libclang-rt-14-dev    # sanitizer and fuzzer runtimes for clang
 )

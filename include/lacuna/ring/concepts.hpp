@@ -41,7 +41,9 @@ struct ring_traits {};
 /// Quotient and remainder of a Euclidean division a = quotient * b + remainder.
 template <class R>
 struct div_rem_result {
+  /// The quotient.
   R quotient;
+  /// The remainder.
   R remainder;
 };
 

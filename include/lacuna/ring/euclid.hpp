@@ -16,9 +16,13 @@ namespace lacuna {
 /// (normalized).
 template <class R>
 struct extended_gcd_result {
+  /// A greatest common divisor, normalized.
   R g;
+  ///@{
+  /// Bezout coefficients: g == s * a + t * b.
   R s;
   R t;
+  ///@}
 };
 
 namespace cpo_detail {

@@ -33,6 +33,7 @@ namespace lacuna {
 /// An exact integer (models euclidean_domain): 64 bits inline, big on overflow.
 class integer {
  public:
+  /// The Boost.Multiprecision integer that holds values beyond 64 bits.
   using big_type = boost::multiprecision::cpp_int;
 
   /// Zero.
@@ -53,8 +54,11 @@ class integer {
 
   /// The value of a big integer; small if it fits.
   explicit integer(const big_type& n) { assign_big(n); }
+  /// The value of a big integer; small if it fits.
   explicit integer(big_type&& n) { assign_big(std::move(n)); }
 
+  ///@{
+  /// Copy and move: value semantics.
   integer(const integer& o) : small_(o.small_), big_(o.big_ ? new big_type(*o.big_) : nullptr) {}
   constexpr integer(integer&& o) noexcept : small_(o.small_), big_(std::exchange(o.big_, nullptr)) {}
   integer& operator=(const integer& o) {
@@ -74,6 +78,7 @@ class integer {
     std::swap(big_, o.big_);
     return *this;
   }
+  ///@}
   ~integer() { delete big_; }
 
   /// True iff the value fits in a std::int64_t (and is stored inline).
@@ -91,6 +96,8 @@ class integer {
   [[nodiscard]] std::string to_string() const { return big_ ? big_->str() : std::to_string(small_); }
 
   // ---- arithmetic: the small path inline, the rest out of line ------------------------
+  ///@{
+  /// Exact sum, difference and product: 64-bit arithmetic, big integers on overflow.
   friend integer operator+(const integer& a, const integer& b) {
     std::int64_t r;
     if (a.both_small(b) && !checked_add(a.small_, b.small_, r)) [[likely]]
@@ -109,6 +116,7 @@ class integer {
       return integer(r);
     return from_big_value(a.to_big() * b.to_big());
   }
+  ///@}
   /// Truncating quotient (rounds toward zero). Throws std::domain_error if b == 0.
   friend integer operator/(const integer& a, const integer& b) {
     if (b.is_zero()) throw_division_by_zero();
@@ -124,6 +132,8 @@ class integer {
       return integer(b.small_ == -1 ? 0 : a.small_ % b.small_);  // INT64_MIN % -1 is UB in C++.
     return from_big_value(big_type(a.to_big() % b.to_big()));
   }
+  ///@{
+  /// Exact negation (big for -INT64_MIN), and unary plus.
   friend integer operator-(const integer& a) {
     std::int64_t r;
     if (a.is_small() && !checked_neg(a.small_, r)) [[likely]]
@@ -131,14 +141,20 @@ class integer {
     return from_big_value(big_type(-a.to_big()));
   }
   friend integer operator+(const integer& a) { return a; }
+  ///@}
 
+  ///@{
+  /// Compound assignment: *this = *this op b (/ and % throw std::domain_error if b == 0).
   integer& operator+=(const integer& b) { return *this = *this + b; }
   integer& operator-=(const integer& b) { return *this = *this - b; }
   integer& operator*=(const integer& b) { return *this = *this * b; }
   integer& operator/=(const integer& b) { return *this = *this / b; }
   integer& operator%=(const integer& b) { return *this = *this % b; }
+  ///@}
 
   // ---- comparison: canonical form means a big value lies outside the 64-bit range ------
+  ///@{
+  /// Comparison of the values.
   friend bool operator==(const integer& a, const integer& b) noexcept {
     if (a.both_small(b)) return a.small_ == b.small_;
     if (a.is_small() != b.is_small()) return false;
@@ -150,7 +166,9 @@ class integer {
     if (b.is_small()) return a.big_->sign() <=> 0;
     return a.big_->compare(*b.big_) <=> 0;
   }
+  ///@}
 
+  /// Writes the decimal digits.
   friend std::ostream& operator<<(std::ostream& os, const integer& a) {
     if (a.big_) return os << *a.big_;
     return os << a.small_;
@@ -198,6 +216,8 @@ class integer {
 /// 64-bit fast paths for gcd and is_unit.
 template <>
 struct ring_traits<integer> {
+  ///@{
+  /// The customization points that ring_traits (ring/concepts.hpp) describes, for the integers.
   static constexpr bool is_exact = true;
   static constexpr std::uint64_t characteristic = 0;
   static integer from_integer(std::int64_t n) noexcept { return integer(n); }
@@ -222,14 +242,17 @@ struct ring_traits<integer> {
     }
     return integer(integer::big_type(boost::multiprecision::gcd(a.to_big(), b.to_big())));
   }
+  ///@}
 };
 
 static_assert(sizeof(integer) <= 16);
 
 }  // namespace lacuna
 
+/// Hash of the value (the same for the small and the big form of one value: the form is canonical).
 template <>
 struct std::hash<lacuna::integer> {
+  /// Hash of the value.
   std::size_t operator()(const lacuna::integer& a) const {
     if (a.is_small()) return std::hash<std::int64_t>{}(a.small_value());
     return std::hash<boost::multiprecision::cpp_int>{}(a.to_big());

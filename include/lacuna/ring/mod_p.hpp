@@ -87,16 +87,23 @@ class mod_p {
   /// The residue in [0, P).
   [[nodiscard]] constexpr std::uint64_t value() const noexcept { return v_; }
 
+  ///@{
+  /// Sum, difference, product and negation mod P.
   friend constexpr mod_p operator+(mod_p a, mod_p b) noexcept { return from_residue(detail::add_mod(a.v_, b.v_, P)); }
   friend constexpr mod_p operator-(mod_p a, mod_p b) noexcept { return from_residue(detail::sub_mod(a.v_, b.v_, P)); }
   friend constexpr mod_p operator*(mod_p a, mod_p b) noexcept { return from_residue(detail::mul_mod(a.v_, b.v_, P)); }
   friend constexpr mod_p operator-(mod_p a) noexcept { return from_residue(a.v_ == 0 ? 0 : P - a.v_); }
+  ///@}
   /// Field division a * b^-1; throws std::domain_error if b == 0.
   friend constexpr mod_p operator/(mod_p a, mod_p b) { return a * b.inverse(); }
+  ///@{
+  /// Compound assignment: *this = *this op b (/ throws std::domain_error if b == 0).
   constexpr mod_p& operator+=(mod_p b) noexcept { return *this = *this + b; }
   constexpr mod_p& operator-=(mod_p b) noexcept { return *this = *this - b; }
   constexpr mod_p& operator*=(mod_p b) noexcept { return *this = *this * b; }
   constexpr mod_p& operator/=(mod_p b) { return *this = *this / b; }
+  /// Equal residues.
+  ///@}
   friend constexpr bool operator==(mod_p, mod_p) noexcept = default;
 
   /// a^-1; throws std::domain_error for zero.
@@ -114,6 +121,7 @@ class mod_p {
     return r;
   }
 
+  /// Writes the residue.
   friend std::ostream& operator<<(std::ostream& os, mod_p a) { return os << a.v_; }
 
  private:
@@ -124,6 +132,8 @@ class mod_p {
 /// and normalize sends non-zero elements to one.
 template <std::uint64_t P>
 struct ring_traits<mod_p<P>> {
+  ///@{
+  /// The customization points that ring_traits (ring/concepts.hpp) describes, for Z/P.
   using R = mod_p<P>;
   static constexpr bool is_exact = true;
   static constexpr std::uint64_t characteristic = P;
@@ -134,6 +144,7 @@ struct ring_traits<mod_p<P>> {
   static constexpr R unit_part(R a) noexcept { return a.value() != 0 ? a : R(1); }
   static constexpr bool is_unit(R a) noexcept { return a.value() != 0; }
   static constexpr R inverse(R a) { return a.inverse(); }
+  ///@}
 };
 
 // ---------------------------------------------------------------------------------------
@@ -149,6 +160,7 @@ class prime_modulus {
     if (!is_prime(p))
       throw std::invalid_argument("lacuna::mod_p_dynamic: modulus " + std::to_string(p) + " is not prime");
   }
+  /// The prime p.
   [[nodiscard]] constexpr std::uint64_t value() const noexcept { return p_; }
 
  private:
@@ -185,6 +197,8 @@ class mod_p_dynamic {
   /// The integer of an unbound element.
   [[nodiscard]] constexpr std::int64_t unbound_value() const noexcept { return static_cast<std::int64_t>(v_); }
 
+  ///@{
+  /// Sum, difference, product and negation: mod p when an operand is bound (throws std::invalid_argument for two different moduli), exact integer arithmetic between unbound elements (overflow throws).
   friend mod_p_dynamic operator+(const mod_p_dynamic& a, const mod_p_dynamic& b) {
     const std::uint64_t p = common(a, b);
     if (p == 0) return exact(a, b, [](std::int64_t x, std::int64_t y, std::int64_t& r) { return __builtin_add_overflow(x, y, &r); });
@@ -201,16 +215,20 @@ class mod_p_dynamic {
     return raw(detail::mul_mod(a.residue(p), b.residue(p), p), p);
   }
   friend mod_p_dynamic operator-(const mod_p_dynamic& a) { return mod_p_dynamic() - a; }
+  ///@}
   /// Field division a * b^-1; throws std::domain_error if b == 0.
   friend mod_p_dynamic operator/(const mod_p_dynamic& a, const mod_p_dynamic& b) {
     const std::uint64_t p = common(a, b);
     if (p == 0) return a * b.inverse();
     return a * raw(b.residue(p), p).inverse();
   }
+  ///@{
+  /// Compound assignment: *this = *this op b.
   mod_p_dynamic& operator+=(const mod_p_dynamic& b) { return *this = *this + b; }
   mod_p_dynamic& operator-=(const mod_p_dynamic& b) { return *this = *this - b; }
   mod_p_dynamic& operator*=(const mod_p_dynamic& b) { return *this = *this * b; }
   mod_p_dynamic& operator/=(const mod_p_dynamic& b) { return *this = *this / b; }
+  ///@}
 
   /// Equal after binding the unbound operand; false for two different moduli.
   friend constexpr bool operator==(const mod_p_dynamic& a, const mod_p_dynamic& b) noexcept {
@@ -267,8 +285,11 @@ class mod_p_dynamic {
   friend struct ring_traits<mod_p_dynamic>;
 };
 
+/// mod_p_dynamic as a field: every non-zero element is a unit, size 0 or 1.
 template <>
 struct ring_traits<mod_p_dynamic> {
+  ///@{
+  /// The customization points that ring_traits (ring/concepts.hpp) describes, for Z/p with p chosen at run time.
   using R = mod_p_dynamic;
   static constexpr bool is_exact = true;
   static constexpr R from_integer(std::int64_t n) noexcept { return R(n); }
@@ -287,6 +308,7 @@ struct ring_traits<mod_p_dynamic> {
     return a;
   }
   static R inverse(const R& a) { return a.inverse(); }
+  ///@}
 };
 
 }  // namespace lacuna
@@ -295,11 +317,14 @@ struct ring_traits<mod_p_dynamic> {
 /// hashing agrees with equality only among elements of one modulus).
 template <>
 struct std::hash<lacuna::mod_p_dynamic> {
+  /// Hash of the residue and the modulus.
   std::size_t operator()(const lacuna::mod_p_dynamic& a) const noexcept {
     return std::hash<std::uint64_t>{}((a.value() * 0x9E3779B97F4A7C15ULL) ^ a.modulus());
   }
 };
+/// Hash of the residue.
 template <std::uint64_t P>
 struct std::hash<lacuna::mod_p<P>> {
+  /// Hash of the residue.
   std::size_t operator()(lacuna::mod_p<P> a) const noexcept { return std::hash<std::uint64_t>{}(a.value()); }
 };

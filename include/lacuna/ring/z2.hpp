@@ -28,18 +28,26 @@ class z2 {
   }
   /// The residue, as a bool.
   [[nodiscard]] constexpr bool value() const noexcept { return v_; }
+  /// True for 1.
   constexpr explicit operator bool() const noexcept { return v_; }
 
+  ///@{
+  /// Field operations: + and - are exclusive or, * is and.
   friend constexpr z2 operator+(z2 a, z2 b) noexcept { return from_bool(a.v_ != b.v_); }
   friend constexpr z2 operator-(z2 a, z2 b) noexcept { return from_bool(a.v_ != b.v_); }
   friend constexpr z2 operator*(z2 a, z2 b) noexcept { return from_bool(a.v_ && b.v_); }
   friend constexpr z2 operator-(z2 a) noexcept { return a; }
+  ///@}
   /// a / 1 == a; throws std::domain_error for b == 0.
   friend constexpr z2 operator/(z2 a, z2 b) { return a * b.inverse(); }
+  ///@{
+  /// Compound assignment: *this = *this op b.
   constexpr z2& operator+=(z2 b) noexcept { return *this = *this + b; }
   constexpr z2& operator-=(z2 b) noexcept { return *this = *this - b; }
   constexpr z2& operator*=(z2 b) noexcept { return *this = *this * b; }
   constexpr z2& operator/=(z2 b) { return *this = *this / b; }
+  ///@}
+  /// Equal residues.
   friend constexpr bool operator==(z2, z2) noexcept = default;
 
   /// 1^-1 == 1; throws std::domain_error for zero.
@@ -48,14 +56,18 @@ class z2 {
     return *this;
   }
 
+  /// Writes 0 or 1.
   friend std::ostream& operator<<(std::ostream& os, z2 a) { return os << (a.v_ ? '1' : '0'); }
 
  private:
   bool v_ = false;
 };
 
+/// The ring structure of z2 for the customization points (ring/concepts.hpp).
 template <>
 struct ring_traits<z2> {
+  ///@{
+  /// As ring_traits in ring/concepts.hpp describes: exact, characteristic 2, every nonzero element a unit.
   static constexpr bool is_exact = true;
   static constexpr std::uint64_t characteristic = 2;
   static constexpr z2 from_integer(std::int64_t n) noexcept { return z2(n); }
@@ -67,11 +79,14 @@ struct ring_traits<z2> {
   static constexpr z2 unit_part(z2) noexcept { return z2::from_bool(true); }
   static constexpr bool is_unit(z2 a) noexcept { return a.value(); }
   static constexpr z2 inverse(z2 a) { return a.inverse(); }
+  ///@}
 };
 
 }  // namespace lacuna
 
+/// Hash of z2: its residue.
 template <>
 struct std::hash<lacuna::z2> {
+  /// The residue, 0 or 1.
   std::size_t operator()(lacuna::z2 a) const noexcept { return a.value(); }
 };
