@@ -209,9 +209,12 @@ class cubical_morse_complex {
   static constexpr unsigned cells = table_t::cells;
 
  public:
+  /// The position of a cell in the cubical complex (doubled coordinates).
   using position_type = typename cubical_complex<D>::position_type;
 
+  /// The highest dimension of a critical cell.
   int top_dimension() const noexcept { return top_; }
+  /// The number of critical k-cells (0 outside 0..top_dimension()).
   std::size_t cell_count(int k) const noexcept {
     return (k < 0 || k > top_) ? 0 : keys_[static_cast<std::size_t>(k)].size();
   }

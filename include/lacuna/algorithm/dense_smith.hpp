@@ -28,9 +28,14 @@ namespace lacuna {
 /// U_inv, V_inv are their inverses. The transforms are empty unless asked for.
 template <euclidean_domain R>
 struct smith_decomposition {
+  /// The number r of non-zero invariant factors.
   std::size_t rank = 0;
   std::vector<R> diagonal;  ///< d_1..d_rank
+  ///@{
+  /// The transforms and their inverses (empty unless has_transforms).
   dense_matrix<R> U, U_inv, V, V_inv;
+  ///@}
+  /// True when U, U_inv, V and V_inv were computed.
   bool has_transforms = false;
 };
 

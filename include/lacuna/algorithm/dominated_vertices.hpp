@@ -61,7 +61,9 @@ struct vertex_retraction {
   /// The removed vertices in the order they were removed.
   std::vector<std::uint32_t> removed;
 
+  /// True if v was kept (not removed).
   bool kept(std::uint32_t v) const { return image.at(v) == v; }
+  /// The number of kept vertices.
   std::size_t kept_count() const noexcept { return image.size() - removed.size(); }
 };
 

@@ -53,6 +53,7 @@ enum class reduction_direction {
 
 /// Options of boundary_ranks and field_betti_numbers.
 struct field_ranks_options {
+  /// Reduce coboundaries or boundaries (automatic: chosen from the shape of the complex).
   reduction_direction direction = reduction_direction::automatic;
   /// Number the cells of every level backwards (the low of a column is then its entry of
   /// smallest original index). The ranks do not change; the fill-in does, either way:

@@ -93,8 +93,11 @@ struct field_reduction_options {
 
 /// A pivot of the reduction: the reduced column `column` has its lowest non-zero in `row`.
 struct pivot_pair {
+  /// The row of the lowest non-zero.
   std::uint32_t row;
+  /// The reduced column.
   std::uint32_t column;
+  /// Same row and column.
   friend bool operator==(const pivot_pair&, const pivot_pair&) = default;
 };
 
@@ -105,7 +108,11 @@ using sparse_vector = std::vector<sparse_entry<F>>;
 /// The result of reduce_columns on a rows x cols matrix A over F (models field).
 template <field F>
 struct field_reduction_result {
+  ///@{
+  /// The shape of A.
   std::size_t rows = 0, cols = 0;
+  ///@}
+  /// The rank of A (the number of pivots).
   std::size_t rank = 0;
   /// One per pivot, by increasing column; rows are distinct.
   std::vector<pivot_pair> pivots;

@@ -68,6 +68,7 @@ struct coboundary_invariants {
   std::size_t unit_pivots = 0;   ///< |U|
   std::size_t cleared = 0;       ///< columns skipped by clearing
   std::size_t deferred = 0;      ///< |Rest| (columns with a non-unit low)
+  /// The shape of the matrix given to finish_remainder.
   std::size_t remainder_rows = 0, remainder_cols = 0;  ///< the matrix given to finish_remainder
 };
 

@@ -14,7 +14,9 @@ namespace lacuna {
 /// units included (so factors.size() == rank).
 template <euclidean_domain R>
 struct smith_invariants {
+  /// The rank r.
   std::size_t rank = 0;
+  /// d_1 | d_2 | ... | d_r, normalized, units included.
   std::vector<R> factors;
   /// The factors that are not units (the torsion of the cokernel).
   std::vector<R> non_units() const {

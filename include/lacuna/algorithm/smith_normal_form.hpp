@@ -53,7 +53,9 @@ enum class pre_reduction {
 /// apply (a matrix has no cells to set aside) and is switched off. `reduction` other than
 /// the default overrides the three switches coreductions, collapses and set_aside.
 struct sparse_elimination {
+  /// The options of the sparse unit elimination.
   elimination_options elimination{};
+  /// Which pre-reductions run before the elimination (see pre_reduction).
   pre_reduction reduction = pre_reduction::coreductions_and_collapses;
   /// Homology over Z/2 and Z/p without generators or keep_basis: ranks by column reduction
   /// with clearing (lacuna/algorithm/field_ranks.hpp) instead of unit pivots and a Smith

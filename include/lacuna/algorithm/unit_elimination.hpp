@@ -52,24 +52,43 @@ struct elimination_options {
 /// One eliminated pivot: a at `level`, b at level-1, c = <da, b> a unit.
 template <class R>
 struct elimination_step {
+  /// The level of a.
   int level;
+  ///@{
+  /// The eliminated cell a (at level) and its face b (at level-1), by their indices.
   std::uint32_t a, b;
+  ///@}
+  ///@{
+  /// The unit c = <da, b> and its inverse.
   R c, c_inverse;
+  ///@}
+  ///@{
+  /// This pivot's entries [affected_begin, affected_end) of elimination_log::affected.
   std::size_t affected_begin, affected_end;  ///< log.affected: (y, <dy, b>) for the other cofaces y of b
+  ///@}
+  ///@{
+  /// This pivot's entries [pivot_begin, pivot_end) of elimination_log::pivot.
   std::size_t pivot_begin, pivot_end;        ///< log.pivot: da at the time, b included
+  ///@}
 };
 
 /// The record of an elimination, in order.
 template <class R>
 struct elimination_log {
+  /// The pivots, in the order they were eliminated.
   std::vector<elimination_step<R>> steps;
+  /// The entries that elimination_step::affected_begin and affected_end delimit.
   std::vector<sparse_entry<R>> affected;
+  /// The entries that elimination_step::pivot_begin and pivot_end delimit.
   std::vector<sparse_entry<R>> pivot;
 };
 
 /// Counts of what an elimination did, per kind of pivot.
 struct elimination_statistics {
+  ///@{
+  /// Pivots found by coreductions, by collapses, by Markowitz counts, and cells set aside.
   std::size_t coreductions = 0, collapses = 0, markowitz = 0, set_aside = 0;
+  ///@}
 };
 
 namespace detail {

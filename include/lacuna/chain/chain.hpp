@@ -12,8 +12,11 @@ namespace lacuna {
 /// One term of a chain: a cell (by its index in its dimension) and a coefficient.
 template <class R>
 struct chain_term {
+  /// The index of the cell in its dimension.
   std::size_t cell;
+  /// Its coefficient (non-zero in a normalized chain).
   R coefficient;
+  /// Same cell and coefficient.
   friend bool operator==(const chain_term&, const chain_term&) = default;
 };
 
@@ -21,7 +24,9 @@ struct chain_term {
 /// R models commutative_ring.
 template <commutative_ring R>
 struct chain {
+  /// The dimension k of the cells.
   int dimension = 0;
+  /// The terms, sorted by cell.
   std::vector<chain_term<R>> terms;
 
   /// Puts the terms in canonical form: sorted by cell, equal cells added, zeros dropped.
@@ -37,6 +42,7 @@ struct chain {
     }
     terms.resize(out);
   }
+  /// True for the zero chain (no terms).
   bool is_zero() const { return terms.empty(); }
   /// The coefficient of a cell (zero when absent). O(log n).
   R coefficient_of(std::size_t cell) const {
@@ -44,6 +50,7 @@ struct chain {
                                [](const auto& t, std::size_t c) { return t.cell < c; });
     return it != terms.end() && it->cell == cell ? it->coefficient : zero<R>();
   }
+  /// Same dimension and terms (both normalized: equal chains).
   friend bool operator==(const chain&, const chain&) = default;
 };
 

@@ -92,6 +92,7 @@ chain<R> apply_map(const F& f, const chain<R>& c, const R& unit = one<R>()) {
 template <class T = std::int64_t>
 class explicit_chain_map {
  public:
+  /// The coefficient type T.
   using coefficient_type = T;
   explicit_chain_map() = default;
   /// All-zero map out of a complex with these cell counts.
@@ -243,8 +244,11 @@ explicit_chain_map<std::int64_t> inclusion_map(const simplicial_complex<L>& A, c
 
 /// A subcomplex of X as its own complex, with its inclusion into X and the selection.
 struct included_subcomplex {
+  /// The subcomplex, its cells renumbered.
   cell_list complex;
+  /// Its inclusion into X (each cell to the cell it came from, coefficient 1).
   explicit_chain_map<std::int64_t> inclusion;
+  /// Which cells of X were chosen, and their new indices.
   cell_selection selection;
 };
 
@@ -273,6 +277,7 @@ included_subcomplex make_included_subcomplex(const C& X, const std::vector<std::
 
 /// The identity chain map of any complex.
 struct identity_map {
+  /// The cell itself, coefficient 1.
   std::vector<chain_term<std::int64_t>> image(int, std::size_t i) const { return {{i, 1}}; }
 };
 
@@ -339,9 +344,12 @@ std::vector<chain_term<T>> collect(std::map<std::size_t, T>& acc) {
 template <chain_map G, chain_map F>
 class composed_map {
  public:
+  /// The common coefficient type of g and f.
   using coefficient_type =
       typename chain_map_detail::common_coefficient<chain_map_coefficient_t<G>, chain_map_coefficient_t<F>>::type;
+  /// g after f.
   composed_map(G g, F f) : g_(std::move(g)), f_(std::move(f)) {}
+  /// g(f(cell i of dimension k)).
   std::vector<chain_term<coefficient_type>> image(int k, std::size_t i) const {
     using T = coefficient_type;
     std::map<std::size_t, T> acc;
@@ -363,9 +371,12 @@ class composed_map {
 template <chain_map F, chain_map G>
 class sum_map {
  public:
+  /// The common coefficient type of f and g.
   using coefficient_type =
       typename chain_map_detail::common_coefficient<chain_map_coefficient_t<F>, chain_map_coefficient_t<G>>::type;
+  /// f + g.
   sum_map(F f, G g) : f_(std::move(f)), g_(std::move(g)) {}
+  /// f(cell) + g(cell), for cell i of dimension k.
   std::vector<chain_term<coefficient_type>> image(int k, std::size_t i) const {
     using T = coefficient_type;
     std::map<std::size_t, T> acc;
@@ -387,8 +398,11 @@ class sum_map {
 template <chain_map F>
 class negated_map {
  public:
+  /// The coefficient type of f (std::int64_t for any integral type).
   using coefficient_type = std::conditional_t<std::integral<chain_map_coefficient_t<F>>, std::int64_t, chain_map_coefficient_t<F>>;
+  /// -f.
   explicit negated_map(F f) : f_(std::move(f)) {}
+  /// -f(cell), for cell i of dimension k.
   std::vector<chain_term<coefficient_type>> image(int k, std::size_t i) const {
     std::vector<chain_term<coefficient_type>> out;
     for (auto&& t : f_.image(k, i)) {
@@ -439,10 +453,12 @@ explicit_chain_map<chain_map_coefficient_t<F>> materialize(const F& f, const C& 
 
 /// What check_chain_map found: ok, or the first cell where the map fails and why.
 struct chain_map_report {
+  /// True if the map commutes with the boundaries everywhere.
   bool ok = true;
   int dimension = -1;     ///< of the failing cell of the source
   std::size_t cell = 0;   ///< its index
   std::string message;    ///< names the cell and what is wrong
+  /// ok.
   explicit operator bool() const { return ok; }
 };
 

@@ -21,9 +21,13 @@ struct coefficient_overflow : std::overflow_error {
 
 /// An int64 that throws coefficient_overflow rather than overflow. Models commutative_ring.
 struct checked_int64 {
+  /// The value.
   std::int64_t v = 0;
   constexpr checked_int64() = default;
+  /// The value x; implicit, as the image of an integer.
   constexpr checked_int64(std::int64_t x) : v(x) {}  // NOLINT: the image of an integer
+  ///@{
+  /// Sum, difference, negation and product; throw coefficient_overflow beyond 64 bits.
   friend checked_int64 operator+(checked_int64 a, checked_int64 b) {
     std::int64_t r;
     if (checked_add(a.v, b.v, r)) throw coefficient_overflow();
@@ -44,16 +48,25 @@ struct checked_int64 {
     if (checked_mul(a.v, b.v, r)) throw coefficient_overflow();
     return r;
   }
+  ///@}
+  ///@{
+  /// Compound assignment: *this = *this op b (overflow throws).
   checked_int64& operator+=(checked_int64 b) { return *this = *this + b; }
   checked_int64& operator-=(checked_int64 b) { return *this = *this - b; }
   checked_int64& operator*=(checked_int64 b) { return *this = *this * b; }
+  /// Equal values.
+  ///@}
   friend constexpr bool operator==(checked_int64, checked_int64) = default;
 };
 
+/// checked_int64 as an exact ring (a commutative ring only: no division).
 template <>
 struct ring_traits<checked_int64> {
+  ///@{
+  /// The customization points that ring_traits (ring/concepts.hpp) describes: exact, and the image of an integer.
   static constexpr bool is_exact = true;
   static constexpr checked_int64 from_integer(std::int64_t n) { return n; }
+  ///@}
 };
 
 }  // namespace lacuna

@@ -36,7 +36,9 @@ namespace lacuna {
 /// One non-zero entry of a sparse column or row.
 template <class R>
 struct sparse_entry {
+  /// The row (or column) of the entry.
   std::uint32_t index;
+  /// Its value, non-zero.
   R value;
 };
 
@@ -58,7 +60,9 @@ struct reducible_build_options {
 template <class R>
 class reducible_complex {
  public:
+  /// What a reduction did with a cell: still active, eliminated in a pivot pair, or set aside as critical.
   enum class state : std::uint8_t { active, eliminated, critical };
+  /// An entry of a boundary.
   using entry = sparse_entry<R>;
 
   /// Levels 0..levels()-1.
@@ -67,18 +71,24 @@ class reducible_complex {
   int dimension_of_level(int level) const { return dual_ ? top_ - level : level + offset_; }
   /// The level of a dimension (may be outside 0..levels()-1).
   int level_of_dimension(int dim) const { return dual_ ? top_ - dim : dim - offset_; }
+  /// True if the levels hold coboundaries (level L = dimension top - L).
   bool is_dual() const { return dual_; }
+  /// The number of cells at a level.
   std::size_t size(int level) const { return state_[index(level)].size(); }
 
   /// The boundary of a cell, sorted by face. Valid until the next change of a boundary.
   std::span<const entry> boundary(int level, std::uint32_t i) const { return bd_[index(level)][i]; }
   /// The cofaces of a cell, in no order. Valid until the next change of a coface list.
   std::span<const std::uint32_t> cofaces(int level, std::uint32_t i) const { return cob_[index(level)][i]; }
+  ///@{
+  /// The state of a cell; alive: not eliminated.
   state& cell_state(int level, std::uint32_t i) { return state_[index(level)][i]; }
   state cell_state(int level, std::uint32_t i) const { return state_[level][i]; }
   bool alive(int level, std::uint32_t i) const { return state_[index(level)][i] != state::eliminated; }
+  ///@}
 
   // ---- changes (for reductions) ----
+  /// Replaces the boundary of a cell (entries sorted by face).
   void set_boundary(int level, std::uint32_t i, std::span<const entry> b) { bd_[index(level)].assign(i, b); }
   /// Removes the term of a face from a boundary, if present.
   void erase_face(int level, std::uint32_t i, std::uint32_t face) {
@@ -95,7 +105,9 @@ class reducible_complex {
     bd_[index(level)].erase_at(i, static_cast<std::size_t>(it - b.begin()));
     return v;
   }
+  /// Gives up the storage of a boundary (the cell was eliminated).
   void release_boundary(int level, std::uint32_t i) { bd_[index(level)].release(i); }
+  /// Adds a coface to the coface list of a cell.
   void add_coface(int level, std::uint32_t i, std::uint32_t coface) { cob_[index(level)].push_back(i, coface); }
   /// Removes a coface from a coface list, if present.
   void remove_coface(int level, std::uint32_t i, std::uint32_t coface) {
@@ -103,8 +115,11 @@ class reducible_complex {
     auto it = std::find(c.begin(), c.end(), coface);
     if (it != c.end()) cob_[index(level)].swap_remove(i, static_cast<std::size_t>(it - c.begin()));
   }
+  /// Empties the coface list of a cell.
   void clear_cofaces(int level, std::uint32_t i) { cob_[index(level)].clear(i); }
+  /// Gives up the storage of a coface list.
   void release_cofaces(int level, std::uint32_t i) { cob_[index(level)].release(i); }
+  /// The bytes held by the boundaries, coface lists and states.
   std::size_t memory_bytes() const {
     std::size_t n = 0;
     for (int L = 0; L < levels(); ++L) n += bd_[L].memory_bytes() + cob_[L].memory_bytes() + state_[L].capacity();
@@ -115,6 +130,7 @@ class reducible_complex {
   std::uint32_t original_index(int level, std::uint32_t i) const {
     return to_original_[index(level)].empty() ? i : to_original_[index(level)][i];
   }
+  /// Local index -> original index at a level; empty when the level is the identity.
   const std::vector<std::uint32_t>& original_indices(int level) const { return to_original_[level]; }
   /// Original index -> local index (-1: excluded); empty when the level is the identity.
   const std::vector<std::int64_t>& local_indices(int level) const { return from_original_[index(level)]; }

@@ -27,8 +27,11 @@ namespace lacuna {
 /// "eliminating unit pivots", "Smith form of the core", "lifting generators"), `done` of
 /// `total` units of that stage (cells, rows or steps; done == total closes the stage).
 struct progress_report {
+  /// The stage.
   std::string_view phase;
+  /// Units of the stage done so far.
   std::uint64_t done = 0;
+  /// Units of the stage in all.
   std::uint64_t total = 0;
 };
 
@@ -42,6 +45,7 @@ class computation_stopped : public std::runtime_error {
 /// caller's budget, lacuna/homology/memory_estimate.hpp) allows. Nothing was computed.
 class memory_limit_exceeded : public std::runtime_error {
  public:
+  /// What the computation named `what` needs, and the limit it passes (both in bytes).
   memory_limit_exceeded(std::uint64_t needed, std::uint64_t limit, const std::string& what)
       : std::runtime_error("lacuna: " + what + " would need about " + std::to_string(needed) +
                            " bytes, more than the limit of " + std::to_string(limit) + " bytes"),
@@ -59,7 +63,9 @@ class memory_limit_exceeded : public std::runtime_error {
 /// A stop request, a progress callback and a memory limit; all optional (the default stops
 /// nothing, reports nothing and limits nothing, at the cost of one test per few thousand steps).
 struct run_control {
+  /// Stop request: a computation that sees it throws computation_stopped.
   std::stop_token stop{};
+  /// Called with progress reports; empty: none.
   std::function<void(const progress_report&)> progress{};
   /// Bytes one large working allocation whose size is known only during the computation may
   /// take (0: no limit). Checked before the dense core of a Smith form is allocated (its

@@ -30,16 +30,22 @@ class slotted_lists {
     live_ = data_.size();
   }
 
+  /// The number n of lists.
   std::size_t size() const { return start_.size(); }
+  /// List i.
   std::span<const T> operator[](std::size_t i) const { return {data_.data() + start_[i], len_[i]}; }
+  /// List i, its elements writable.
   std::span<T> mutable_list(std::size_t i) { return {data_.data() + start_[i], len_[i]}; }
+  /// The length of list i.
   std::size_t length(std::size_t i) const { return len_[i]; }
 
+  /// Replaces list i by values.
   void assign(std::size_t i, std::span<const T> values) {
     if (values.size() > cap_[i]) move_to_end(i, values.size());
     std::copy(values.begin(), values.end(), data_.begin() + static_cast<std::ptrdiff_t>(start_[i]));
     len_[i] = static_cast<std::uint32_t>(values.size());
   }
+  /// Appends v to list i.
   void push_back(std::size_t i, const T& v) {
     if (len_[i] == cap_[i]) move_to_end(i, std::max<std::size_t>(4, 2 * std::size_t{cap_[i]}));
     data_[start_[i] + len_[i]++] = v;
@@ -55,12 +61,14 @@ class slotted_lists {
     data_[start_[i] + pos] = data_[start_[i] + len_[i] - 1];
     --len_[i];
   }
+  /// Empties list i (keeps its space).
   void clear(std::size_t i) { len_[i] = 0; }
   /// Gives the slot up (its space is reclaimed by the next compaction).
   void release(std::size_t i) {
     live_ -= cap_[i];
     len_[i] = cap_[i] = 0;
   }
+  /// The bytes held.
   std::size_t memory_bytes() const {
     return data_.capacity() * sizeof(T) + start_.capacity() * 8 + (len_.capacity() + cap_.capacity()) * 4;
   }

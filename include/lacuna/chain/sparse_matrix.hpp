@@ -19,10 +19,15 @@ namespace lacuna {
 /// A rows x cols matrix over R (commutative_ring), stored by sorted sparse columns.
 template <commutative_ring R>
 struct sparse_matrix {
+  ///@{
+  /// The shape.
   std::size_t rows = 0, cols = 0;
+  ///@}
+  /// The columns: entries sorted by row, no zeros (after normalize()).
   std::vector<std::vector<sparse_entry<R>>> columns;
 
   sparse_matrix() = default;
+  /// The zero r x c matrix.
   sparse_matrix(std::size_t r, std::size_t c) : rows(r), cols(c), columns(c) {}
 
   /// Sets entry (i, j) (adds a term; call normalize() once after building by hand).
@@ -45,11 +50,13 @@ struct sparse_matrix {
       col.resize(out);
     }
   }
+  /// The number of stored entries.
   std::size_t nonzeros() const {
     std::size_t n = 0;
     for (const auto& c : columns) n += c.size();
     return n;
   }
+  /// The same matrix, dense.
   dense_matrix<R> to_dense() const {
     dense_matrix<R> d(rows, cols);
     for (std::size_t j = 0; j < cols; ++j)
