@@ -110,21 +110,30 @@ class cell_list {
   // view_base tag makes it a std::ranges::view.)
   class boundary_view : public std::ranges::view_base {
    public:
+    /// A random-access iterator over the terms (values, not references).
     class iterator {
      public:
+      ///@{
+      /// The iterator's types (std::ranges random access; the legacy category is input, since the terms are prvalues).
       using iterator_concept = std::random_access_iterator_tag;
       using iterator_category = std::input_iterator_tag;
       using value_type = exact_incidence;
       using reference = exact_incidence;
       using difference_type = std::ptrdiff_t;
+      ///@}
       iterator() = default;
+      /// The term i of the int64 storage s or, if s is null, of the exact storage e.
       iterator(const incidence* s, const exact_incidence* e, difference_type i) : s_(s), e_(e), i_(i) {}
+      /// The current term.
       exact_incidence operator*() const {
         if (s_) [[likely]]
           return {s_[i_].face, integer(s_[i_].coefficient)};
         return e_[i_];
       }
+      /// The term n places on.
       exact_incidence operator[](difference_type n) const { return *(*this + n); }
+      ///@{
+      /// Random-access iterator arithmetic and comparison.
       iterator& operator++() { return ++i_, *this; }
       iterator operator++(int) { auto t = *this; ++i_; return t; }
       iterator& operator--() { return --i_, *this; }
@@ -137,6 +146,7 @@ class cell_list {
       friend difference_type operator-(const iterator& a, const iterator& b) { return a.i_ - b.i_; }
       friend bool operator==(const iterator& a, const iterator& b) { return a.i_ == b.i_; }
       friend auto operator<=>(const iterator& a, const iterator& b) { return a.i_ <=> b.i_; }
+      ///@}
 
      private:
       const incidence* s_ = nullptr;
@@ -145,15 +155,26 @@ class cell_list {
     };
 
     boundary_view() = default;
+    ///@{
+    /// A view of int64 or of exact terms.
     explicit boundary_view(std::span<const incidence> s) : s_(s.data()), n_(s.size()) {}
     explicit boundary_view(std::span<const exact_incidence> e) : e_(e.data()), n_(e.size()) {}
+    ///@}
+    ///@{
+    /// The range of terms.
     iterator begin() const { return {s_, e_, 0}; }
     iterator end() const { return {s_, e_, static_cast<std::ptrdiff_t>(n_)}; }
+    ///@}
+    /// The number of terms.
     std::size_t size() const { return n_; }
+    /// True when the cell has no faces.
     bool empty() const { return n_ == 0; }
+    ///@{
+    /// A term by position, the first and the last.
     exact_incidence operator[](std::size_t i) const { return begin()[static_cast<std::ptrdiff_t>(i)]; }
     exact_incidence front() const { return (*this)[0]; }
     exact_incidence back() const { return (*this)[n_ - 1]; }
+    ///@}
     /// True when the terms are stored as int64 (then small_terms() holds them).
     bool is_small() const { return s_ != nullptr || e_ == nullptr; }
     /// The int64 terms. Precondition: is_small().
@@ -231,6 +252,7 @@ class cell_list {
     const std::vector<std::size_t> written = faces_as_written(boundary_terms);
     return add_exact(k, std::move(name), std::move(boundary_terms), written);
   }
+  /// The same from a braced list of int64 terms.
   std::size_t add_cell(int k, std::string name, std::initializer_list<incidence> boundary_terms = {}) {
     return add_cell(k, std::move(name), std::vector<incidence>(boundary_terms));
   }

@@ -88,10 +88,13 @@ class coboundary_table {
   }
 
   // ---- forwarded to the complex --------------------------------------------------------
+  ///@{
+  /// The cell_complex interface, forwarded to the complex.
   int top_dimension() const { return lacuna::top_dimension(*c_); }
   std::size_t cell_count(int k) const { return lacuna::cell_count(*c_, k); }
   decltype(auto) boundary(int k, std::size_t i) const { return lacuna::boundary(*c_, k, i); }
   std::string cell_name(int k, std::size_t i) const { return lacuna::cell_name(*c_, k, i); }
+  ///@}
   /// The complex the table was built for.
   const C& complex() const noexcept { return *c_; }
 

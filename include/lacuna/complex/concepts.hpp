@@ -50,8 +50,11 @@ namespace lacuna {
 /// One term of a boundary: the face (a cell one dimension down, by index) and its
 /// incidence number.
 struct incidence {
+  /// The index of the face among the (k-1)-cells.
   std::size_t face;
+  /// The incidence number.
   std::int64_t coefficient;
+  /// Same face and incidence number.
   friend bool operator==(const incidence&, const incidence&) = default;
 };
 
@@ -67,10 +70,15 @@ struct complex_traits {};
 
 /// One term of a boundary with an exact incidence number of any size.
 struct exact_incidence {
+  /// The index of the face among the (k-1)-cells.
   std::size_t face;
+  /// The incidence number.
   integer coefficient;
+  ///@{
+  /// Same face and incidence number.
   friend bool operator==(const exact_incidence&, const exact_incidence&) = default;
   friend bool operator==(const exact_incidence& a, const incidence& b) {
+  ///@}
     return a.face == b.face && a.coefficient == integer(b.coefficient);
   }
 };

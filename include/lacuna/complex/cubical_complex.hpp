@@ -126,9 +126,12 @@ class cubical_complex {
   using position_type = std::array<std::size_t, D>;
   /// Boundary and coboundary ranges: inline storage, no heap allocation.
   using boundary_range = detail::small_incidence_range<2 * D>;
+  /// The coboundary range.
   using coboundary_range = detail::small_incidence_range<2 * D>;
 
+  /// The dimension D of the grid.
   static constexpr std::size_t dimension = D;
+  /// The number of parity classes, 2^D.
   static constexpr unsigned class_count = 1u << D;
 
   /// One parity class: the cells whose odd coordinates are exactly the axes in `odd_axes`.

@@ -25,10 +25,13 @@ namespace lacuna {
 /// fault does not belong to one cell (a bad argument, a mismatch between two complexes).
 class invalid_complex : public std::runtime_error {
  public:
+  /// The index() of a fault that belongs to no cell.
   static constexpr std::size_t npos = std::numeric_limits<std::size_t>::max();
 
+  /// A fault that belongs to no cell.
   explicit invalid_complex(const std::string& message)
       : std::runtime_error(message) {}
+  /// A fault of cell `index` of dimension `dimension`.
   invalid_complex(const std::string& message, int dimension, std::size_t index)
       : std::runtime_error(message), dimension_(dimension), index_(index) {}
 
@@ -45,6 +48,7 @@ class invalid_complex : public std::runtime_error {
 /// Bad input met by a reader. what() is "FILE:LINE: message" ("FILE: message" for line 0).
 class parse_error : public std::runtime_error {
  public:
+  /// A fault at `line` of `file` (0: no line).
   parse_error(std::string file, std::size_t line, std::string message)
       : std::runtime_error(format(file, line, message)),
         file_(std::move(file)),

@@ -71,7 +71,9 @@ inline std::optional<std::string> polygon_fault(std::span<const std::size_t> fac
 /// lacuna::complex_with_coboundary; boundaries and coboundaries are stored spans (O(1)).
 class polygon_mesh {
  public:
+  /// The boundary of a cell: a span of incidences into the mesh.
   using boundary_range = std::span<const incidence>;
+  /// The coboundary of a cell: a span of incidences into the mesh.
   using coboundary_range = std::span<const incidence>;
 
   /// The empty mesh.
@@ -99,6 +101,7 @@ class polygon_mesh {
     if (face_count() > 0) return 2;
     return vertex_count_ > 0 ? 0 : -1;
   }
+  /// The number of vertices, edges or faces (k = 0, 1, 2); 0 for other k.
   std::size_t cell_count(int k) const noexcept {
     switch (k) {
       case 0: return vertex_count_;
@@ -130,8 +133,11 @@ class polygon_mesh {
 
   // ---- the mesh ---------------------------------------------------------------------------
 
+  /// The number of vertices.
   std::size_t vertex_count() const noexcept { return vertex_count_; }
+  /// The number of edges.
   std::size_t edge_count() const noexcept { return edge_boundary_.size() / 2; }
+  /// The number of faces.
   std::size_t face_count() const noexcept { return face_offsets_.size() - 1; }
   /// The vertex cycle of face f, as given.
   std::span<const std::size_t> face_vertices(std::size_t f) const noexcept {
@@ -154,6 +160,7 @@ class polygon_mesh {
 
   /// Vertex positions, if the source had them (readers keep them); empty otherwise.
   const std::vector<std::array<double, 3>>& positions() const noexcept { return positions_; }
+  /// Sets the vertex positions (not checked against the vertex count).
   void set_positions(std::vector<std::array<double, 3>> p) { positions_ = std::move(p); }
 
  private:

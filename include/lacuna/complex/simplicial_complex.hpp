@@ -173,18 +173,29 @@ inline void sort_unique_records(std::vector<std::uint32_t>& flat, std::size_t wi
 /// buffer (no heap allocation for simplices of dimension < 8).
 class simplex_boundary {
  public:
+  /// Up to this many terms are held inline.
   static constexpr std::size_t inline_capacity = 8;
 
   simplex_boundary() = default;
+  /// A boundary of n terms (on the heap beyond inline_capacity).
   explicit simplex_boundary(std::size_t n) : size_(n) {
     if (n > inline_capacity) heap_.resize(n);
   }
+  ///@{
+  /// The terms, contiguous.
   incidence* data() noexcept { return size_ > inline_capacity ? heap_.data() : inline_.data(); }
   const incidence* data() const noexcept { return size_ > inline_capacity ? heap_.data() : inline_.data(); }
+  ///@}
+  ///@{
+  /// The range of terms.
   const incidence* begin() const noexcept { return data(); }
   const incidence* end() const noexcept { return data() + size_; }
+  ///@}
+  /// The number of terms.
   std::size_t size() const noexcept { return size_; }
+  /// True for a vertex (no faces).
   bool empty() const noexcept { return size_ == 0; }
+  /// Term j.
   const incidence& operator[](std::size_t j) const noexcept { return data()[j]; }
 
  private:
@@ -199,7 +210,9 @@ class simplex_boundary {
 template <simplex_label Label = std::string>
 class simplicial_complex {
  public:
+  /// The type of vertex labels.
   using label_type = Label;
+  /// The number of a vertex: its index among the vertices.
   using vertex_id = std::uint32_t;
 
   class builder;
@@ -295,6 +308,7 @@ class simplicial_complex {
     if (std::adjacent_find(key.begin(), key.end()) != key.end()) return std::nullopt;
     return find_sorted(static_cast<int>(key.size()) - 1, key);
   }
+  /// The same from a braced list of vertex ids.
   std::optional<std::size_t> find(std::initializer_list<vertex_id> ids) const {
     return find(std::span<const vertex_id>(ids.begin(), ids.size()));
   }
@@ -335,6 +349,7 @@ class simplicial_complex {
     return out;
   }
 
+  /// Same labels and the same simplices in the same order.
   friend bool operator==(const simplicial_complex& a, const simplicial_complex& b) {
     return a.labels_ == b.labels_ && a.simplices_ == b.simplices_;
   }
@@ -427,6 +442,7 @@ class simplicial_complex<Label>::builder {
     add_sorted(sorted);
     return *this;
   }
+  /// The same from a braced list of labels.
   builder& add_facet(std::initializer_list<Label> labels) {
     return add_facet<std::initializer_list<Label>>(labels);
   }

@@ -21,8 +21,10 @@ namespace lacuna {
 
 /// Which cells of a complex are chosen, and their new indices (npos if not chosen).
 struct cell_selection {
+  /// The new index of a cell not chosen.
   static constexpr std::size_t npos = std::numeric_limits<std::size_t>::max();
-  std::vector<std::vector<std::size_t>> new_index;  // [k][i]
+  std::vector<std::vector<std::size_t>> new_index;  ///< [k][i]
+  /// True if cell i of dimension k is chosen.
   bool contains(int k, std::size_t i) const {
     return k >= 0 && static_cast<std::size_t>(k) < new_index.size() && i < new_index[static_cast<std::size_t>(k)].size() &&
            new_index[static_cast<std::size_t>(k)][i] != npos;
