@@ -57,26 +57,38 @@ namespace lacuna {
 /// values matter modulo d); bounding_chains: one (k+1)-chain per torsion generator.
 template <class R>
 struct certified_group {
+  /// The degree k.
   int dimension = 0;
+  /// The number of free generators.
   std::size_t rank = 0;
+  /// The torsion factors, d_1 | d_2 | ..., non-units.
   std::vector<R> torsion;
+  /// Cycles: rank free generators, then one per torsion factor.
   std::vector<chain<R>> generators;
+  /// One cocycle per generator, in the same order.
   std::vector<chain<R>> cocycles;
+  /// One (k+1)-chain per torsion generator g, whose boundary is d g.
   std::vector<chain<R>> bounding_chains;
 };
 
 /// A lower bound of the rank of one boundary map ∂_k: the square submatrix of ∂_k on the
 /// (k−1)-cells `rows[i]` and the k-cells `columns[i]` is non-singular modulo `prime`.
 struct rank_witness {
+  /// The prime modulo which the submatrix is non-singular.
   std::uint64_t prime = 0;
+  ///@{
+  /// The (k-1)-cells and the k-cells of the submatrix, in matching order.
   std::vector<std::size_t> rows, columns;
+  ///@}
 };
 
 /// A certificate of the homology of a complex over R (lacuna::integer or a field):
 /// groups[k] for k = 0..top, ranks[k] for ∂_k, k = 0..top (ranks[0] empty: ∂_0 = 0).
 template <class R>
 struct homology_certificate {
+  /// groups[k] for k = 0..top.
   std::vector<certified_group<R>> groups;
+  /// ranks[k]: a witness of a lower bound of the rank of the boundary map ∂_k.
   std::vector<rank_witness> ranks;
 };
 
@@ -85,11 +97,16 @@ struct homology_certificate {
 /// the generator concerned (torsion factor i is generator rank + i; -1: none), and
 /// first_failure says what failed, in words.
 struct certificate_report {
+  /// True if every check passed.
   bool ok = true;
+  /// What failed, in words; empty when ok.
   std::string first_failure;
+  /// The degree k concerned, -1 if none.
   int dimension = -1;
+  /// The index of the generator concerned, -1 if none.
   std::ptrdiff_t generator = -1;
   std::size_t checks = 0;  ///< facts verified (a test can see that something was checked)
+  /// ok.
   explicit operator bool() const noexcept { return ok; }
 };
 

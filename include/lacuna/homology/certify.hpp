@@ -57,7 +57,9 @@ concept certifiable_ring = euclidean_domain<R> && (std::same_as<R, integer> || s
 /// A homology result with generators and the certificate of its groups.
 template <class R>
 struct certified_homology_result {
+  /// The groups and generators.
   homology_result<R> result;
+  /// The certificate of the groups, for check_certificate.
   homology_certificate<R> certificate;
 };
 

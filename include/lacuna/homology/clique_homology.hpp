@@ -65,12 +65,15 @@ enum class clique_reduction {
   dominated_edges,
 };
 
+/// Options of clique_homology.
 struct clique_homology_options {
   homology_options homology{};  ///< generators, reduced, keep_basis, threads, control
+  /// Which graph reduction runs before the clique complex is built.
   clique_reduction reduction = clique_reduction::dominated_vertices;
   sparse_elimination algorithm{};  ///< for the core's complex
 };
 
+/// What clique_homology computes: the groups of the clique complex of a graph, and the smaller complex (the core) they were computed on.
 template <euclidean_domain R, simplex_label Label>
 struct clique_homology_result {
   /// H_0..H_top of clique_complex(vertices, edges, max_dimension), top its dimension.
@@ -95,7 +98,9 @@ struct clique_homology_result {
   /// The input graph: for each input vertex its neighbours of higher number, sorted.
   std::vector<std::vector<std::uint32_t>> adjacency;
 
+  /// The top dimension of `groups`.
   int top_dimension() const { return static_cast<int>(groups.size()) - 1; }
+  /// The ranks of the groups, by dimension.
   std::vector<std::size_t> betti_numbers() const {
     std::vector<std::size_t> b;
     for (const auto& g : groups) b.push_back(g.rank);

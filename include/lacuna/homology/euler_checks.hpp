@@ -27,20 +27,31 @@ namespace lacuna {
 /// Options of euler_checks: primes p for the Z/p checks, a subcomplex A (marks [k][i]), and
 /// a cover X = A ∪ B by two subcomplexes (marks of A and of B).
 struct euler_check_options {
+  /// The primes p of the checks over Z/p.
   std::vector<std::uint64_t> primes;
+  /// The subcomplex A, marks [k][i], for the identities of the pair (X, A).
   std::optional<std::vector<std::vector<bool>>> subcomplex;
+  /// The cover X = A ∪ B, marks of A and of B, for the Mayer-Vietoris identity.
   std::optional<std::pair<std::vector<std::vector<bool>>, std::vector<std::vector<bool>>>> cover;
 };
 
 /// One identity tested: its statement, both sides, and whether they agree.
 struct euler_identity {
+  /// The identity, in words.
   std::string statement;
+  ///@{
+  /// Its left and right sides.
   std::int64_t lhs = 0, rhs = 0;
+  ///@}
+  /// True if the two sides are equal.
   bool holds = true;
 };
 
+/// The outcome of euler_checks: every identity tested.
 struct euler_report {
+  /// True if every identity holds.
   bool ok = true;
+  /// The identities, in the order tested.
   std::vector<euler_identity> identities;
 };
 

@@ -39,9 +39,13 @@ namespace lacuna {
 /// One group of a sequence: R^rank + R/t_1 + ..., with a name for reports.
 template <euclidean_domain R>
 struct sequence_group {
+  /// The group's name in reports, e.g. "H_1(A)".
   std::string name;
+  /// The number of free generators.
   std::size_t rank = 0;
+  /// The torsion factors.
   std::vector<R> torsion;
+  /// The number of coordinates of an element: rank + torsion.size().
   std::size_t coordinates() const { return rank + torsion.size(); }
 };
 
@@ -49,8 +53,11 @@ struct sequence_group {
 /// the images of the generators of groups[i] in the coordinates of groups[i+1].
 template <euclidean_domain R>
 struct exact_sequence {
+  /// G_0, ..., G_m.
   std::vector<sequence_group<R>> groups;
+  /// maps[i] : G_i -> G_{i+1}.
   std::vector<dense_matrix<R>> maps;
+  /// The name of each map, for reports.
   std::vector<std::string> map_names;
 };
 
@@ -58,13 +65,16 @@ struct exact_sequence {
 struct exactness_place {
   std::size_t position = 0;  ///< index of the group in the sequence
   std::string group;         ///< its name
+  /// True if the kernel of the outgoing map equals the image of the incoming one.
   bool exact = true;
   std::string message;       ///< empty when exact; else what fails (kernel or image, which map)
 };
 
 /// The verdict on a whole sequence: one place per interior group.
 struct exactness_report {
+  /// True if the sequence is exact at every place.
   bool exact = true;
+  /// One verdict per interior group.
   std::vector<exactness_place> places;
   /// The first place that fails, or nullptr.
   const exactness_place* first_failure() const {
@@ -194,8 +204,15 @@ exactness_report check_exactness(const exact_sequence<R>& seq) {
 template <euclidean_domain R>
 struct pair_sequence {
   included_subcomplex A;  ///< the subcomplex as a cell_list, its inclusion, its selection
+  ///@{
+  /// The homology of A, of X and of the pair (X, A), with generators.
   homology_result<R> hA, hX, hXA;
+  ///@}
+  ///@{
+  /// The maps i_*, j_* and the connecting homomorphisms, by degree n.
   std::vector<induced_homomorphism<R>> i_star, j_star, connecting;
+  ///@}
+  /// The top degree N.
   int top = -1;
 
   /// As one sequence 0 -> H_N(A) -> H_N(X) -> H_N(X,A) -> ... -> H_0(X,A) -> 0.
@@ -227,6 +244,7 @@ struct pair_sequence {
     }
     return s;
   }
+  /// Checks exactness at every place of sequence().
   exactness_report check() const { return check_exactness(sequence()); }
 };
 

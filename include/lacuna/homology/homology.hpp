@@ -98,8 +98,11 @@ struct homology_options {
 /// One homology group H_k = R^rank + R/t_1 + ... + R/t_m (t_1 | t_2 | ..., non-units).
 template <euclidean_domain R>
 struct homology_group {
+  /// The degree k.
   int dimension = 0;
+  /// The number of free generators (the Betti number, over a field the dimension).
   std::size_t rank = 0;
+  /// The torsion factors t_1 | t_2 | ..., non-units (empty over a field).
   std::vector<R> torsion;
   /// With generators: rank free generators first (order 0), then one per torsion factor.
   std::vector<chain<R>> generators;
@@ -427,12 +430,18 @@ std::vector<level_result<R>> compute_levels_any(const C& c, const homology_optio
 template <euclidean_domain R>
 class homology_result {
  public:
+  /// groups[k] is the group of degree k, k = 0..top_dimension().
   std::vector<homology_group<R>> groups;
+  /// True for cohomology.
   bool cohomology = false;
+  /// True for reduced (co)homology.
   bool reduced = false;
 
+  /// The group of degree k; throws std::out_of_range outside 0..top_dimension().
   const homology_group<R>& operator[](int k) const { return groups.at(static_cast<std::size_t>(k)); }
+  /// The highest degree, -1 for the empty complex.
   int top_dimension() const { return static_cast<int>(groups.size()) - 1; }
+  /// The ranks of the groups, by degree.
   std::vector<std::size_t> betti_numbers() const {
     std::vector<std::size_t> b;
     for (const auto& g : groups) b.push_back(g.rank);
@@ -467,14 +476,16 @@ class homology_result {
     check_cycle(complex, cycle);
     return coordinates(cycle);
   }
+  /// is_boundary(cycle), after checking on `complex` that the chain is a cycle, as coordinates(complex, cycle) does.
   template <cell_complex C>
   bool is_boundary(const C& complex, const chain<R>& cycle) const {
     check_cycle(complex, cycle);
     return is_boundary(cycle);
   }
 
-  std::shared_ptr<detail::homology_basis<R>> basis_;  // internal
-  int level_offset_ = 0;                               // internal: level = dim - offset (or top - dim)
+  std::shared_ptr<detail::homology_basis<R>> basis_;  ///< internal
+  int level_offset_ = 0;                               ///< internal: level = dim - offset (or top - dim)
+  /// internal: the top dimension that levels are numbered from.
   int top_ = -1;
   /// internal: with a Morse pre-reduction, the chain map from the original complex to the
   /// complex the basis belongs to.
@@ -577,7 +588,7 @@ class homology_result {
   }
 
  public:
-  R unit_ = one<R>();  // internal: the one of R the result was computed with
+  R unit_ = one<R>();  ///< internal: the one of R the result was computed with
 };
 
 namespace detail {

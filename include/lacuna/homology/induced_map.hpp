@@ -32,11 +32,19 @@ namespace lacuna {
 /// coordinates, columns source generators.
 template <euclidean_domain R>
 struct induced_homomorphism {
+  /// The degree of the source group.
   int source_dimension = 0;
+  /// The degree of the target group.
   int target_dimension = 0;
+  ///@{
+  /// The numbers of free generators of the source and of the target.
   std::size_t source_rank = 0, target_rank = 0;
+  ///@}
+  ///@{
+  /// The torsion factors of the source and of the target.
   std::vector<R> source_torsion, target_torsion;
-  dense_matrix<R> matrix;  ///< (target_rank + #target_torsion) x (source_rank + #source_torsion)
+  ///@}
+  dense_matrix<R> matrix;  ///< (target_rank + target_torsion.size()) x (source_rank + source_torsion.size())
 
   /// The map on the free parts: target_rank x source_rank.
   dense_matrix<R> free_part() const { return block(0, target_rank, 0, source_rank); }

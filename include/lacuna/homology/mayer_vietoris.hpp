@@ -35,9 +35,19 @@ namespace lacuna {
 /// connecting[n] : H_n(X) -> H_{n-1}(A∩B) (connecting[0] maps to the zero group).
 template <euclidean_domain R>
 struct mayer_vietoris_sequence {
+  ///@{
+  /// The subcomplexes A, B and C = A ∩ B, each with its inclusion into X.
   included_subcomplex A, B, C;  ///< C = A ∩ B
+  ///@}
+  ///@{
+  /// The homology of A, B, C = A ∩ B and X, with generators.
   homology_result<R> hA, hB, hC, hX;
+  ///@}
+  ///@{
+  /// The maps phi, psi and the connecting homomorphisms, by degree n.
   std::vector<dense_matrix<R>> phi, psi, connecting;
+  ///@}
+  /// The top degree.
   int top = -1;
 
   /// The group H_n(A) ⊕ H_n(B) in the coordinates described above.
@@ -81,6 +91,7 @@ struct mayer_vietoris_sequence {
     }
     return s;
   }
+  /// Checks exactness at every place of sequence().
   exactness_report check() const { return check_exactness(sequence()); }
 };
 

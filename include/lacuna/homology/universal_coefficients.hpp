@@ -25,13 +25,17 @@ namespace lacuna {
 /// One identity checked: what it says, both sides, and whether they agree.
 struct identity_check {
   std::string statement;  ///< e.g. "dim H_1(X; Z/2) = rank H_1 + #2|tors H_1 + #2|tors H_0"
+  /// The value the identity predicts.
   std::string predicted;
+  /// The value computed.
   std::string computed;
+  /// True if the two agree.
   bool holds = false;
 };
 
 /// All identities checked by check_universal_coefficients, in order.
 struct coefficient_report {
+  /// The identities, in order.
   std::vector<identity_check> identities;
   /// True when every identity holds.
   bool ok() const {

@@ -49,9 +49,13 @@ namespace lacuna {
 /// The outcome of verify_generators: ok, or the first failure in words; `checks` counts the
 /// individual facts that were verified (so a test can see that something was checked).
 struct verification_report {
+  /// True if every check passed.
   bool ok = true;
+  /// What failed, in words; empty when ok.
   std::string first_failure;
+  /// The number of facts verified.
   std::size_t checks = 0;
+  /// ok.
   explicit operator bool() const noexcept { return ok; }
 };
 
