@@ -45,6 +45,7 @@ struct distance_matrix {
   /// Entry (i, j) for i > j at i (i - 1) / 2 + j: row 1, then row 2, ... of the lower triangle.
   std::vector<double> lower;
 
+  /// The number of points.
   std::size_t size() const noexcept { return points; }
   /// The distance between points i and j (0 when i == j). Precondition: i, j < size().
   double operator()(std::size_t i, std::size_t j) const noexcept {

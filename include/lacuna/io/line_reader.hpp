@@ -127,6 +127,7 @@ inline std::string_view strip_comment(std::string_view line, char mark = '#') {
 /// Reads a text stream line by line under the rules at the top of this header.
 class line_reader {
  public:
+  /// Reads `in`; `file_name` names it in messages.
   line_reader(std::istream& in, std::string file_name, line_reader_options options = {})
       : in_(in), sb_(in.rdbuf()), file_(std::move(file_name)), opt_(options) {
     if (opt_.read_ahead) buffer_.resize(std::max<std::size_t>(opt_.block_bytes, 16));
@@ -140,6 +141,7 @@ class line_reader {
 
   /// The 1-based number of the line last handed out (0 before the first).
   std::size_t line_number() const noexcept { return line_number_; }
+  /// The file name given at construction.
   const std::string& file_name() const noexcept { return file_; }
   /// True when the last line handed out ended in LF (false: the input ended without one).
   bool last_line_terminated() const noexcept { return terminated_; }
@@ -150,6 +152,7 @@ class line_reader {
 
   /// Throws parse_error at the line last handed out.
   [[noreturn]] void fail(const std::string& message) const { fail_at(line_number_, message); }
+  /// Throws parse_error at line `line`.
   [[noreturn]] void fail_at(std::size_t line, const std::string& message) const {
     throw parse_error(file_, line, message);
   }

@@ -44,13 +44,19 @@ namespace lacuna::io {
 
 /// One pair of a sparse distance list: 0-based points (a < b) and their distance.
 struct listed_pair {
+  ///@{
+  /// The two points, a < b.
   std::uint32_t a = 0, b = 0;
+  ///@}
+  /// Their distance.
   double distance = 0;
 };
 
 /// A sparse distance list as read: the number of points and the pairs, in the order of the file.
 struct link_list {
+  /// The number of points.
   std::size_t points = 0;
+  /// The pairs, in the order of the file.
   std::vector<listed_pair> pairs;
   /// The line of the file of each pair (for messages of later checks).
   std::vector<std::size_t> lines;

@@ -49,16 +49,23 @@ namespace lacuna::io {
 
 /// What a NRRD header says, as far as lacuna reads it.
 struct nrrd_header {
+  /// The sample types lacuna reads.
   enum class sample_type { uint8, int8, uint16, int16 };
+  /// The data encodings lacuna reads.
   enum class data_encoding { raw, gzip };
+  /// The number of axes.
   int dimension = 0;
   std::vector<std::uint64_t> sizes;  ///< per axis, fastest first
+  /// The sample type.
   sample_type type = sample_type::uint8;
+  /// The encoding of the data.
   data_encoding encoding = data_encoding::raw;
+  /// True for big-endian samples.
   bool big_endian = false;
   std::uint64_t data_offset = 0;  ///< bytes from the reader's start to the first data byte
   std::size_t header_lines = 0;   ///< lines of the header, the empty line included
 
+  /// 1 or 2.
   unsigned bytes_per_sample() const noexcept {
     return (type == sample_type::uint16 || type == sample_type::int16) ? 2 : 1;
   }

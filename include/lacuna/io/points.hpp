@@ -44,6 +44,7 @@ struct point_cloud {
 
   /// The number of points.
   std::size_t size() const noexcept { return lines.size(); }
+  /// True when there is no point.
   bool empty() const noexcept { return lines.empty(); }
   /// The coordinates of point i. Precondition: i < size().
   std::span<const double> point(std::size_t i) const noexcept {

@@ -40,6 +40,7 @@ struct image_options {
   /// Foreground: samples >= threshold when set; otherwise samples other than zero. (In PBM a
   /// black pixel has the value 1.)
   std::optional<std::int64_t> threshold{};
+  /// The limits the reader enforces.
   read_limits limits{};
 };
 

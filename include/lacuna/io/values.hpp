@@ -48,6 +48,7 @@ enum class value_names {
 
 /// Limits of read_values, checked before the memory they guard is taken.
 struct values_read_options {
+  /// How a line names its cell.
   value_names names = value_names::cell;
   /// The most lines with a value.
   std::size_t max_records = std::size_t{1} << 26;
@@ -64,12 +65,14 @@ struct values_read_options {
 class value_list {
  public:
   value_list() = default;
+  /// An empty list of the value file named `file`.
   explicit value_list(std::string file) : file_(std::move(file)) {}
 
   /// The value file's name, as given to the reader (used in the resolver's messages).
   const std::string& file() const noexcept { return file_; }
   /// The number of records.
   std::size_t size() const noexcept { return records_.size(); }
+  /// True when there is no record.
   bool empty() const noexcept { return records_.empty(); }
   /// The 1-based line of record r in the value file.
   std::size_t line(std::size_t r) const { return records_.at(r).line; }
@@ -166,8 +169,11 @@ inline value_list read_values(const std::filesystem::path& path, const values_re
 
 /// A record of a value file resolved to its cell.
 struct cell_value {
+  /// The dimension of the cell.
   int dimension;
+  /// Its index in its dimension.
   std::size_t index;
+  /// The value.
   double value;
   /// The line of the value file.
   std::size_t line;

@@ -45,7 +45,9 @@ enum class level_sets {
 /// The order of sample values: a < b when ascending, a > b when descending (superlevel).
 template <class T>
 struct sample_order {
+  /// True for the superlevel order (largest first).
   bool descending = false;
+  /// a comes before b.
   constexpr bool operator()(const T& a, const T& b) const { return descending ? b < a : a < b; }
 };
 
@@ -57,12 +59,19 @@ class cubical_filtration {
   static_assert(D >= 1 && D <= 8, "cubical_filtration supports dimensions 1 to 8");
 
  public:
+  /// The sample type T.
   using value_type = T;
+  /// Voxel extents n_1..n_D (axis 0 first).
   using extents_type = std::array<std::size_t, D>;
+  /// A position in the doubled grid (odd coordinates are free axes).
   using position_type = std::array<std::size_t, D>;
+  /// The boundary range: inline storage, no heap allocation.
   using boundary_range = detail::small_incidence_range<2 * D>;
+  /// The coboundary range: inline storage, no heap allocation.
   using coboundary_range = detail::small_incidence_range<2 * D>;
+  /// The dimension D of the grid.
   static constexpr std::size_t dimension = D;
+  /// The number of parity classes, 2^D.
   static constexpr unsigned class_count = 1u << D;
 
   /// The empty filtration.
@@ -270,7 +279,9 @@ class cubical_filtration {
   /// The index of the first cell of the parity class `odd_axes` among the cells of its
   /// dimension, and the class's size and sub-grid strides (axis 0 fastest).
   std::size_t class_first_index(unsigned odd_axes) const noexcept { return first_index_[odd_axes]; }
+  /// The number of cells of the parity class `odd_axes`.
   std::size_t class_size(unsigned odd_axes) const noexcept { return class_size_[odd_axes]; }
+  /// The strides of the sub-grid of the parity class `odd_axes` (axis 0 fastest).
   const std::array<std::size_t, D>& class_strides(unsigned odd_axes) const noexcept { return sub_stride_[odd_axes]; }
   /// The voxel strides (axis 0 fastest).
   const std::array<std::size_t, D>& voxel_strides() const noexcept { return stride_; }

@@ -949,6 +949,7 @@ class morse_persistence {
 /// leaves, reduced with clearing (see the file comment). Reports the pairs of positive
 /// persistence and the essential classes, with cells of their values.
 struct cubical_morse_persistence {
+  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
     requires is_cubical_filtration<F>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,

@@ -36,13 +36,18 @@ inline constexpr std::size_t no_cell = std::numeric_limits<std::size_t>::max();
 /// dimension, as in the filtration (lacuna::cell_name names them).
 template <class V>
 struct persistence_pair {
+  /// The value at which the class is born.
   V birth{};
+  /// The value at which it dies; empty for an essential class.
   std::optional<V> death{};
+  /// The k-cell whose entry creates the class.
   std::size_t birth_cell = 0;
+  /// The (k+1)-cell whose entry kills it, no_cell for an essential class.
   std::size_t death_cell = no_cell;
 
   /// True for a class that never dies.
   bool essential() const noexcept { return !death.has_value(); }
+  /// Same values and cells.
   friend bool operator==(const persistence_pair&, const persistence_pair&) = default;
 };
 
@@ -50,8 +55,11 @@ struct persistence_pair {
 /// V models filtration_value; Order is the filtration's strict weak order on V.
 template <class V, class Order = std::less<V>>
 struct persistence_diagram {
+  /// The dimension k of the classes.
   int dimension = 0;
+  /// The classes.
   std::vector<persistence_pair<V>> pairs;
+  /// The order of the values.
   Order order{};
 
   /// The number of classes alive at t: born at t or before, and not dead at t
@@ -77,6 +85,7 @@ struct persistence_diagram {
   std::size_t essential_count() const {
     return static_cast<std::size_t>(std::count_if(pairs.begin(), pairs.end(), [](const auto& p) { return p.essential(); }));
   }
+  /// Same dimension and pairs (the order objects are not compared).
   friend bool operator==(const persistence_diagram& a, const persistence_diagram& b) {
     return a.dimension == b.dimension && a.pairs == b.pairs;
   }
@@ -89,8 +98,11 @@ struct persistence_diagram {
 /// destroying cell enters and is one once it has (never, for an essential class).
 template <class V, class R, class Order = std::less<V>>
 struct persistence_result {
+  /// diagrams[k]: the diagram of dimension k.
   std::vector<persistence_diagram<V, Order>> diagrams;
+  /// representatives[k][j] for diagrams[k].pairs[j]; empty unless asked for.
   std::vector<std::vector<chain<R>>> representatives;
+  /// The order of the values.
   Order order{};
 
   /// The diagram of dimension k (std::out_of_range outside 0..max_dimension()).

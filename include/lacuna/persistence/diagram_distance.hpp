@@ -48,6 +48,7 @@ namespace lacuna {
 
 /// A matching between two persistence diagrams and its cost (the distance it attains).
 struct diagram_matching {
+  /// The partner of a point matched to the diagonal.
   static constexpr std::size_t diagonal = std::numeric_limits<std::size_t>::max();
   /// The bottleneck or p-Wasserstein cost of the matching (+infinity when the diagrams have
   /// different numbers of essential classes).

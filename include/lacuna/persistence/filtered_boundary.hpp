@@ -41,9 +41,13 @@ namespace lacuna {
 /// the positions; matrices[0] is the empty 0 x n_0 matrix.
 template <class V, commutative_ring R>
 struct filtered_boundary {
+  /// order[k][p]: the k-cell that enters p-th among the k-cells.
   std::vector<std::vector<std::uint32_t>> order;
+  /// position[k][i]: the place of the i-th k-cell in that order.
   std::vector<std::vector<std::uint32_t>> position;
+  /// values[k][i]: the value of the i-th k-cell.
   std::vector<std::vector<V>> values;
+  /// matrices[k]: the boundary from k-cells to (k-1)-cells, rows and columns by position.
   std::vector<sparse_matrix<R>> matrices;
 
   /// The highest dimension held (-1: none).

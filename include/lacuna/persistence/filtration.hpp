@@ -187,6 +187,7 @@ concept filtration = cell_complex<F> && requires(const F& f, int k, std::size_t 
 /// enters too early, or the cell without a value; face_index() names the face (npos if none).
 class filtration_error : public invalid_complex {
  public:
+  /// The cell `index` of dimension `dimension`, and its face `face_index` (npos if none).
   filtration_error(const std::string& message, int dimension, std::size_t index, std::size_t face_index = npos)
       : invalid_complex(message, dimension, index), face_index_(face_index) {}
   /// The index of the face (a (dimension()-1)-cell) that enters after the cell, npos if the

@@ -123,7 +123,11 @@ class rips_metric {
  public:
   /// One listed distance of a sparse metric: points a and b (0-based, distinct) at `distance`.
   struct link {
+    ///@{
+    /// The two points.
     std::size_t a = 0, b = 0;
+    ///@}
+    /// Their distance.
     double distance = 0;
   };
 
@@ -334,6 +338,7 @@ struct implicit_rips_options {
 /// when some number of a simplex with at most top_vertices vertices would not fit in 63 bits.
 class simplex_numbering {
  public:
+  /// The table for n vertices and simplices of up to top_vertices vertices; throws std::length_error as said above.
   simplex_numbering(std::size_t n, int top_vertices) : n_(n), top_(top_vertices) {
     constexpr std::uint64_t limit = std::uint64_t{1} << 63U;
     table_.assign(static_cast<std::size_t>(top_ + 1) * (n_ + 1), 0);
@@ -378,6 +383,7 @@ class simplex_numbering {
       top = lo;
     }
   }
+  /// The number n of vertices.
   std::size_t point_count() const noexcept { return n_; }
 
  private:
@@ -410,6 +416,7 @@ inline std::vector<std::uint32_t> implicit_rips_vertices(std::size_t n, int k, s
 /// Term i is the simplex simplex(i) (dimension + 1 points, increasing) with coefficient(i).
 template <class R>
 struct rips_cochain {
+  /// The dimension of the simplices.
   int dimension = 0;
   /// The points of the simplices, dimension + 1 per term, each simplex increasing.
   std::vector<std::uint32_t> vertices;
@@ -432,7 +439,9 @@ struct rips_cochain {
 /// cocycles[k][j] for persistence[k].pairs[j] (see that function for what they satisfy).
 template <class R>
 struct implicit_rips_cocycles {
+  /// The persistence, as implicit_rips_persistence computes it.
   persistence_result<double, R> persistence;
+  /// cocycles[k][j]: a representative cocycle of persistence[k].pairs[j].
   std::vector<std::vector<rips_cochain<R>>> cocycles;
 };
 

@@ -26,6 +26,7 @@ namespace lacuna {
 /// The default variant: cubical_morse_persistence for cubical filtrations, twist_persistence
 /// for every other filtration.
 struct automatic_persistence {
+  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
                                                                             const R& unit) const {

@@ -78,7 +78,9 @@ concept persistence_reduction = filtration<F> && field<R> &&
 /// The dimensions a computation reads: diagrams 0..D, cells 0..T (T = D + 1 where the
 /// filtration has such cells). D = -1 for the empty filtration.
 struct persistence_range {
+  /// The top dimension D of the diagrams.
   int diagram_top = -1;
+  /// The top dimension T of the cells read.
   int cell_top = -1;
 };
 
@@ -200,6 +202,7 @@ persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> twist_on(
 /// The column reduction of every boundary matrix on its own (Edelsbrunner, Letscher &
 /// Zomorodian 2002; Zomorodian & Carlsson 2005): the reference variant.
 struct standard_persistence {
+  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
                                                                             const R& unit) const {
@@ -217,6 +220,7 @@ struct standard_persistence {
 
 /// The column reduction with clearing, top dimension first (Chen & Kerber 2011).
 struct twist_persistence {
+  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
                                                                             const R& unit) const {
@@ -229,6 +233,7 @@ struct twist_persistence {
 /// The coboundary reduction with clearing, dimension 0 first (de Silva, Morozov &
 /// Vejdemo-Johansson 2011). Representatives, when asked for, come from a twist reduction.
 struct cohomology_persistence {
+  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
                                                                             const R& unit) const {

@@ -134,7 +134,9 @@ struct rips_options {
 /// i is the i-th point.
 class rips_filtration {
  public:
+  /// The complex: vertex i is the i-th point.
   using complex_type = simplicial_complex<std::uint32_t>;
+  /// The values: distances.
   using value_type = double;
 
   /// The empty filtration.
@@ -168,9 +170,12 @@ class rips_filtration {
   }
 
   // ---- the cell_complex interface (that of the simplicial complex) -----------------------
+  ///@{
+  /// The cell_complex interface, that of the simplicial complex.
   int top_dimension() const noexcept { return complex_.top_dimension(); }
   std::size_t cell_count(int k) const noexcept { return complex_.cell_count(k); }
   simplex_boundary boundary(int k, std::size_t i) const { return complex_.boundary(k, i); }
+  ///@}
   /// The point numbers of the simplex, increasing, joined by single spaces ("0 4 7").
   std::string cell_name(int k, std::size_t i) const { return complex_.cell_name(k, i); }
 

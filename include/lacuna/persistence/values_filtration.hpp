@@ -38,8 +38,11 @@ template <cell_complex C, filtration_value V, class Order = std::less<V>>
   requires std::strict_weak_order<const Order&, const V&, const V&>
 class values_filtration {
  public:
+  /// The complex C.
   using complex_type = C;
+  /// The value type V.
   using value_type = V;
+  /// The order on the values.
   using order_type = Order;
 
   /// Every cell's value: values[k][i] for the i-th k-cell, k = 0..top (one vector per
@@ -128,11 +131,14 @@ class values_filtration {
   }
 
   // ---- the cell_complex interface: the complex's own --------------------------------------
+  ///@{
+  /// The cell_complex interface, forwarded to the complex.
   int top_dimension() const { return lacuna::top_dimension(*complex_); }
   std::size_t cell_count(int k) const { return lacuna::cell_count(*complex_, k); }
   decltype(auto) boundary(int k, std::size_t i) const { return lacuna::boundary(*complex_, k, i); }
   std::string cell_name(int k, std::size_t i) const { return lacuna::cell_name(*complex_, k, i); }
   std::vector<std::size_t> faces_as_written(int k, std::size_t i) const { return lacuna::faces_as_written(*complex_, k, i); }
+  ///@}
 
   // ---- the filtration ---------------------------------------------------------------------
   /// The value of the i-th k-cell.
