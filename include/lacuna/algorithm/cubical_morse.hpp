@@ -678,6 +678,7 @@ class cubical_morse_complex {
 /// True for the complexes cubical_morse_reduce serves: cubical_complex<D>, 1 <= D <= 4.
 template <class C>
 inline constexpr bool has_implicit_morse_complex = false;
+/// True for cubical_complex<D> with D <= 4.
 template <std::size_t D>
 inline constexpr bool has_implicit_morse_complex<cubical_complex<D>> = (D <= 4);
 

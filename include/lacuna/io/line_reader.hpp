@@ -94,7 +94,7 @@ inline bool valid_utf8(std::string_view s) {
 }
 
 /// Input text quoted for a message: '...', at most `max_bytes` bytes of it (then "..."),
-/// control bytes (NUL included) and bytes that are not well-formed UTF-8 written as \xHH. So
+/// control bytes (NUL included) and bytes that are not well-formed UTF-8 written as `\xHH`. So
 /// a message is one line of valid UTF-8 and is never cut short by a NUL.
 inline std::string quote_text(std::string_view s, std::size_t max_bytes = 40) {
   std::string out = "'";

@@ -69,6 +69,7 @@ namespace lacuna {
 /// True for lacuna::cubical_filtration<D, T>.
 template <class F>
 inline constexpr bool is_cubical_filtration = false;
+/// True: a cubical_filtration.
 template <std::size_t D, class T>
 inline constexpr bool is_cubical_filtration<cubical_filtration<D, T>> = true;
 

@@ -179,6 +179,7 @@ inline constexpr cpo_detail::normalize_fn normalize{};
 inline constexpr cpo_detail::inverse_fn inverse{};
 }  // namespace cpo
 
+///@{
 /// lacuna::zero<R>(), lacuna::one<R>().
 template <class R>
 constexpr R zero() {
@@ -194,6 +195,7 @@ constexpr R one() {
   else
     return from_integer<R>(1);
 }
+///@}
 
 // ---------------------------------------------------------------------------------------
 // The concepts
