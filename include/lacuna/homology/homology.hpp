@@ -434,12 +434,12 @@ class homology_result {
   std::vector<homology_group<R>> groups;
   /// True for cohomology.
   bool cohomology = false;
-  /// True for reduced (co)homology.
+  /// True for reduced homology (reduced cohomology is not offered).
   bool reduced = false;
 
   /// The group of degree k; throws std::out_of_range outside 0..top_dimension().
   const homology_group<R>& operator[](int k) const { return groups.at(static_cast<std::size_t>(k)); }
-  /// The highest degree, -1 for the empty complex.
+  /// The highest degree, groups.size() - 1.
   int top_dimension() const { return static_cast<int>(groups.size()) - 1; }
   /// The ranks of the groups, by degree.
   std::vector<std::size_t> betti_numbers() const {
