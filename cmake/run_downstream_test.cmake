@@ -1,4 +1,5 @@
-# KIND=find_package: installs lacuna from LACUNA_BINARY_DIR into a temporary prefix, then
+# KIND=find_package: installs lacuna's library component (headers, CMake package; not the tool,
+# which this test does not need built) from LACUNA_BINARY_DIR into a temporary prefix, then
 # configures, builds and runs the consumer in CONSUMER_DIR against it.
 # KIND=add_subdirectory: the consumer adds LACUNA_SOURCE_DIR as a subdirectory.
 file(REMOVE_RECURSE ${WORK_DIR})
@@ -12,7 +13,7 @@ function(run)
 endfunction()
 set(args -DCMAKE_CXX_COMPILER=${CXX} -DCMAKE_BUILD_TYPE=Release)
 if(KIND STREQUAL "find_package")
-  run(${CMAKE_COMMAND} --install ${LACUNA_BINARY_DIR} --prefix ${WORK_DIR}/prefix)
+  run(${CMAKE_COMMAND} --install ${LACUNA_BINARY_DIR} --prefix ${WORK_DIR}/prefix --component lacuna_library)
   list(APPEND args -DCMAKE_PREFIX_PATH=${WORK_DIR}/prefix)
 else()
   list(APPEND args -DLACUNA_SOURCE_DIR=${LACUNA_SOURCE_DIR})

@@ -5,18 +5,18 @@ set -euo pipefail
 
 packages=(
   g++ cmake make ninja-build pkg-config
-  libboost-dev          # Boost.Multiprecision (header-only), public dependency
-  librange-v3-dev       # range-v3, public dependency
+  libboost-dev          # Boost.Multiprecision (header-only), the one public dependency
   doctest-dev           # tests
   libbenchmark-dev      # benchmarks (Google Benchmark)
   libflint-dev          # reference library for cross-checks in tests and benchmarks
-  nlohmann-json3-dev    # JSON output of the command-line tool
+  nlohmann-json3-dev    # tests: the tool's JSON output is parsed back
   libcli11-dev          # argument parsing of the command-line tool
   zlib1g-dev            # gzip-encoded NRRD volumes
   libexpat1-dev         # tests: the SVG pictures of persistence are parsed back as XML
   doxygen               # the API reference (target docs, test docs/api_reference)
   clang                 # libFuzzer targets
   libclang-rt-14-dev    # sanitizer and fuzzer runtimes for clang
+  dpkg-dev              # cpack -G DEB: dpkg-shlibdeps finds the tool's library dependencies
 )
 
 missing=()
