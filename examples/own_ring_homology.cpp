@@ -42,7 +42,7 @@ void over(const char* space, const char* ring, const X& x, const lacuna::homolog
       else if (!lacuna::is_unit(mr)) torsion.push_back(lacuna::normalize(mr));
     }
     if (n > 0)
-      for (const auto& m : hz.groups[n - 1].torsion) rank += in_r(m) == lacuna::zero<R>() ? 1 : 0;  // Tor
+      for (const auto& m : hz.groups[n - 1].torsion) rank += in_r(m) == lacuna::zero<R>() ? 1U : 0U;  // Tor
     const std::string got = group_text(ring, h.groups[n].rank, h.groups[n].torsion),
                       want = group_text(ring, rank, torsion);
     std::cout << "  H_" << n << " = " << got << "   (UCT: " << want << ")\n";
