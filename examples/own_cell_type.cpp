@@ -90,7 +90,7 @@ int main() {
       }
       std::cout << (i ? ", " : " ") << z << (h[1].orders[i] == 0 ? "" : " (order " + h[1].orders[i].to_string() + ")");
     }
-    std::cout << "\n";
+    std::cout << (h[1].generators.empty() ? " nothing\n" : "\n");
     failures += groups == expected ? 0 : 1;
   }
   std::cout << (failures == 0 ? "all self-checks passed\n" : "some self-checks failed\n");
