@@ -1,7 +1,7 @@
 // A demo in a made-up setting: the CT scan of a sintered porous part, counted with lacuna.
 //
 // The program makes its own volume (nothing is read): powder grains — balls of varying radius
-// from a fixed-seed std::mt19937 — pressed into a block and sintered, densest in the core,
+// from a fixed-seed std::mt19937 — poured into a block and sintered, densest in the core,
 // with a few gas bubbles trapped there and a few loose grains lying beside the part. It then
 //   1. counts the solid's pieces, tunnels and sealed voids: H_0, H_1, H_2 over the integers,
 //      with generators (lacuna::homology on the cubical complex of the volume);
@@ -9,14 +9,15 @@
 //      counted independently here from 2x2x2 voxel neighbourhoods (Toriwaki & Yonekura 2002),
 //      and the Betti numbers against the library's second, independent route (voxel labellings
 //      and Alexander duality, algorithm/cubical_duality.hpp);
-//   3. says where each sealed void is: the bounding box of the squares of its H_2 generator;
+//   3. says where each sealed void is: the box of the pore voxels its H_2 generator winds
+//      around, the winding numbers computed from the generator's squares;
 //   4. looks at pore sizes: persistence of the superlevel sets of the Euclidean distance to the
 //      solid (Felzenszwalb & Huttenlocher 2012 for the exact distance transform);
 //   5. writes the volume as NRRD (for `lacuna homology`), a picture of slices with the sealed
 //      voids marked, and the persistence diagram of the pore sizes, as SVG.
 // It exits 1 (printing FAIL) when a check fails, 2 on bad arguments.
 //
-//   materials_scan [--size N] [--output DIR]     N voxels per side (default 128, 16..512)
+//   materials_scan [--size N] [--output DIR]     N voxels per side (default 128, 16..256)
 #include <lacuna/algorithm/cubical_duality.hpp>
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/homology/homology.hpp>
@@ -31,15 +32,16 @@
 #include <chrono>
 #include <cmath>
 #include <cstdint>
-#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <iostream>
 #include <limits>
+#include <optional>
 #include <random>
 #include <sstream>
 #include <stdexcept>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace {
@@ -86,7 +88,7 @@ constexpr std::int64_t far_away = std::numeric_limits<std::int64_t>::max();
 /// (far_away terms skipped), by the lower envelope of parabolas of Felzenszwalb & Huttenlocher,
 /// "Distance transforms of sampled functions", Theory of Computing 8 (2012). The breakpoints
 /// between parabolas are rationals compared by cross-multiplication, so every value is exact
-/// (numerators stay below 4 n^2 + 3 n^2, far inside 64 bits for n <= 512).
+/// (numerators stay below 4 n^2 + 3 n^2, far inside 64 bits for n <= 256).
 void distance_line(const std::vector<std::int64_t>& f, std::vector<std::int64_t>& out, std::vector<std::int64_t>& hull) {
   const auto len = static_cast<std::int64_t>(f.size());
   hull.clear();
@@ -264,7 +266,8 @@ struct voxel_box {
 struct enclosure {
   voxel_box box;             ///< of the pore voxels the cycle winds around
   std::size_t pore_voxels = 0;
-  std::size_t squares = 0;   ///< of the generator as the engine returned it
+  std::vector<std::pair<std::size_t, std::int64_t>> winding;  ///< (pore voxel, winding number), by voxel
+  std::size_t squares = 0;   ///< of the cycle
   bool closes = true;        ///< the winding numbers vanish again beyond the scan (a check)
 };
 
@@ -302,6 +305,7 @@ enclosure enclosed_by(const lacuna::cubical_complex<3>& c, const std::vector<std
         step(x);
         if (w != 0 && solid[x + n * (y + n * zz)] == 0) {
           ++e.pore_voxels;
+          e.winding.emplace_back(x + n * (y + n * zz), w);
           const std::array<std::size_t, 3> v{x, y, zz};
           for (std::size_t a = 0; a < 3; ++a) lo[a] = std::min(lo[a], v[a]), hi[a] = std::max(hi[a], v[a]);
         }
@@ -310,7 +314,48 @@ enclosure enclosed_by(const lacuna::cubical_complex<3>& c, const std::vector<std
       if (w != 0) e.closes = false;
     }
   if (e.pore_voxels > 0) e.box = {lo, hi};
+  std::sort(e.winding.begin(), e.winding.end());
   return e;
+}
+
+/// If the pore voxels of `inner` all lie among those of `outer`, with the windings of outer
+/// there c times those of inner for one integer c, returns c: then outer - c * inner winds
+/// around fewer voxels.
+std::optional<std::int64_t> nested_multiple(const enclosure& inner, const enclosure& outer) {
+  if (inner.winding.empty() || inner.winding.size() >= outer.winding.size()) return std::nullopt;
+  std::optional<std::int64_t> c;
+  auto it = outer.winding.begin();
+  for (const auto& [voxel, w] : inner.winding) {
+    it = std::lower_bound(it, outer.winding.end(), std::pair{voxel, std::numeric_limits<std::int64_t>::min()});
+    if (it == outer.winding.end() || it->first != voxel || it->second % w != 0) return std::nullopt;
+    if (c && *c != it->second / w) return std::nullopt;
+    c = it->second / w;
+  }
+  return c;
+}
+
+/// A basis of H_2 whose cycles wind around as few pore voxels as this finds: while the region
+/// of one generator z_i sits inside that of another z_j with proportional windings (factor c),
+/// z_j becomes z_j - c z_i. Each step is a unimodular change of basis (the classes still form
+/// a basis of H_2), computed on the chains themselves; the total number of enclosed voxels
+/// drops at each step, so it ends. The engine may return a cycle around two voids when one
+/// around each is as good; this separates such nested ones.
+std::vector<enclosure> separated_voids(const lacuna::cubical_complex<3>& c, const std::vector<std::uint8_t>& solid,
+                                       std::vector<lacuna::chain<lacuna::integer>> generators) {
+  std::vector<enclosure> found;
+  for (const auto& z : generators) found.push_back(enclosed_by(c, solid, z));
+  for (bool changed = true; changed;) {
+    changed = false;
+    for (std::size_t i = 0; i < found.size(); ++i)
+      for (std::size_t j = 0; j < found.size(); ++j)
+        if (i != j)
+          if (const auto m = nested_multiple(found[i], found[j])) {
+            generators[j] = lacuna::add_scaled(generators[j], lacuna::integer(-*m), generators[i]);
+            found[j] = enclosed_by(c, solid, generators[j]);
+            changed = true;
+          }
+  }
+  return found;
 }
 
 // ---- pictures ------------------------------------------------------------------------------
@@ -478,12 +523,12 @@ int run(std::size_t n, const std::filesystem::path& dir) {
   expect(same, "Betti numbers differ between the algebra and the duality route");
 
   // 3. Where the sealed voids are: each H_2 generator is a 2-cycle of squares of the solid;
-  // the pore voxels it winds around are found from its squares alone (enclosed_by).
-  std::vector<enclosure> found;
-  for (const auto& z : h[2].generators) {
-    found.push_back(enclosed_by(c, scan.solid, z));
-    expect(found.back().closes, "an H_2 generator is not closed along some line of the scan");
-    expect(found.back().pore_voxels > 0, "an H_2 generator winds around no pore voxel");
+  // the pore voxels it winds around are found from its squares alone (enclosed_by), after
+  // nested generators are separated by a change of basis (separated_voids).
+  auto found = separated_voids(c, scan.solid, h[2].generators);
+  for (const auto& e : found) {
+    expect(e.closes, "an H_2 generator is not closed along some line of the scan");
+    expect(e.pore_voxels > 0, "an H_2 generator winds around no pore voxel");
   }
   std::sort(found.begin(), found.end(), [](const enclosure& x, const enclosure& y) { return x.box.lo < y.box.lo; });
   std::vector<voxel_box> voids;
@@ -593,13 +638,13 @@ int main(int argc, char** argv) {
       } catch (const std::exception&) {
         used = 0;
       }
-      if (used != value.size() || value.empty() || value[0] == '-' || v < 16 || v > 512) {
-        std::cerr << "materials_scan: --size wants a whole number from 16 to 512, not '" << value << "'\n";
+      if (used != value.size() || value.empty() || value[0] == '-' || v < 16 || v > 256) {
+        std::cerr << "materials_scan: --size wants a whole number from 16 to 256, not '" << value << "'\n";
         return 2;
       }
       n = v;
     } else {
-      std::cerr << "usage: materials_scan [--size N] [--output DIR]   (N from 16 to 512, default 128; DIR default "
+      std::cerr << "usage: materials_scan [--size N] [--output DIR]   (N from 16 to 256, default 128; DIR default "
                    "materials_scan_output)\n";
       return 2;
     }

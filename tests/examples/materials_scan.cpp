@@ -283,7 +283,7 @@ TEST_CASE("examples/materials_scan counts pieces, tunnels and sealed voids as fl
 }
 
 TEST_CASE("examples/materials_scan refuses a bad size with exit status 2") {
-  for (const char* bad : {"--size 3", "--size x", "--size -40", "--size", "--colour red"}) {
+  for (const char* bad : {"--size 3", "--size 999", "--size x", "--size -40", "--size", "--colour red"}) {
     CAPTURE(bad);
     const auto r = run_scan(bad);
     CHECK(r.status == 2);
