@@ -1,22 +1,19 @@
-// mesh_check: the genus and the boundary circles of a polygon mesh, found twice — from homology
-// and from the mesh's own counts — and compared.
-//   mesh_check                 writes bracket.off (a made-up part: a plate with two slots
-//                              through it, the handles, and three open sockets, the boundary
-//                              circles; genus 2, 3 circles) and checks it
+// mesh_check: the genus and the boundary circles of a polygon mesh, found from homology and
+// from the mesh's own counts, and compared (docs/demo-mesh.md).
+//   mesh_check                 writes bracket.off — a made-up plate with two slots through it
+//                              (genus 2) and three open sockets (3 boundary circles) — and checks it
 //   mesh_check --make FILE     the same, written to FILE
 //   mesh_check FILE.off        checks a mesh of one's own
-// From homology (lacuna::homology over Z of the mesh read back by lacuna::io::read_off): the
-// Betti numbers; the rim (edges of one face) as a 1-dimensional complex, whose rank H_0 counts
-// the boundary circles; orientability from H_2(M, rim) = Z (Lefschetz duality; 0 when not
-// orientable: Hatcher 2002, §3.3) or, for a closed surface, from H_2 = Z. The groups are exact
-// (integer eliminations and Smith forms, docs/homology.md). The classification of surfaces (Hatcher
-// 2002, from memory): a connected orientable surface of genus g with b >= 1 boundary circles
-// has β1 = 2g + b − 1 and β2 = 0, a closed one β1 = 2g and β2 = 1; a non-orientable one with k
-// cross-caps has β1 = k + b − 1 (b >= 1), or H_1 = Z^(k−1) + Z/2 (b = 0).
-// From the mesh (its face lists only): χ = V − E + F, the rim's edges traced into loops, an
-// orientation spread from face to face, and g = (2 − χ − b)/2 (k = 2 − χ − b).
-// Exit status: 0 the two agree, 1 they disagree, 2 a bad file or not a surface (an edge of
-// three or more faces, or a vertex whose faces do not form one fan), or a disconnected mesh.
+// From homology (exact, over Z: docs/homology.md) of the mesh read back by io::read_off: the
+// Betti numbers; the rim (edges of one face) as a 1-complex, rank H_0 = boundary circles;
+// orientability from H_2(M, rim) = Z (Lefschetz duality; 0 when not orientable: Hatcher 2002,
+// §3.3) or H_2 = Z when closed. The classification of surfaces (Hatcher 2002, from memory):
+// orientable, genus g, b >= 1 circles: β1 = 2g + b − 1, β2 = 0; closed: β1 = 2g, β2 = 1;
+// k cross-caps: β1 = k + b − 1 (b >= 1), or H_1 = Z^(k−1) + Z/2 (closed).
+// From the face lists alone: χ = V − E + F, the rim traced into loops, an orientation spread
+// across shared edges, and g = (2 − χ − b)/2 (k = 2 − χ − b).
+// Exit status: 0 agree, 1 disagree, 2 a bad file, not a surface (an edge of three or more
+// faces, a vertex whose faces form more than one fan), or a mesh of several pieces.
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/io/off.hpp>

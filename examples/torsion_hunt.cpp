@@ -1,24 +1,15 @@
-// torsion_hunt: the reduced homology of matching complexes M(K_n) and chessboard complexes
-// M(m × n) (lacuna/complex/construct/graph_complexes.hpp) over a ring chosen on the command
-// line, one line per complex, each computed under a time budget (a stop request through
-// run_control), with checks that do not trust the engine:
-//   * face counts from recursions (a k-matching of K_n leaves vertex n free or pairs it with
-//     one of the n − 1 others; a placement of k rooks leaves the last row empty or puts a rook
-//     in one of its n columns) against the cells of the built complex, and the reduced Euler
-//     characteristic from those counts against Σ (−1)^k rank H̃_k (Euler–Poincaré);
-//   * connectivity (Björner, Lovász, Vrećica & Živaljević 1994, from memory): H̃_k = 0 for
-//     k < ν, ν = ⌊(n+1)/3⌋ − 1 for M(K_n) and min(m, ⌊(m+n+1)/3⌋) − 1 for m ≤ n boards;
-//   * published torsion (from memory): H̃_1(M(K_7)) = Z/3 (Bouc 1992); H̃_ν(M(K_n)) a non-zero
-//     finite group of exponent 3 for n ≡ 1 mod 3, n ≥ 7, and with 3-torsion for n = 9 and
-//     n ≥ 12; H̃_ν(M(m × n)) with 3-torsion for m ≤ n ≤ 2m − 5, and Z/3 when also
-//     m + n ≡ 1 mod 3 (Shareshian & Wachs 2007). Over a field the finite ones become, by
-//     universal coefficients (Hatcher 2002, Theorem 3A.3), dimension 0 over Q and Z/p (p ≠ 3)
-//     and a positive one (1 for Z/3) over Z/3; "has 3-torsion" is checked over Z only.
+// torsion_hunt: reduced homology of matching complexes M(K_n) and chessboard complexes M(m × n)
+// (lacuna/complex/construct/graph_complexes.hpp) over Z, Q or Z/p, one line per complex, each
+// under a time budget (a stop request through run_control). docs/demo-torsion.md explains it.
 //   torsion_hunt --ring Z|Q|Z/p --family matching|chessboard [--rows M] --from A --to B
 //                [--budget SECONDS] [--max-cells N]
 // The groups are the engine's (exact: unimodular eliminations and Smith forms, docs/homology.md);
-// the checks above are what makes them believable. Exit status: 0 all checks passed (a complex
-// stopped at its budget is no failure), 1 a check failed, 2 bad arguments.
+// each line ends with checks that do not trust it — face counts by recursions against the
+// built complex; Euler–Poincaré from those counts; the connectivity bound of Björner, Lovász,
+// Vrećica & Živaljević (1994); published torsion, from memory: Bouc (1992), Shareshian & Wachs
+// (2007) — over fields by universal coefficients (Hatcher 2002, Theorem 3A.3).
+// Exit status: 0 all checks passed (a stop at the budget is no failure), 1 a check failed,
+// 2 bad arguments.
 #include <lacuna/complex/construct/graph_complexes.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/ring/integer.hpp>
@@ -40,8 +31,8 @@ struct settings {
   std::string ring = "Z", family = "matching";
   int from = 5, to = 9, rows = 0;
   double budget = 10;
-  long long max_cells = 20'000'000;  // what is built at all (the build is not under the budget)
-  std::uint64_t p = 0;  // Z/p
+  long long max_cells = 20'000'000;  // building is not under the budget
+  std::uint64_t p = 0;               // of Z/p
 };
 
 long long checked(long long a, long long b, long long c) {  // a + b·c, never silently wrapped
@@ -50,8 +41,9 @@ long long checked(long long a, long long b, long long c) {  // a + b·c, never s
   return r;
 }
 // f[k] = the number of k-simplices: matchings of k + 1 edges, placements of k + 1 rooks.
+// t[a][b][k]: k-matchings of K_a (b = a): vertex a free, or paired with one of a − 1 others;
+// or placements of k rooks on an a × b board: the last row empty, or a rook on one of b squares.
 std::vector<long long> face_counts(bool matching, int m, int n) {
-  // t[a][b][k]: k-matchings of K_a (b = a), or placements of k rooks on an a × b board
   std::vector t(m + 1, std::vector(n + 1, std::vector<long long>(n + 2, 0)));
   for (int a = 0; a <= m; ++a)
     for (int b = 0; b <= n; ++b)
@@ -126,6 +118,7 @@ bool hunt(const settings& s, const R& unit) {
     if (!h) return std::printf("stopped at the budget of %g s (after %.2f s)\n", s.budget, secs), all_ok;  // larger ones take longer
     std::string groups, checks = ok ? "faces ok" : "faces FAIL";
     long long chi_h = 0;
+    // Björner, Lovász, Vrećica & Živaljević (1994), from memory: H~_k = 0 for k < ν
     const int nu = matching ? (n + 1) / 3 - 1 : std::min(m, (m + w + 1) / 3) - 1;
     bool connected = true;
     for (const auto& g : h->groups) {
@@ -145,7 +138,11 @@ bool hunt(const settings& s, const R& unit) {
     if constexpr (std::same_as<R, lacuna::integer>)
       for (const auto& t : b.torsion) threes += t == R(3), by3 += t % R(3) == R(0);
     const bool z = s.ring == "Z";
-    // finite, non-zero, exponent 3: over Z rank 0 and every factor 3; over a field by universal coefficients
+    // Published, from memory (Bouc 1992; Shareshian & Wachs 2007): H~_1(M(K_7)) = Z/3; for
+    // n ≡ 1 mod 3, n ≥ 7, H~_ν(M(K_n)) is finite, non-zero, of exponent 3; it has 3-torsion for
+    // n = 9 and n ≥ 12; H~_ν(M(m × n)) has 3-torsion for m ≤ n ≤ 2m − 5, and is Z/3 when also
+    // m + n ≡ 1 mod 3. Over a field, with H~_(ν−1) = 0 (universal coefficients): a finite 3-group
+    // has dimension 0 over Q and Z/p, p ≠ 3, and a positive one over Z/3 (1 for Z/3).
     const bool exp3 = z ? b.rank == 0 && !b.torsion.empty() && threes == b.torsion.size() : (b.rank > 0) == (s.p == 3);
     const bool z3 = z ? b.rank == 0 && b.torsion.size() == 1 && threes == 1 : b.rank == (s.p == 3 ? 1u : 0u);  // Z/3
     if (matching && n == 7) claim("Bouc92", z3);
