@@ -7,6 +7,7 @@
 #include "support.hpp"
 
 #include <lacuna/algorithm/dense_smith.hpp>
+#include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/homology/homology.hpp>
@@ -197,6 +198,24 @@ TEST_CASE("dense Smith forms take the control too") {
     if (r.done == 10) source.request_stop();
   };
   CHECK_THROWS_AS(lacuna::dense_smith_form(A, {.control = &control}), lacuna::computation_stopped);
+}
+
+TEST_CASE("sparse Smith forms take the control too (the coboundary route's large remainders use them)") {
+  // 2·I_30 with a unit in the corner: 1 unit pivot, then a 29 x 29 core; invariant factors
+  // 1 and 29 × 2 (diagonal, so they are read off: Smith form of a diagonal matrix whose
+  // entries divide each other in order)
+  lacuna::sparse_matrix<integer> A(30, 30);
+  for (std::size_t i = 0; i < 30; ++i) A.add(i, i, integer(static_cast<std::int64_t>(i == 0 ? 1 : 2)));
+  A.normalize();
+  lacuna::run_control control;
+  const auto s = lacuna::smith_normal_form(A, lacuna::sparse_elimination{}, &control);
+  CHECK(s.rank == 30);
+  CHECK(std::count(s.factors.begin(), s.factors.end(), integer(2)) == 29);
+  std::stop_source source;
+  control.stop = source.get_token();
+  source.request_stop();
+  CHECK_THROWS_AS((void)lacuna::smith_normal_form(A, lacuna::sparse_elimination{}, &control), lacuna::computation_stopped);
+  CHECK_THROWS_AS((void)lacuna::smith_normal_form(A, lacuna::dense_elimination{}, &control), lacuna::computation_stopped);
 }
 
 }  // namespace homology_run_control_test

@@ -297,7 +297,7 @@ smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dens
     return {d.rank, d.diagonal};
   }
   if (control) control->report("Smith form of the core", 0, 1);
-  auto s = smith_normal_form(A, sparse_elimination{});
+  auto s = smith_normal_form(A, sparse_elimination{}, control);  // stoppable: a large remainder can take long
   if (control) control->report("Smith form of the core", 1, 1);
   return s;
 }

@@ -18,6 +18,7 @@
 #include <lacuna/algorithm/smith_invariants.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
+#include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/integer.hpp>
@@ -103,11 +104,13 @@ concept smith_algorithm = std::same_as<P, sparse_elimination> || std::same_as<P,
 
 namespace detail {
 template <euclidean_domain R, class W, class Convert>
-smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimination& alg, Convert convert) {
+smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimination& alg, Convert convert,
+                                 const run_control* control) {
   auto rc = reducible_complex<W>::from_matrix(A, convert);
   auto opt = alg.effective_elimination();
   opt.set_aside = false;
   opt.record = false;
+  opt.control = control;
   const auto stats = eliminate_unit_pivots(rc, opt);
   const std::size_t pivots = stats.coreductions + stats.collapses + stats.markowitz;
   // The core: surviving rows and columns that still meet a non-zero entry.
@@ -129,14 +132,14 @@ smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimina
   smith_invariants<R> out;
   if constexpr (std::same_as<R, integer>) {  // modular, when its proofs go through
     if (prefer_modular_smith(core))
-      if (auto s = modular_smith_invariants(core)) {
+      if (auto s = modular_smith_invariants(core, control)) {
         out.factors.assign(pivots, one<R>());
         out.factors.insert(out.factors.end(), s->factors.begin(), s->factors.end());
         out.rank = out.factors.size();
         return out;
       }
   }
-  const auto d = dense_smith_form(std::move(core));
+  const auto d = dense_smith_form(std::move(core), {.control = control});
   out.factors.assign(pivots, one<R>());
   out.factors.insert(out.factors.end(), d.diagonal.begin(), d.diagonal.end());
   out.rank = out.factors.size();
@@ -147,10 +150,12 @@ smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimina
 /// The invariant factors of A (R models euclidean_domain) by the chosen variant.
 /// Integers: the sparse variant works on 64-bit coefficients and repeats the work with
 /// lacuna::integer when a coefficient would overflow, so the result is always exact.
+/// `control` (may be null): a stop request (throws computation_stopped) and progress.
 template <euclidean_domain R, smith_algorithm Algorithm = sparse_elimination>
-smith_invariants<R> smith_normal_form(const sparse_matrix<R>& A, const Algorithm& algorithm = {}) {
+smith_invariants<R> smith_normal_form(const sparse_matrix<R>& A, const Algorithm& algorithm = {},
+                                      const run_control* control = nullptr) {
   if constexpr (std::same_as<Algorithm, dense_elimination>) {
-    const auto d = dense_smith_form(A.to_dense());
+    const auto d = dense_smith_form(A.to_dense(), {.control = control});
     return {d.rank, d.diagonal};
   } else {
     if constexpr (std::same_as<R, integer>) {
@@ -158,12 +163,12 @@ smith_invariants<R> smith_normal_form(const sparse_matrix<R>& A, const Algorithm
         return detail::sparse_smith<R, checked_int64>(A, algorithm, [](const integer& x) {
           if (!x.is_small()) throw coefficient_overflow();
           return checked_int64(x.small_value());
-        });
+        }, control);
       } catch (const coefficient_overflow&) {
         // widen and repeat
       }
     }
-    return detail::sparse_smith<R, R>(A, algorithm, [](const R& x) { return x; });
+    return detail::sparse_smith<R, R>(A, algorithm, [](const R& x) { return x; }, control);
   }
 }
 
