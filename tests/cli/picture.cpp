@@ -172,8 +172,9 @@ std::string slurp(const std::string& path) {
   return s.str();
 }
 
-/// Runs --picture on `im` with `extra` options and checks the picture against the pixels.
-void check_picture(const image& im, const std::vector<std::string>& extra = {}) {
+/// Runs --picture on `im` with `extra` options and checks the picture against the pixels;
+/// returns beta_1 as the test computed it.
+int check_picture(const image& im, const std::vector<std::string>& extra = {}) {
   temp_dir dir;
   const std::string file = dir.write("image.pbm", pbm(im));
   const std::string out = (dir.path() / "cycles.svg").string();
@@ -192,6 +193,7 @@ void check_picture(const image& im, const std::vector<std::string>& extra = {}) 
   INFO(doc.error);
   REQUIRE(doc.well_formed);
   const auto [label, beta1] = holes_of(im);
+  CAPTURE(beta1);
   std::map<int, std::vector<std::vector<point>>> cycles;  // generator -> its polylines
   std::map<int, std::string> legend;  // generator -> its legend text
   int entries = 0;
@@ -228,6 +230,7 @@ void check_picture(const image& im, const std::vector<std::string>& extra = {}) 
     }
     CHECK(encircles);
   }
+  return beta1;
 }
 
 image from_rows(const std::vector<std::string>& rows) {
@@ -242,16 +245,17 @@ image from_rows(const std::vector<std::string>& rows) {
 }  // namespace
 
 TEST_CASE("--picture: two rings, a ring closed only at corners, and no hole at all") {
-  check_picture(from_rows({"..........", ".####.###.", ".#..#.#.#.", ".####.###.", ".........."}));
+  CHECK(check_picture(from_rows({"..........", ".####.###.", ".#..#.#.#.", ".####.###.", ".........."})) == 2);
   // the background pixel in the middle touches the foreground on all four sides; the pixels
   // around it meet only at corners, which closed squares share (a loop through 4 corners)
-  check_picture(from_rows({".#.", "#.#", ".#."}));
+  CHECK(check_picture(from_rows({".#.", "#.#", ".#."})) == 1);
   check_picture(from_rows({"###", "###"}));
   check_picture(from_rows({"...", "..."}));  // no foreground: the empty complex
 }
 
 TEST_CASE("--picture: random images, with generators and JSON, over Z, Q and Z/2") {
   std::uint64_t state = 16;
+  int holes = 0;
   for (int round = 0; round < 8; ++round) {
     const std::size_t w = 6 + static_cast<std::size_t>(round) * 3, h = 5 + static_cast<std::size_t>(round) * 2;
     image im(h, std::vector<bool>(w));
@@ -262,9 +266,10 @@ TEST_CASE("--picture: random images, with generators and JSON, over Z, Q and Z/2
       }
     CAPTURE(round);
     const char* coefficients[] = {"Z", "Q", "Z/2"};
-    check_picture(im, {"--coefficients", coefficients[round % 3]});
+    holes += check_picture(im, {"--coefficients", coefficients[round % 3]});
     if (round % 2 == 0) check_picture(im, {"--generators", "--json"});
   }
+  CHECK(holes >= 8);  // the images do have holes, so the checks above are not vacuous
 }
 
 TEST_CASE("--picture: more generators than colours (dashes) stay distinct entries") {
@@ -275,7 +280,7 @@ TEST_CASE("--picture: more generators than colours (dashes) stay distinct entrie
       for (int y = 0; y < 3; ++y)
         for (int x = 0; x < 3; ++x)
           if (x != 1 || y != 1) rows[static_cast<std::size_t>(1 + 3 * i + y)][static_cast<std::size_t>(1 + 4 * j + x)] = '#';
-  check_picture(from_rows(rows));
+  CHECK(check_picture(from_rows(rows)) == 9);
 }
 
 TEST_CASE("--picture refuses what it cannot draw, with status 2, one line and no file") {
