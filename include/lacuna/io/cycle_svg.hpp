@@ -8,7 +8,8 @@
 // a row); each cycle is drawn on them along the edges of the cubical complex, as one or more
 // closed polylines, in a colour of its own (Okabe & Ito's colour-blind-safe palette; after six
 // cycles the colours repeat with a dash pattern, so the first 24 cycles look different), and
-// a legend names each one ("H_1 generator 1", ...).
+// a legend names each one ("H_1 generator 1", ...). Cycles may share edges: each is drawn
+// wider than those drawn after it, so that every one stays visible.
 //
 // How a cycle becomes closed polylines. A 1-chain z whose boundary is zero is a balanced
 // directed multigraph on the image's vertices: the edge e with coefficient c is |c| arcs from
@@ -213,8 +214,12 @@ inline std::string cycle_picture_svg(const cubical_complex<2>& image, const std:
       x = e;
     }
   out += "\"/>\n";
-  const double stroke = std::max(0.16, 2.0 / s);  // in pixel units
+  // In pixel units. Cycles may share edges: each is drawn wider than the ones drawn over it
+  // (from 2.5 times the thinnest for the first down to once for the last), so none hides another.
+  const double thinnest = std::max(0.12, 1.5 / s);
   for (std::size_t k = 0; k < drawn.size(); ++k) {
+    const double stroke =
+        thinnest * (1 + 1.5 * static_cast<double>(drawn.size() - 1 - k) / static_cast<double>(std::max<std::size_t>(drawn.size() - 1, 1)));
     const auto [colour, dash] = svg_detail::cycle_style(k, stroke);
     out += "<g class=\"generator\" data-generator=\"" + std::to_string(k + 1) + "\" fill=\"none\" stroke=\"" + colour +
            "\" stroke-width=\"" + num(stroke) + "\" stroke-linejoin=\"round\" stroke-linecap=\"round\"" +
