@@ -12,6 +12,7 @@
 #include <doctest/doctest.h>
 
 #include <expat.h>
+#include <unistd.h>
 
 #include <algorithm>
 #include <cstdio>
@@ -118,7 +119,8 @@ bool surrounds(const std::vector<segment>& cycle, double px, double py) {
 }  // namespace
 
 TEST_CASE("examples/sensor_coverage: verdicts checked against the discs, sampled in the plane") {
-  const auto dir = std::filesystem::temp_directory_path() / "lacuna-sensor-coverage-test";
+  // a folder of this process's own, so that two runs at once do not share the maps
+  const auto dir = std::filesystem::temp_directory_path() / ("lacuna-sensor-coverage-" + std::to_string(::getpid()));
   std::filesystem::create_directories(dir);
   const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/sensor_coverage " + dir.string();
   FILE* pipe = popen(cmd.c_str(), "r");
