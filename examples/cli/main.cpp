@@ -12,6 +12,7 @@
 #include <lacuna/homology/memory_estimate.hpp>
 #include <lacuna/homology/universal_coefficients.hpp>
 #include <lacuna/io/cells.hpp>
+#include <lacuna/io/cycle_svg.hpp>
 #include <lacuna/io/facets.hpp>
 #include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/netpbm.hpp>
@@ -37,6 +38,7 @@
 #include <unistd.h>
 
 #include <atomic>
+#include <charconv>
 #include <chrono>
 #include <condition_variable>
 #include <csignal>
@@ -358,6 +360,7 @@ struct run_options {
   std::string reduction = "auto";  ///< --reduction: auto, none, collapses, coreductions, both, morse
   std::optional<std::uint64_t> max_memory;  ///< --max-memory in bytes; unset: a quarter of the machine's memory
   std::string certificate;  ///< --certificate OUT.json; empty: none (docs/certificates.md)
+  std::string picture;      ///< homology --picture OUT.svg: the H_1 generators on the image; empty: none
 };
 
 /// The pre-reduction of --reduction. auto: the Morse complex for images and volumes (implicit,
@@ -570,6 +573,62 @@ std::vector<lacuna::identity_check> group_checks(const lacuna::homology_result<R
   return out;
 }
 
+/// --picture: the SVG of the image with the generators of H_1 (lacuna/io/cycle_svg.hpp). Over
+/// Z and Q the integer coefficients of chain_coefficients (over Q a primitive integer multiple
+/// of the generator, still a cycle); over Z/2 the cycles are read mod 2.
+template <class R, class C>
+std::string picture_of(const C& cx, const lacuna::homology_result<R>& h, const run_options& o) {
+  if constexpr (std::same_as<C, lacuna::cubical_complex<2>>) {
+    std::vector<std::vector<lacuna::io::cycle_edge>> cycles;
+    if (h.top_dimension() >= 1)
+      for (const auto& ch : h[1].generators) {
+        const auto coeffs = chain_coefficients(ch, o.co);
+        std::vector<lacuna::io::cycle_edge> z;
+        for (std::size_t j = 0; j < coeffs.size(); ++j) {
+          std::int64_t c = 0;
+          const auto r = std::from_chars(coeffs[j].data(), coeffs[j].data() + coeffs[j].size(), c);
+          if (r.ec != std::errc() || r.ptr != coeffs[j].data() + coeffs[j].size())
+            throw usage_error("lacuna: --picture: a generator has a coefficient too large to draw (" + coeffs[j] + ")");
+          z.push_back({ch.terms[j].cell, c});
+        }
+        cycles.push_back(std::move(z));
+      }
+    const auto arithmetic = o.co.k == coefficients::mod_p ? lacuna::io::cycle_arithmetic::mod_2
+                                                          : lacuna::io::cycle_arithmetic::integers;
+    return lacuna::io::cycle_picture_svg(
+        cx, cycles, {.title = "H_1 generators of " + o.file + " over " + o.co.text, .arithmetic = arithmetic});
+  } else {
+    throw usage_error("lacuna: --picture draws 2D images (.pbm, .pgm) only, not " + o.file);
+  }
+}
+
+/// Writes the result, and with --picture the SVG first to a file beside OUT that is renamed to
+/// OUT once the result is out: a run that fails or is interrupted leaves no picture behind.
+void write_result_and_picture(const std::string& out, const std::string& svg, const run_options& o) {
+  if (o.picture.empty()) return write_result(out);
+  const std::string part = o.picture + ".part";
+  {
+    std::ofstream file(part, std::ios::binary | std::ios::trunc);
+    if (!file) throw usage_error(o.picture + ": cannot be written");
+    file << svg;
+    file.flush();
+    if (!file) {
+      std::filesystem::remove(part);
+      throw usage_error(o.picture + ": cannot be written");
+    }
+  }
+  try {
+    write_result(out);
+  } catch (...) {
+    std::error_code ignored;
+    std::filesystem::remove(part, ignored);
+    throw;
+  }
+  std::error_code ec;
+  std::filesystem::rename(part, o.picture, ec);
+  if (ec) throw usage_error(o.picture + ": cannot be written (" + ec.message() + ")");
+}
+
 template <class C>
 void compute_and_report(const C& cx, const run_options& o, progress_line& progress, const marks_t* marks = nullptr) {
   // The augmented complex of the empty complex has its one group, Z, in dimension -1, which
@@ -580,10 +639,12 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
   progress.phase(o.cohomology ? "computing cohomology" : "computing homology");
   // Generators without coordinates: the tool never asks for classes of other cycles.
   // Both cores where the work splits: lacuna's own complexes are safe to read from two threads.
-  lacuna::homology_options ho{.generators = o.generators, .reduced = o.reduced, .keep_basis = false, .threads = 2};
+  // --picture needs the generators of H_1, computed whether or not they are printed
+  lacuna::homology_options ho{.generators = o.generators || !o.picture.empty(), .reduced = o.reduced, .keep_basis = false, .threads = 2};
   if (interrupts) ho.control.stop = interrupts->token();
   ho.control.progress = [&progress](const lacuna::progress_report& r) { progress.report(r); };
   std::string out;  // nothing reaches stdout until the whole answer is known
+  std::string svg;  // --picture
   if (!o.certificate.empty()) {
     // The certificate: over Z and Z/2, of absolute homology (docs/certificates.md).
     if (marks) throw usage_error("lacuna: --certificate is not offered with --relative");
@@ -624,6 +685,7 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
                    : lacuna::homology<S>(cx, opt, algorithm_for<C>(o), u);
     };
     const auto h = compute(unit, ho);
+    if (!o.picture.empty()) svg = picture_of(cx, h, o);
     if (!o.check) return report(cx, h, o, out, marks);
     // --check: over a field, the integral groups too (ranks and torsion, no generators)
     std::optional<lacuna::homology_result<lacuna::integer>> hz;
@@ -663,7 +725,7 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
       break;
   }
   progress.stop();
-  write_result(out);
+  write_result_and_picture(out, svg, o);
 }
 
 
@@ -1081,6 +1143,9 @@ int main(int argc, char** argv) {
   hom->add_option("--certificate", o.certificate,
                   "also write a certificate of the groups (over Z or Z/2; docs/certificates.md)")
       ->type_name("OUT.json");
+  hom->add_option("--picture", o.picture,
+                  "also draw the generators of H_1 on the image as SVG (2D images .pbm .pgm; over Z, Q or Z/2)")
+      ->type_name("OUT.svg");
   hom->add_option("FILE", o.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   run_options cob;
   cob.cohomology = true;
@@ -1145,6 +1210,19 @@ int main(int argc, char** argv) {
     if (hom->parsed()) {
       read_numbers(o, hom_texts.threshold, hom_texts.max_cells, hom_texts.max_facet, hom_texts.max_memory);
       o.co = parse_coefficients(hom_texts.coefficients);
+      if (!o.picture.empty()) {
+        // refused before anything is read or written
+        const std::string ext = extension_of(o.file);
+        if (ext != ".pbm" && ext != ".pgm")
+          throw usage_error("lacuna: --picture draws 2D images (.pbm, .pgm) only, not " + o.file);
+        if (!o.relative.empty())
+          throw usage_error("lacuna: --picture is not offered with --relative (images have no subcomplex file)");
+        if (!o.certificate.empty())
+          throw usage_error("lacuna: --picture is not offered with --certificate (run the two apart)");
+        if (o.co.k == coefficients::mod_p && o.co.p != 2)
+          throw usage_error("lacuna: --picture draws cycles over Z, Q or Z/2, not over " + o.co.text +
+                            " (for a planar image H_1 is free, so the cycles over Z are generators over every field)");
+      }
       if (o.reduced && !o.relative.empty())
         throw usage_error("lacuna: --reduced does not apply to a pair (--relative): the homology of a pair is not "
                           "augmented, and for SUB not empty it is already the reduced one");

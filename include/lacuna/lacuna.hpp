@@ -56,4 +56,5 @@
 #include <lacuna/io/distances.hpp>
 #include <lacuna/io/values.hpp>
 #include <lacuna/io/persistence_svg.hpp>
+#include <lacuna/io/cycle_svg.hpp>
 #include <lacuna/io/certificate_json.hpp>
