@@ -51,8 +51,8 @@ namespace lacuna::io {
 /// One term of a 1-chain of a 2D image's cubical complex: the edge (its dense index among the
 /// 1-cells, as in cubical_complex<2>::position(1, edge)) and its coefficient.
 struct cycle_edge {
-  std::size_t edge = 0;
-  std::int64_t coefficient = 0;
+  std::size_t edge = 0;          ///< dense index of the edge among the image's 1-cells
+  std::int64_t coefficient = 0;  ///< its coefficient in the chain
 };
 
 /// How the coefficients of a drawn chain are read: as integers (its boundary is zero over Z,
@@ -63,6 +63,7 @@ enum class cycle_arithmetic { integers, mod_2 };
 struct cycle_picture_options {
   /// The title at the top (plain text); none when empty.
   std::string title{};
+  /// How the coefficients are read (over the integers, or modulo 2).
   cycle_arithmetic arithmetic = cycle_arithmetic::integers;
   /// The legend's text for cycle k is label + " " + k.
   std::string label = "H_1 generator";
