@@ -28,6 +28,8 @@
 #include <array>
 #include <cmath>
 #include <cstdint>
+#include <cstdlib>
+#include <filesystem>
 #include <fstream>
 #include <iostream>
 #include <string>
@@ -141,6 +143,11 @@ void survey(const std::string& name, const std::vector<sensor>& s, const std::st
         << "</text>\n";
   }
   out << "</svg>\n";
+  out.close();
+  if (!out) {  // never print a map that was not written
+    std::cerr << "sensor_coverage: cannot write " << svg_file << "\n";
+    std::exit(2);
+  }
   std::cout << "  map: " << svg_file << "\n";
 }
 
@@ -149,6 +156,12 @@ void survey(const std::string& name, const std::vector<sensor>& s, const std::st
 int main(int argc, char** argv) {
   // argv[1]: the folder for the two maps (default: the current one)
   const std::string dir = argc > 1 ? std::string(argv[1]) + "/" : std::string();
+  std::error_code folder_error;
+  if (argc > 1) std::filesystem::create_directories(argv[1], folder_error);
+  if (folder_error) {
+    std::cerr << "sensor_coverage: cannot create the folder " << argv[1] << ": " << folder_error.message() << "\n";
+    return 2;
+  }
   std::cout << "criterion: de Silva & Ghrist (2007); hypotheses: fence sensors on the walls, each within r_b of "
                "the next; r_c = "
             << r_c << " >= r_b / sqrt(3) with r_b = " << r_b << "\n";
