@@ -53,10 +53,13 @@
 
 #include <algorithm>
 #include <cmath>
+#include <concepts>
 #include <cstddef>
 #include <cstdint>
 #include <optional>
 #include <random>
+#include <type_traits>
+#include <utility>
 #include <vector>
 
 namespace lacuna {
@@ -86,7 +89,8 @@ inline constexpr double modular_work_limit = 4e9;
 
 /// |x| mod q for 1 < q < 2^62: Horner over the 64-bit limbs, most significant first, with a
 /// precomputed multiplication by 2^64 mod q (a word product per limb instead of a division).
-inline u64 abs_mod(const big& x, u64 q) {
+template <class Big>
+u64 abs_mod(const Big& x, u64 q) {
   const auto& b = x.backend();
   const std::size_t k = b.size();
   const auto* limb = b.limbs();
@@ -111,7 +115,8 @@ inline u64 abs_mod(const big& x, u64 q) {
 /// so of determinant +-1: the gcd is preserved whatever the quotients (absolute values and
 /// order are restored after each step). boost's gcd of cpp_int is binary (a shift and a
 /// subtraction per bit), quadratic with a large constant on numbers of 10^5 bits.
-inline big lehmer_gcd(big a, big b) {
+template <class Big>
+Big lehmer_gcd(Big a, std::type_identity_t<Big> b) {  // b converts to Big, as a plain parameter would
   __extension__ using i128 = __int128;
   a = boost::multiprecision::abs(a);
   b = boost::multiprecision::abs(b);
@@ -148,10 +153,16 @@ inline big lehmer_gcd(big a, big b) {
   return a;
 }
 
+/// The big-integer type of an integer ring Int (cpp_int for lacuna::integer).
+template <class Int>
+using big_of = std::remove_cvref_t<decltype(std::declval<const Int&>().to_big())>;
+
 /// The matrix, transposed so that rows <= cols, with its big entries kept as cpp_int once.
+template <class Int>
 struct source {
+  using big = big_of<Int>;
   std::size_t n = 0, m = 0;
-  const dense_matrix<integer>* A = nullptr;
+  const dense_matrix<Int>* A = nullptr;
   bool transposed = false;
   std::vector<std::int64_t> small;  // n x m; valid where is_big is 0
   std::vector<char> is_big;
@@ -159,9 +170,9 @@ struct source {
   std::vector<std::uint32_t> big_index;
   std::vector<char> big_negative;
 
-  const integer& at(std::size_t i, std::size_t j) const { return transposed ? (*A)(j, i) : (*A)(i, j); }
+  const Int& at(std::size_t i, std::size_t j) const { return transposed ? (*A)(j, i) : (*A)(i, j); }
 
-  explicit source(const dense_matrix<integer>& a) : A(&a) {
+  explicit source(const dense_matrix<Int>& a) : A(&a) {
     transposed = a.rows() > a.cols();
     n = transposed ? a.cols() : a.rows();
     m = transposed ? a.rows() : a.cols();
@@ -170,7 +181,7 @@ struct source {
     big_index.assign(n * m, 0);
     for (std::size_t i = 0; i < n; ++i)
       for (std::size_t j = 0; j < m; ++j) {
-        const integer& x = at(i, j);
+        const Int& x = at(i, j);
         if (x.is_small()) {
           small[i * m + j] = x.small_value();
         } else {
@@ -294,7 +305,9 @@ inline u64 det_and_adjugate_solve(std::vector<u64>& a, std::size_t k, std::size_
 
 /// Values reconstructed together from residues mod distinct primes (Garner's incremental
 /// Chinese remaindering): after each add, X_i is the residue of value i in [0, M).
+template <class Big>
 struct crt_values {
+  using big = Big;
   big M = 1;
   std::vector<big> X;
   explicit crt_values(std::size_t count) : X(count, big(0)) {}
@@ -315,26 +328,33 @@ struct crt_values {
   }
 };
 
-/// The primes below 2^16, by a sieve (once; a constant table, not state).
+/// The primes below 2^16, by a sieve. Deliberately not constexpr (nor a lambda, which would
+/// be implicitly constexpr): GCC tries to constant-initialize a static from a constexpr
+/// callable, running the whole sieve in the compiler in every translation unit that includes
+/// this header (about a quarter of the compile cost of <lacuna/lacuna.hpp>).
+inline std::vector<u64> sieve_small_primes() {
+  constexpr std::size_t limit = 1U << 16U;
+  std::vector<char> composite(limit, 0);
+  std::vector<u64> out;
+  for (std::size_t i = 2; i < limit; ++i) {
+    if (composite[i]) continue;
+    out.push_back(i);
+    for (std::size_t j = i * i; j < limit; j += i) composite[j] = 1;
+  }
+  return out;
+}
+
+/// The primes below 2^16 (computed once; a constant table, not state).
 inline const std::vector<u64>& small_primes() {
-  static const std::vector<u64> table = [] {
-    constexpr std::size_t limit = 1U << 16U;
-    std::vector<char> composite(limit, 0);
-    std::vector<u64> out;
-    for (std::size_t i = 2; i < limit; ++i) {
-      if (composite[i]) continue;
-      out.push_back(i);
-      for (std::size_t j = i * i; j < limit; j += i) composite[j] = 1;
-    }
-    return out;
-  }();
+  static const std::vector<u64> table = sieve_small_primes();
   return table;
 }
 
 /// The p-valuations of the r non-zero invariant factors of the n x m matrix mod q = p^k
 /// (n <= m), by elimination with a pivot of least valuation; nullopt unless exactly r pivots
 /// are non-zero mod q (the caller's bounds say that every v_p(d_i) < k and the rank is r).
-inline std::optional<std::vector<int>> local_valuations(const source& s, u64 p, int k, u64 q, std::size_t r,
+template <class Source>
+std::optional<std::vector<int>> local_valuations(const Source& s, u64 p, int k, u64 q, std::size_t r,
                                                          const run_control* control) {
   const std::size_t n = s.n, m = s.m;
   std::vector<u64> a(n * m);
@@ -422,14 +442,16 @@ inline bool prefer_modular_smith(const dense_matrix<integer>& A) {
 /// progress through `control` (phase "Smith form of the core", units: primes).
 /// Cost: O(n^2 m) word operations per prime, with about (log2 of Hadamard's bound) / 61
 /// primes, plus one local elimination per small prime dividing the determinant.
-inline std::optional<smith_invariants<integer>> modular_smith_invariants(const dense_matrix<integer>& A,
-                                                                           const run_control* control = nullptr) {
+template <class Int>
+  requires std::same_as<Int, integer>
+std::optional<smith_invariants<Int>> modular_smith_invariants(const dense_matrix<Int>& A,
+                                                              const run_control* control = nullptr) {
   namespace md = detail::modular;
-  using md::big;
+  using big = md::big_of<Int>;
   using md::u64;
-  const md::source s(A);
+  const md::source<Int> s(A);
   const std::size_t n = s.n, m = s.m;
-  smith_invariants<integer> out;
+  smith_invariants<Int> out;
   if (n == 0) return out;
   auto residues = [&](u64 q) {
     std::vector<u64> a(n * m);
@@ -449,7 +471,7 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
   if (r == 0) return std::nullopt;  // zero mod p: not proved zero here
   const bool exact_product = r == n && n == m;  // then G = |det B| exactly
   if (n == 1) {  // r == 1: d_1 = gcd of the entries, exactly
-    integer g = 0;
+    Int g = 0;
     for (std::size_t j = 0; j < m; ++j) g = gcd(g, s.at(0, j));
     out.rank = 1;
     out.factors = {normalize(g)};
@@ -528,7 +550,7 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
     if (primes * per_prime > md::modular_work_limit) return std::nullopt;
   }
   const std::size_t values = 1 + n_b * r + (compress ? n_q : 0);
-  md::crt_values crt(values);
+  md::crt_values<big> crt(values);
   double have = 0;
   detail::progress_ticker ticker(control, "Smith form of the core", static_cast<std::uint64_t>(need / 61) + 1);
   std::vector<u64> res(values), work, pa, paq;
@@ -633,11 +655,11 @@ inline std::optional<smith_invariants<integer>> modular_smith_invariants(const d
     if (md::lehmer_gcd(g, c) != 1) return std::nullopt;
   }
   out.rank = r;
-  out.factors.assign(r, integer(1));
+  out.factors.assign(r, Int(1));
   for (std::size_t t = 0; t < val.size(); ++t)
     for (std::size_t i = 0; i < r; ++i)
-      for (int k = 0; k < val[t][i]; ++k) out.factors[i] *= integer(static_cast<std::int64_t>(val_prime[t]));
-  if (c != 1) out.factors[r - 1] *= integer(c);
+      for (int k = 0; k < val[t][i]; ++k) out.factors[i] *= Int(static_cast<std::int64_t>(val_prime[t]));
+  if (c != 1) out.factors[r - 1] *= Int(c);
   return out;
 }
 

@@ -393,13 +393,16 @@ class star_cache {
 
  private:
   static constexpr unsigned bits = 16;
+  // Not a lambda: a lambda is implicitly constexpr, and GCC then tries to build the table in
+  // the compiler, in every translation unit that instantiates this class.
+  static std::vector<result> build_table() {
+    std::vector<result> v(std::size_t{1} << cc::count);
+    for (std::uint32_t key = 0; key < v.size(); ++key)
+      if (!((key >> cc::center) & 1u)) star_matcher<D>::match(typename cube_tables<D>::set(key), v[key]);
+    return v;
+  }
   static const std::vector<result>& table() {
-    static const std::vector<result> t = [] {
-      std::vector<result> v(std::size_t{1} << cc::count);
-      for (std::uint32_t key = 0; key < v.size(); ++key)
-        if (!((key >> cc::center) & 1u)) star_matcher<D>::match(typename cube_tables<D>::set(key), v[key]);
-      return v;
-    }();
+    static const std::vector<result> t = build_table();
     return t;
   }
   std::vector<std::uint32_t> keys_;
