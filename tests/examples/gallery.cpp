@@ -21,6 +21,8 @@
 //     before it (a path in backquotes starting with examples/), so the page quotes only code
 //     that CI compiles and these tests run.
 #include <doctest/doctest.h>
+
+#include "run_program.hpp"
 #include <sys/wait.h>
 
 #include <cstdint>
@@ -36,20 +38,8 @@ namespace examples_gallery_test {
 
 namespace {
 
-struct run_result {
-  int status = -1;
-  std::string text;
-};
-
-run_result run(const std::string& program_and_arguments) {
-  const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/" + program_and_arguments;
-  run_result r;
-  FILE* out = popen(cmd.c_str(), "r");
-  REQUIRE(out != nullptr);
-  char buf[512];
-  while (std::fgets(buf, sizeof buf, out) != nullptr) r.text += buf;
-  r.status = pclose(out);
-  return r;
+examples_support::run_result run(const std::string& program_and_arguments) {
+  return examples_support::run_program(program_and_arguments, false);
 }
 
 bool has_line(const std::string& text, const std::string& line) { return text.find(line + "\n") != std::string::npos; }
@@ -170,7 +160,7 @@ TEST_CASE("examples/variants_side_by_side: all variants agree, and agree with Eu
 
 TEST_CASE("examples/variants_side_by_side refuses a size out of range with status 2") {
   const auto r = run("variants_side_by_side 40");
-  CHECK(WEXITSTATUS(r.status) == 2);
+  CHECK(r.status == 2);
   CHECK(r.text.find("usage:") != std::string::npos);
 }
 

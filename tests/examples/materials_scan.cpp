@@ -14,6 +14,8 @@
 //   * the slice picture is well-formed XML (parsed with expat) and marks exactly H_2 voids.
 #include <doctest/doctest.h>
 
+#include "run_program.hpp"
+
 #include <expat.h>
 
 #include <array>
@@ -36,21 +38,8 @@ namespace examples_materials_scan_test {
 
 namespace {
 
-struct program_run {
-  int status = -1;
-  std::string text;
-};
-
-program_run run_scan(const std::string& arguments) {
-  const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/materials_scan " + arguments + " 2>&1";
-  program_run r;
-  FILE* out = popen(cmd.c_str(), "r");
-  REQUIRE(out != nullptr);
-  char buf[512];
-  while (std::fgets(buf, sizeof buf, out) != nullptr) r.text += buf;
-  const int raw = pclose(out);
-  r.status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  return r;
+examples_support::run_result run_scan(const std::string& arguments) {
+  return examples_support::run_program("materials_scan " + arguments, true);
 }
 
 long long number_after(const std::string& text, const std::string& pattern) {

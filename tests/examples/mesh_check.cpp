@@ -5,6 +5,8 @@
 // H_1 = Z^(k−1) + Z/2) and against χ = V − E + F counted here from the faces this file writes.
 #include <doctest/doctest.h>
 
+#include "run_program.hpp"
+
 #include <sys/wait.h>
 
 #include <cstdio>
@@ -19,22 +21,7 @@ namespace examples_mesh_check_test {
 
 namespace {
 
-struct run_result {
-  int status = -1;
-  std::string text;
-};
-
-run_result run(const std::string& args) {
-  const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/mesh_check " + args + " 2>&1";
-  run_result r;
-  FILE* out = popen(cmd.c_str(), "r");
-  REQUIRE(out != nullptr);
-  char buf[1024];
-  while (std::fgets(buf, sizeof buf, out) != nullptr) r.text += buf;
-  const int s = pclose(out);
-  r.status = WIFEXITED(s) ? WEXITSTATUS(s) : -1;
-  return r;
-}
+examples_support::run_result run(const std::string& args) { return examples_support::run_program("mesh_check " + args, true); }
 
 std::string temp(const std::string& name) { return (std::filesystem::temp_directory_path() / ("lacuna_mesh_check_" + name)).string(); }
 

@@ -12,6 +12,8 @@
 //     the universal coefficient theorem, Hatcher 2002, Corollary 3A.6).
 #include <doctest/doctest.h>
 
+#include "run_program.hpp"
+
 #include <cstdio>
 #include <string>
 
@@ -19,21 +21,7 @@ namespace examples_run_examples_test {
 
 namespace {
 
-struct run_result {
-  int status = -1;
-  std::string text;
-};
-
-run_result run(const std::string& program) {
-  const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/" + program;
-  run_result r;
-  FILE* out = popen(cmd.c_str(), "r");
-  REQUIRE(out != nullptr);
-  char buf[512];
-  while (std::fgets(buf, sizeof buf, out) != nullptr) r.text += buf;
-  r.status = pclose(out);
-  return r;
-}
+examples_support::run_result run(const std::string& program) { return examples_support::run_program(program, false); }
 
 }  // namespace
 

@@ -11,6 +11,8 @@
 // Both maps are parsed with expat (Debian's libexpat1-dev), which checks they are well-formed.
 #include <doctest/doctest.h>
 
+#include "run_program.hpp"
+
 #include <expat.h>
 #include <unistd.h>
 
@@ -122,15 +124,10 @@ TEST_CASE("examples/sensor_coverage: verdicts checked against the discs, sampled
   // a folder of this process's own, so that two runs at once do not share the maps
   const auto dir = std::filesystem::temp_directory_path() / ("lacuna-sensor-coverage-" + std::to_string(::getpid()));
   std::filesystem::create_directories(dir);
-  const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/sensor_coverage " + dir.string();
-  FILE* pipe = popen(cmd.c_str(), "r");
-  REQUIRE(pipe != nullptr);
-  std::string text;
-  char buf[512];
-  while (std::fgets(buf, sizeof buf, pipe) != nullptr) text += buf;
-  const int status = pclose(pipe);
+  const auto run = examples_support::run_program("sensor_coverage " + dir.string(), false);
+  const std::string& text = run.text;
   INFO(text);
-  REQUIRE(status == 0);
+  REQUIRE(run.status == 0);
   const auto full_at = text.find("full field:"), gaps_at = text.find("field with sensors removed:");
   REQUIRE(full_at != std::string::npos);
   REQUIRE(gaps_at != std::string::npos);

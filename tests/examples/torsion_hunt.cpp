@@ -11,6 +11,8 @@
 // and that a tiny budget stops a computation cleanly and bad arguments give exit status 2.
 #include <doctest/doctest.h>
 
+#include "run_program.hpp"
+
 #include <sys/wait.h>
 
 #include <algorithm>
@@ -24,22 +26,7 @@ namespace examples_torsion_hunt_test {
 
 namespace {
 
-struct run_result {
-  int status = -1;
-  std::string text;
-};
-
-run_result run(const std::string& args) {
-  const std::string cmd = std::string(LACUNA_BINARY_DIR) + "/torsion_hunt " + args + " 2>&1";
-  run_result r;
-  FILE* out = popen(cmd.c_str(), "r");
-  REQUIRE(out != nullptr);
-  char buf[1024];
-  while (std::fgets(buf, sizeof buf, out) != nullptr) r.text += buf;
-  const int s = pclose(out);
-  r.status = WIFEXITED(s) ? WEXITSTATUS(s) : -1;
-  return r;
-}
+examples_support::run_result run(const std::string& args) { return examples_support::run_program("torsion_hunt " + args, true); }
 
 struct group {
   long long rank = 0;
