@@ -29,6 +29,7 @@
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
+#include <lacuna/algorithm/stages.hpp>
 #include <lacuna/algorithm/field_reduction.hpp>
 #include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/cubical_morse.hpp>

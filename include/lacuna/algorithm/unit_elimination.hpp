@@ -29,6 +29,7 @@
 #include <lacuna/ring/euclid.hpp>
 
 #include <algorithm>
+#include <concepts>
 #include <cstdint>
 #include <optional>
 #include <tuple>
@@ -45,6 +46,10 @@ struct elimination_options {
   bool record = false;       ///< keep the log (needed for generators and chain maps)
   bool record_pivots = true; ///< with the log: also each pivot's boundary (needed to push chains)
   bool second_pass = true;   ///< after set-aside, reduce the critical cells once more (Markowitz)
+  /// Before starting, make the cells an earlier elimination set aside as critical active
+  /// again (a later stage of a pipeline reducing what an earlier one left; the coface lists
+  /// an elimination leaves behind are exact for every surviving cell, so this is sound).
+  bool revive_critical = false;
   /// Stop request and progress (phase "eliminating unit pivots", units: cells); may be null.
   const run_control* control = nullptr;
 };
@@ -91,6 +96,40 @@ struct elimination_statistics {
   ///@}
 };
 
+/// A unit pivot the elimination may take next: cell a at `level` with its face b, and the
+/// counts a pivot rule weighs (what eliminating it can fill in).
+struct pivot_candidate {
+  /// The level of a (b lies at level - 1).
+  int level;
+  ///@{
+  /// The cell a and its face b, by their indices at their levels.
+  std::uint32_t a, b;
+  ///@}
+  /// The active faces of a (b included).
+  std::uint64_t faces_of_a;
+  /// The cofaces of b (a included).
+  std::uint64_t cofaces_of_b;
+};
+
+/// The open stage "pivot rule" of the elimination: a cost per candidate unit pivot; the
+/// elimination takes candidates by increasing cost (ties by level, a, b) once the zero-fill
+/// pivots are exhausted. Any type with `cost(const pivot_candidate&)` returning an unsigned
+/// number models it; the rule only orders pivots, so every rule gives the same groups.
+template <class P>
+concept pivot_rule = requires(const P& p, const pivot_candidate& c) {
+  { p.cost(c) } -> std::convertible_to<std::uint64_t>;
+};
+
+/// The default pivot rule: the Markowitz count (|cofaces(b)| − 1)(|faces(a)| − 1), an upper
+/// bound of the fill-in of the pivot (Markowitz 1957; for sparse integer matrices Dumas,
+/// Heckenbach, Saunders & Welker 2003).
+struct markowitz_rule {
+  /// The Markowitz count of the candidate.
+  std::uint64_t cost(const pivot_candidate& c) const {
+    return (c.cofaces_of_b - 1) * (c.faces_of_a > 0 ? c.faces_of_a - 1 : 0);
+  }
+};
+
 namespace detail {
 
 /// true when c is a unit of R; then inv is its inverse.
@@ -119,13 +158,14 @@ bool unit_inverse(const R& c, R& inv) {
   }
 }
 
-template <class R>
+template <class R, class Rule = markowitz_rule>
 class unit_eliminator {
   using st = typename reducible_complex<R>::state;
 
  public:
-  unit_eliminator(reducible_complex<R>& rc, const elimination_options& opt, elimination_log<R>* log)
-      : rc_(rc), opt_(opt), log_(log), ticker_(opt.control, "eliminating unit pivots", total_cells(rc)) {}
+  unit_eliminator(reducible_complex<R>& rc, const elimination_options& opt, elimination_log<R>* log,
+                  const Rule& rule = {})
+      : rc_(rc), opt_(opt), log_(log), rule_(rule), ticker_(opt.control, "eliminating unit pivots", total_cells(rc)) {}
 
   elimination_statistics run() {
     const int nl = rc_.levels();
@@ -316,9 +356,8 @@ class unit_eliminator {
   }
 
   std::uint64_t cost(int L, std::uint32_t a, std::uint32_t b) const {
-    const std::uint64_t nb = rc_.cofaces(L - 1, b).size();
-    const std::uint64_t na = active_count_[static_cast<std::size_t>(L)][a];
-    return (nb - 1) * (na > 0 ? na - 1 : 0);
+    return static_cast<std::uint64_t>(rule_.cost(
+        pivot_candidate{L, a, b, active_count_[static_cast<std::size_t>(L)][a], rc_.cofaces(L - 1, b).size()}));
   }
 
   R coefficient(int L, std::uint32_t a, std::uint32_t b) const {
@@ -430,6 +469,7 @@ class unit_eliminator {
   reducible_complex<R>& rc_;
   elimination_options opt_;
   elimination_log<R>* log_;
+  Rule rule_;
   elimination_statistics stats_;
   std::vector<std::vector<std::uint32_t>> active_count_;
   std::vector<std::vector<std::uint32_t>> empty_;
@@ -449,10 +489,19 @@ class unit_eliminator {
 /// steps are recorded in it (set options.record too, for clarity; either enables it).
 /// Complexity: linear in the number of incidences for zero-fill pivots; each Markowitz pass
 /// scans the remaining cells.
-template <class R>
+///
+/// `rule` orders the unit pivots once no zero-fill pivot is left (pivot_rule; the default is
+/// the Markowitz count). Cells set aside as critical by an earlier elimination are given back
+/// to the pivot search when options.revive_critical is set.
+template <class R, pivot_rule Rule = markowitz_rule>
 elimination_statistics eliminate_unit_pivots(reducible_complex<R>& rc, elimination_options options = {},
-                                             elimination_log<R>* log = nullptr) {
-  detail::unit_eliminator<R> e(rc, options, log);
+                                             elimination_log<R>* log = nullptr, const Rule& rule = {}) {
+  if (options.revive_critical)
+    for (int L = 0; L < rc.levels(); ++L)
+      for (std::uint32_t i = 0; i < rc.size(L); ++i)
+        if (rc.cell_state(L, i) == reducible_complex<R>::state::critical)
+          rc.cell_state(L, i) = reducible_complex<R>::state::active;
+  detail::unit_eliminator<R, Rule> e(rc, options, log, rule);
   return e.run();
 }
 

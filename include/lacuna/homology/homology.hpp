@@ -33,6 +33,7 @@
 #include <lacuna/algorithm/integral_reduction.hpp>
 #include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>
+#include <lacuna/algorithm/stages.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/boundary_squared.hpp>
 #include <lacuna/chain/chain.hpp>
@@ -68,8 +69,10 @@ namespace lacuna {
 //   coboundary_reduction{} ranks and torsion by unit-pivot reduction of the coboundaries
 //                         with clearing (lacuna/algorithm/integral_reduction.hpp); what it
 //                         cannot give (generators, a basis, cohomology) runs sparse_elimination{}.
+//   staged_elimination<Pre, Eliminate, Core>{} the elimination route with its stages named,
+//                         the user's own among them (lacuna/algorithm/stages.hpp).
 template <class P>
-concept homology_algorithm = smith_algorithm<P> || std::same_as<P, coboundary_reduction>;
+concept homology_algorithm = smith_algorithm<P> || std::same_as<P, coboundary_reduction> || staged_algorithm<P>;
 
 /// Options of lacuna::homology and lacuna::cohomology.
 struct homology_options {
@@ -193,10 +196,10 @@ dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<le
   return D;
 }
 
-template <class R, class W>
+template <class R, class W, class Core = smith_core>
 std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool want_generators, bool keep,
                                          std::vector<level_basis<R>>& lb, const run_control* control = nullptr,
-                                         bool want_bounding = false) {
+                                         bool want_bounding = false, const Core& core_stage = {}) {
   const int nl = rc.levels();
   lb.assign(static_cast<std::size_t>(nl), {});
   for (int L = 0; L < nl; ++L) {
@@ -217,17 +220,14 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
   }
   std::vector<level_result<R>> out(static_cast<std::size_t>(nl));
   if (!want_generators && !keep) {
-    // Ranks and invariant factors of each core boundary matrix suffice.
+    // Ranks and invariant factors of each core boundary matrix suffice: the core stage
+    // (algorithm/stages.hpp; smith_core: modular Smith forms of integral cores where they
+    // pay, else dense ones).
     std::vector<smith_decomposition<R>> snf(static_cast<std::size_t>(nl + 1));
     for (int L = 1; L < nl; ++L) {
-      auto core = core_matrix<R>(rc, lb, L, control);
-      if constexpr (std::same_as<R, integer>)  // integral cores: modular_smith.hpp, else dense
-        if (auto s = prefer_modular_smith(core) ? modular_smith_invariants(core, control) : std::nullopt) {
-          snf[static_cast<std::size_t>(L)].rank = s->rank,
-          snf[static_cast<std::size_t>(L)].diagonal = std::move(s->factors);
-          continue;
-        }
-      snf[static_cast<std::size_t>(L)] = dense_smith_form(std::move(core), {.control = control});
+      smith_invariants<R> s = core_stage.invariants(core_matrix<R>(rc, lb, L, control), control);
+      snf[static_cast<std::size_t>(L)].rank = s.rank;
+      snf[static_cast<std::size_t>(L)].diagonal = std::move(s.factors);
     }
     for (int L = 0; L < nl; ++L) {
       const std::size_t rL = L >= 1 ? snf[static_cast<std::size_t>(L)].rank : 0;
@@ -367,9 +367,18 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     eo.record_pivots = keep;
     eo.control = control;
     eliminate_unit_pivots(rc, eo, want_log ? &log : nullptr);
+  } else if constexpr (staged_algorithm<Algorithm>) {  // the stages of algorithm/stages.hpp
+    control->report("eliminating unit pivots", 0, 1);
+    alg.pre.reduce(rc, want_log ? &log : nullptr, control);
+    alg.eliminate.reduce(rc, want_log ? &log : nullptr, control);
+    control->report("eliminating unit pivots", 1, 1);
   }
   std::vector<level_basis<R>> lb;
-  auto levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
+  std::vector<level_result<R>> levels;
+  if constexpr (staged_algorithm<Algorithm>)
+    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
+  else
+    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators) {
     control->report("lifting generators", 0, 1);
@@ -410,11 +419,27 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   return levels;
 }
 
+/// Whether the integers run at checked 64-bit working coefficients first: sparse_elimination,
+/// and staged_elimination whose reduction stages are generic in the working coefficients.
+template <class Algorithm>
+inline constexpr bool fast_integer_path = std::same_as<Algorithm, sparse_elimination>;
+template <class Pre, class Eliminate, class Core>
+inline constexpr bool fast_integer_path<staged_elimination<Pre, Eliminate, Core>> =
+    reduction_stage<Pre, checked_int64> && reduction_stage<Eliminate, checked_int64>;
+
 template <class R, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels_any(const C& c, const homology_options& opt, const Algorithm& alg,
                                                 reducible_build_options build,
                                                 std::shared_ptr<homology_basis<R>>* basis, const R& unit) {
-  if constexpr (std::same_as<R, integer> && std::same_as<Algorithm, sparse_elimination>) {
+  if constexpr (staged_algorithm<Algorithm>) {
+    static_assert(reduction_stage<decltype(alg.pre), R>,
+                  "lacuna: the pre-reduction stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
+    static_assert(reduction_stage<decltype(alg.eliminate), R>,
+                  "lacuna: the elimination stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
+    static_assert(core_stage<decltype(alg.core), R>,
+                  "lacuna: the core stage does not model core_stage at this ring (algorithm/stages.hpp)");
+  }
+  if constexpr (std::same_as<R, integer> && fast_integer_path<Algorithm>) {
     try {
       return compute_levels<R, checked_int64>(c, opt, alg, build, basis, unit);
     } catch (const coefficient_overflow&) {
