@@ -63,9 +63,12 @@ struct latest_cell_first {
 struct textbook_smith_core {
   std::shared_ptr<int> calls = std::make_shared<int>(0);
 
-  static std::int64_t checked(__int128 x) {
-    if (x > (__int128{1} << 62) || x < -(__int128{1} << 62)) throw std::overflow_error("textbook_smith_core: entry too large");
-    return static_cast<std::int64_t>(x);
+  /// a - q·b, or an exception when it does not fit 64 bits.
+  static std::int64_t minus_multiple(std::int64_t a, std::int64_t q, std::int64_t b) {
+    std::int64_t p = 0, r = 0;
+    if (__builtin_mul_overflow(q, b, &p) || __builtin_sub_overflow(a, p, &r))
+      throw std::overflow_error("textbook_smith_core: an entry passes 64 bits");
+    return r;
   }
 
   lacuna::smith_invariants<integer> invariants(lacuna::dense_matrix<integer> core, const lacuna::run_control*) const {
@@ -91,12 +94,12 @@ struct textbook_smith_core {
         bool clean = true;
         for (std::size_t i = t + 1; i < m; ++i) {  // the column below the corner
           const std::int64_t q = a[i][t] / a[t][t];
-          for (std::size_t j = t; j < n; ++j) a[i][j] = checked(__int128{a[i][j]} - __int128{q} * a[t][j]);
+          for (std::size_t j = t; j < n; ++j) a[i][j] = minus_multiple(a[i][j], q, a[t][j]);
           clean = clean && a[i][t] == 0;
         }
         for (std::size_t j = t + 1; j < n; ++j) {  // the row right of the corner
           const std::int64_t q = a[t][j] / a[t][t];
-          for (std::size_t i = t; i < m; ++i) a[i][j] = checked(__int128{a[i][j]} - __int128{q} * a[i][t]);
+          for (std::size_t i = t; i < m; ++i) a[i][j] = minus_multiple(a[i][j], q, a[i][t]);
           clean = clean && a[t][j] == 0;
         }
         if (!clean) continue;  // a remainder is now smaller than the corner
@@ -109,7 +112,7 @@ struct textbook_smith_core {
               break;
             }
         if (bad == m) break;
-        for (std::size_t j = t; j < n; ++j) a[t][j] = checked(__int128{a[t][j]} + a[bad][j]);
+        for (std::size_t j = t; j < n; ++j) a[t][j] = minus_multiple(a[t][j], -1, a[bad][j]);
       }
       out.factors.push_back(integer(std::llabs(a[t][t])));
       ++out.rank;

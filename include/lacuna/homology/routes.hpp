@@ -1,0 +1,576 @@
+// lacuna/homology/routes.hpp — the routes behind lacuna::homology, relative_homology and
+// cohomology (homology/homology.hpp is the front that chooses among them).
+//
+// Routes (docs/homology.md, "How the engine works"); each one is exact. Groups only (no
+// generators, no basis):
+//   * images and volumes of dimension <= 3, any ring: two voxel labellings and the Euler
+//     characteristic (algorithm/cubical_duality.hpp; such complexes have no torsion);
+//   * other complexes over the integers and Q: the coboundary route (coboundary_reduction,
+//     algorithm/integral_reduction.hpp);
+//   * over Z/2 and Z/p: column reductions with clearing (algorithm/field_ranks.hpp).
+// Everything else (generators, coordinates, relative groups of volumes, other variants): the
+// route below.
+// The route below: the complex is indexed into a reducible_complex over working coefficients
+// W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot in), and the
+// small core that is left is finished by Smith forms (modular ones where they pay and only
+// groups are asked for, algorithm/modular_smith.hpp; else dense ones with transforms):
+//   D_k = boundary out of level k, U D_k V = diag(d_1..d_r): ker D_k = V[:, r..];
+//   M = (V^-1 D_{k+1})[r.., :], U' M V' = diag(e_1..e_s): H_k = Z^{n_k - r - s} + sum Z/e_i,
+//   generators = V[:, r..] U'^-1, one per column (columns with a unit e_i are boundaries).
+// Generators found on the core are lifted back to the original cells through the log.
+//
+// Over the integers, W is checked_int64 first; if a coefficient would pass 64 bits, the
+// whole computation is repeated with lacuna::integer, so a result is never wrong because a
+// number grew.
+#pragma once
+
+#include <lacuna/algorithm/cubical_duality.hpp>
+#include <lacuna/algorithm/cubical_morse.hpp>
+#include <lacuna/algorithm/dense_smith.hpp>
+#include <lacuna/algorithm/elimination_maps.hpp>
+#include <lacuna/algorithm/field_ranks.hpp>
+#include <lacuna/algorithm/modular_smith.hpp>
+#include <lacuna/algorithm/integral_reduction.hpp>
+#include <lacuna/algorithm/morse_reduction.hpp>
+#include <lacuna/algorithm/smith_normal_form.hpp>
+#include <lacuna/algorithm/stages.hpp>
+#include <lacuna/algorithm/unit_elimination.hpp>
+#include <lacuna/chain/boundary_squared.hpp>
+#include <lacuna/chain/chain.hpp>
+#include <lacuna/chain/checked_coefficient.hpp>
+#include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/run_control.hpp>
+#include <lacuna/chain/side_by_side.hpp>
+#include <lacuna/complex/concepts.hpp>
+#include <lacuna/complex/cubical_complex.hpp>
+#include <lacuna/homology/options.hpp>
+#include <lacuna/homology/result.hpp>
+#include <lacuna/ring/concepts.hpp>
+#include <lacuna/ring/euclid.hpp>
+#include <lacuna/ring/integer.hpp>
+#include <lacuna/ring/rational.hpp>
+
+#include <cstdint>
+#include <memory>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <type_traits>
+#include <vector>
+
+namespace lacuna {
+
+namespace detail {
+
+/// Per level: rank, torsion, generators (as level chains over R, before lifting).
+template <class R>
+struct level_result {
+  std::size_t rank = 0;
+  std::vector<R> torsion;
+  std::vector<level_chain<R>> generators;
+  std::vector<R> orders;
+  std::vector<level_chain<R>> bounding;  // per torsion generator: a chain of level L+1
+};
+
+// Dense matrix of the boundary from level L to level L-1, restricted to the core cells. Its
+// size, with the two transforms of its Smith form, is checked against control->memory_limit
+// before anything is allocated.
+template <class R, class W>
+dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_basis<R>>& lb, int L,
+                            const run_control* control = nullptr) {
+  const std::uint64_t rows = lb[static_cast<std::size_t>(L - 1)].core.size(),
+                      cols = lb[static_cast<std::size_t>(L)].core.size();
+  if (control && control->memory_limit) {
+    const double bytes = (double(rows) * double(cols) + double(rows) * double(rows) + double(cols) * double(cols)) *
+                         double(sizeof(R));  // in double: the product of two counts may pass 2^64
+    control->require_memory(bytes >= 1.8e19 ? ~std::uint64_t{0} : static_cast<std::uint64_t>(bytes), "the dense core");
+  }
+  dense_matrix<R> D(lb[static_cast<std::size_t>(L - 1)].core.size(), lb[static_cast<std::size_t>(L)].core.size());
+  for (std::size_t j = 0; j < lb[static_cast<std::size_t>(L)].core.size(); ++j)
+    for (const auto& e : rc.boundary(L, lb[static_cast<std::size_t>(L)].core[j])) {
+      const auto p = lb[static_cast<std::size_t>(L - 1)].core_position[e.index];
+      D(static_cast<std::size_t>(p), j) = to_ring<R>(e.value);
+    }
+  return D;
+}
+
+template <class R, class W, class Core = smith_core>
+std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool want_generators, bool keep,
+                                         std::vector<level_basis<R>>& lb, const run_control* control = nullptr,
+                                         bool want_bounding = false, const Core& core_stage = {}) {
+  const int nl = rc.levels();
+  lb.assign(static_cast<std::size_t>(nl), {});
+  for (int L = 0; L < nl; ++L) {
+    auto& b = lb[static_cast<std::size_t>(L)];
+    b.core_position.assign(rc.size(L), -1);
+    b.isolated_position.assign(rc.size(L), -1);
+    for (std::uint32_t i = 0; i < rc.size(L); ++i) {
+      if (!rc.alive(L, i)) continue;
+      const bool has = !rc.boundary(L, i).empty() || !rc.cofaces(L, i).empty();
+      if (has) {
+        b.core_position[i] = static_cast<std::int64_t>(b.core.size());
+        b.core.push_back(i);
+      } else {
+        b.isolated_position[i] = static_cast<std::int64_t>(b.isolated.size());
+        b.isolated.push_back(i);
+      }
+    }
+  }
+  std::vector<level_result<R>> out(static_cast<std::size_t>(nl));
+  if (!want_generators && !keep) {
+    // Ranks and invariant factors of each core boundary matrix suffice: the core stage
+    // (algorithm/stages.hpp; smith_core: modular Smith forms of integral cores where they
+    // pay, else dense ones).
+    std::vector<smith_decomposition<R>> snf(static_cast<std::size_t>(nl + 1));
+    for (int L = 1; L < nl; ++L) {
+      smith_invariants<R> s = core_stage.invariants(core_matrix<R>(rc, lb, L, control), control);
+      snf[static_cast<std::size_t>(L)].rank = s.rank;
+      snf[static_cast<std::size_t>(L)].diagonal = std::move(s.factors);
+    }
+    for (int L = 0; L < nl; ++L) {
+      const std::size_t rL = L >= 1 ? snf[static_cast<std::size_t>(L)].rank : 0;
+      const std::size_t rN = L + 1 < nl ? snf[static_cast<std::size_t>(L + 1)].rank : 0;
+      out[static_cast<std::size_t>(L)].rank =
+          lb[static_cast<std::size_t>(L)].isolated.size() + lb[static_cast<std::size_t>(L)].core.size() - rL - rN;
+      if (L + 1 < nl)
+        for (const auto& d : snf[static_cast<std::size_t>(L + 1)].diagonal)
+          if (!ring_is_unit(d)) out[static_cast<std::size_t>(L)].torsion.push_back(d);
+    }
+    return out;
+  }
+  for (int L = 0; L < nl; ++L) {
+    auto& b = lb[static_cast<std::size_t>(L)];
+    const std::size_t n = b.core.size();
+    smith_decomposition<R> s1;
+    if (L >= 1) {
+      s1 = dense_smith_form(core_matrix<R>(rc, lb, L, control), {.transforms = true, .control = control});
+    } else {
+      s1.rank = 0;
+      s1.V = s1.V_inv = dense_matrix<R>::identity(n);
+    }
+    b.r = s1.rank;
+    const std::size_t kdim = n - b.r;
+    dense_matrix<R> M(kdim, L + 1 < nl ? lb[static_cast<std::size_t>(L + 1)].core.size() : 0);
+    if (L + 1 < nl && M.cols() > 0 && kdim > 0) {
+      const dense_matrix<R> P = s1.V_inv * core_matrix<R>(rc, lb, L + 1, control);
+      for (std::size_t i = 0; i < kdim; ++i)
+        for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.r + i, j);
+    }
+    auto s2 = dense_smith_form(M, {.transforms = true, .control = control});
+    b.factors = s2.diagonal;
+    b.V_inv = s1.V_inv;
+    b.U_M = s2.U;
+    auto& res = out[static_cast<std::size_t>(L)];
+    // Free: isolated cells, then the core columns past the rank of M; torsion: non-unit e_i.
+    res.rank = b.isolated.size() + (kdim - s2.rank);
+    for (const auto& e : s2.diagonal)
+      if (!ring_is_unit(e)) res.torsion.push_back(e);
+    if (want_generators) {
+      auto column = [&](std::size_t i) {  // generator i = sum_j V[:, r+j] U'^-1[j, i]
+        level_chain<R> ch;
+        for (std::size_t row = 0; row < n; ++row) {
+          R v = zero<R>();
+          for (std::size_t j = 0; j < kdim; ++j)
+            if (!(s2.U_inv(j, i) == zero<R>())) v += s1.V(row, b.r + j) * s2.U_inv(j, i);
+          if (!(v == zero<R>())) ch.push_back({b.core[row], v});
+        }
+        std::sort(ch.begin(), ch.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+        return ch;
+      };
+      for (std::uint32_t c : b.isolated) res.generators.push_back({{c, one<R>()}}), res.orders.push_back(zero<R>());
+      for (std::size_t i = s2.rank; i < kdim; ++i) res.generators.push_back(column(i)), res.orders.push_back(zero<R>());
+      for (std::size_t i = 0; i < s2.rank; ++i)
+        if (!ring_is_unit(s2.diagonal[i])) res.generators.push_back(column(i)), res.orders.push_back(s2.diagonal[i]);
+      if (want_bounding) {
+        // V^-1 D_{L+1} = [0; M] (D_L D_{L+1} = 0 kills the first r rows) and U' M V' = diag(e),
+        // so D_{L+1} V'[:, i] = V[:, r..] U'^-1 e_i e_i = e_i · (generator i): column i of V'
+        // bounds e_i times the generator, on the core; the lift is a chain map.
+        for (std::size_t i = 0; i < s2.rank; ++i) {
+          if (ring_is_unit(s2.diagonal[i])) continue;
+          level_chain<R> w;
+          for (std::size_t row = 0; row < s2.V.rows(); ++row)
+            if (!(s2.V(row, i) == zero<R>())) w.push_back({lb[static_cast<std::size_t>(L) + 1].core[row], s2.V(row, i)});
+          std::sort(w.begin(), w.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+          res.bounding.push_back(std::move(w));
+        }
+      }
+    }
+  }
+  return out;
+}
+
+template <class R, class W>
+elimination_log<R> convert_log(elimination_log<W>&& log) {
+  if constexpr (std::same_as<R, W>) {
+    return std::move(log);
+  } else {
+    elimination_log<R> out;
+    out.steps.reserve(log.steps.size());
+    for (const auto& s : log.steps)
+      out.steps.push_back({s.level, s.a, s.b, to_ring<R>(s.c), to_ring<R>(s.c_inverse), s.affected_begin,
+                           s.affected_end, s.pivot_begin, s.pivot_end});
+    out.affected.reserve(log.affected.size());
+    for (const auto& e : log.affected) out.affected.push_back({e.index, to_ring<R>(e.value)});
+    out.pivot.reserve(log.pivot.size());
+    for (const auto& e : log.pivot) out.pivot.push_back({e.index, to_ring<R>(e.value)});
+    return out;
+  }
+}
+
+/// The ∂∂ = 0 precondition on the built complex (chain/boundary_squared.hpp): throws
+/// invalid_complex naming the first cell whose boundary's boundary (coboundary's coboundary,
+/// on a dual build) is not zero.
+template <class W, cell_complex C>
+void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
+  if (const auto bad = first_nonzero_boundary_squared(rc)) {
+    const int k = rc.dimension_of_level(bad->first);
+    const std::size_t i = rc.original_index(bad->first, bad->second);
+    throw invalid_complex(std::string(rc.is_dual() ? "lacuna: the coboundary of the coboundary of "
+                                                   : "lacuna: the boundary of the boundary of ") +
+                              std::to_string(k) + "-cell " + std::to_string(i) + " ('" + lacuna::cell_name(c, k, i) +
+                              "') is not zero: not a chain complex (lacuna::validate names every fault)",
+                          k, i);
+  }
+}
+
+/// The whole computation at one working coefficient type W.
+template <class R, class W, cell_complex C, class Algorithm>
+std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
+                                            reducible_build_options build, std::shared_ptr<homology_basis<R>>* basis,
+                                            const R& unit) {
+  const run_control* control = &opt.control;
+  build.control = control;
+  control->report("building the chain complex", 0, 1);
+  reducible_complex<W> rc;
+  if constexpr (std::same_as<R, W>)
+    rc = reducible_complex<W>::build(c, build, unit);
+  else
+    rc = reducible_complex<W>::build(c, build);
+  require_boundary_squared_zero(rc, c);  // precondition, checked
+  control->report("building the chain complex", 1, 1);
+  elimination_log<W> log;
+  const bool keep = opt.keep_basis.value_or(false);
+  const bool want_log = opt.generators || keep;
+  if constexpr (std::same_as<Algorithm, sparse_elimination> && std::same_as<R, W> && has_fast_column_reduction<R>)
+    if (alg.field_column_reduction && !want_log) {  // over Z/2, Z/p: algorithm/field_ranks.hpp
+      // No coreductions or collapses first: measured slower than reducing at once (docs/performance.md).
+      const auto betti = field_betti_numbers(rc, nullptr, {.control = control});
+      std::vector<level_result<R>> out(betti.size());
+      for (std::size_t L = 0; L < betti.size(); ++L) out[L].rank = betti[L];
+      return out;
+    }
+  if constexpr (std::same_as<Algorithm, sparse_elimination>) {
+    auto eo = alg.effective_elimination();
+    eo.record = want_log;
+    eo.record_pivots = keep;
+    eo.control = control;
+    eliminate_unit_pivots(rc, eo, want_log ? &log : nullptr);
+  } else if constexpr (staged_algorithm<Algorithm>) {  // the stages of algorithm/stages.hpp
+    control->report("eliminating unit pivots", 0, 1);
+    alg.pre.reduce(rc, want_log ? &log : nullptr, control);
+    alg.eliminate.reduce(rc, want_log ? &log : nullptr, control);
+    control->report("eliminating unit pivots", 1, 1);
+  }
+  std::vector<level_basis<R>> lb;
+  std::vector<level_result<R>> levels;
+  if constexpr (staged_algorithm<Algorithm>)
+    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
+  else
+    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
+  auto rlog = convert_log<R>(std::move(log));
+  if (opt.generators) {
+    control->report("lifting generators", 0, 1);
+    auto lift_level = [&](int L) {
+      auto lifted = lift_chains(rlog, L, rc.size(L), levels[static_cast<std::size_t>(L)].generators, control);
+      levels[static_cast<std::size_t>(L)].generators = std::move(lifted);
+      for (auto& ch : levels[static_cast<std::size_t>(L)].generators)
+        for (auto& e : ch) e.index = rc.original_index(L, e.index);
+      auto& bounding = levels[static_cast<std::size_t>(L)].bounding;
+      if (!bounding.empty()) {
+        bounding = lift_chains(rlog, L + 1, rc.size(L + 1), bounding, control);
+        for (auto& ch : bounding)
+          for (auto& e : ch) e.index = rc.original_index(L + 1, e.index);
+      }
+    };
+    const int top_level = rc.levels() - 1;
+    if (opt.threads >= 2 && top_level >= 1) {
+      // Levels are independent: the top one (usually the largest lift) beside the others.
+      detail::side_by_side([&] { lift_level(top_level); },
+                           [&] {
+                             for (int L = 0; L < top_level; ++L) lift_level(L);
+                           });
+    } else {
+      for (int L = 0; L < rc.levels(); ++L) lift_level(L);
+    }
+    control->report("lifting generators", 1, 1);
+  }
+  if (basis && keep) {
+    auto hb = std::make_shared<homology_basis<R>>();
+    hb->log = std::move(rlog);
+    hb->levels = std::move(lb);
+    for (int L = 0; L < rc.levels(); ++L) {
+      hb->from_original.push_back(rc.local_indices(L));
+      hb->level_sizes.push_back(rc.size(L));
+    }
+    *basis = std::move(hb);
+  }
+  return levels;
+}
+
+/// Whether the integers run at checked 64-bit working coefficients first: sparse_elimination,
+/// and staged_elimination whose reduction stages are generic in the working coefficients.
+template <class Algorithm>
+inline constexpr bool fast_integer_path = std::same_as<Algorithm, sparse_elimination>;
+template <class Pre, class Eliminate, class Core>
+inline constexpr bool fast_integer_path<staged_elimination<Pre, Eliminate, Core>> =
+    reduction_stage<Pre, checked_int64> && reduction_stage<Eliminate, checked_int64>;
+
+template <class R, cell_complex C, class Algorithm>
+std::vector<level_result<R>> compute_levels_any(const C& c, const homology_options& opt, const Algorithm& alg,
+                                                reducible_build_options build,
+                                                std::shared_ptr<homology_basis<R>>* basis, const R& unit) {
+  if constexpr (staged_algorithm<Algorithm>) {
+    static_assert(reduction_stage<decltype(alg.pre), R>,
+                  "lacuna: the pre-reduction stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
+    static_assert(reduction_stage<decltype(alg.eliminate), R>,
+                  "lacuna: the elimination stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
+    static_assert(core_stage<decltype(alg.core), R>,
+                  "lacuna: the core stage does not model core_stage at this ring (algorithm/stages.hpp)");
+  }
+  if constexpr (std::same_as<R, integer> && fast_integer_path<Algorithm>) {
+    try {
+      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, unit);
+    } catch (const coefficient_overflow&) {
+      // Widen: repeat with coefficients that cannot overflow.
+    }
+  }
+  return compute_levels<R, R>(c, opt, alg, build, basis, unit);
+}
+
+}  // namespace detail
+
+namespace detail {
+template <euclidean_domain R, cell_complex C, class Algorithm>
+homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool co,
+                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
+  if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
+  if (co && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
+  if (co && opt.witnesses) throw std::invalid_argument("lacuna: witnesses are offered for homology, not cohomology");
+  reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded, .threads = opt.threads};
+  homology_result<R> res;
+  res.cohomology = co;
+  res.reduced = opt.reduced;
+  res.level_offset_ = opt.reduced ? -1 : 0;
+  const int top = lacuna::top_dimension(c);
+  res.top_ = top;
+  res.unit_ = unit;
+  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, unit);
+  for (int k = 0; k <= top; ++k) {
+    const int L = co ? top - k : k - res.level_offset_;
+    auto& lr = levels[static_cast<std::size_t>(L)];
+    homology_group<R> g;
+    g.dimension = k;
+    g.rank = lr.rank;
+    g.torsion = std::move(lr.torsion);
+    for (std::size_t i = 0; i < lr.generators.size(); ++i) {
+      chain<R> ch{k, {}};
+      for (const auto& e : lr.generators[i]) ch.terms.push_back({e.index, e.value});
+      g.generators.push_back(std::move(ch));
+      g.orders.push_back(lr.orders[i]);
+    }
+    for (const auto& w : lr.bounding) {
+      chain<R> ch{k + 1, {}};
+      for (const auto& e : w) ch.terms.push_back({e.index, e.value});
+      g.bounding_chains.push_back(std::move(ch));
+    }
+    res.groups.push_back(std::move(g));
+  }
+  return res;
+}
+}  // namespace detail
+
+namespace detail {
+
+/// The algebra on a Morse complex m of c (pre_reduction::morse): generators are lifted to
+/// c, and with a basis, coordinates() first projects a cycle of c to m.
+template <euclidean_domain R, class M, class Lift, class Project>
+homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const sparse_elimination& alg, bool co,
+                                    const R& unit, Lift lift, Project project) {
+  homology_result<R> res = assemble<R>(m, opt, alg, co, nullptr, unit);
+  for (auto& g : res.groups)
+    for (auto& z : g.generators) z = lift(z);
+  if (res.basis_) res.project_ = std::move(project);
+  return res;
+}
+
+/// pre_reduction::morse; nullopt when it does not apply (relative homology, cohomology with
+/// generators, a Morse incidence beyond 64 bits): the caller then runs without it.
+template <euclidean_domain R, cell_complex C>
+std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, sparse_elimination alg, bool co,
+                                                 const R& unit) {
+  if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
+  if (co && (opt.generators || *opt.keep_basis)) return std::nullopt;
+  if (opt.witnesses) return std::nullopt;  // bounding chains are lifted through the elimination log only
+  alg.reduction = pre_reduction::coreductions_and_collapses;
+  try {
+    if constexpr (has_implicit_morse_complex<C>) {
+      constexpr std::size_t D = C::dimension;
+      auto m = std::make_shared<const cubical_morse_complex<D>>(
+          cubical_morse_reduce(c, {.threads = opt.threads, .control = &opt.control}));
+      std::shared_ptr<const C> original;
+      if (*opt.keep_basis) original = std::make_shared<const C>(c);  // coordinates() may outlive c
+      return on_morse_complex<R>(
+          *m, opt, alg, co, unit, [&](const chain<R>& z) { return m->lift(c, z, unit); },
+          [m, original, unit](const chain<R>& x) { return m->project(*original, x, unit); });
+    } else {
+      auto m = std::make_shared<const morse_complex>(morse_reduce(c, {.control = &opt.control}));
+      const run_control* control = &opt.control;
+      return on_morse_complex<R>(
+          *m, opt, alg, co, unit, [&](const chain<R>& z) { return m->lift(z, unit, control); },
+          [m, unit](const chain<R>& x) { return m->project(x, unit); });
+    }
+  } catch (const coefficient_overflow&) {
+    return std::nullopt;
+  }
+}
+
+}  // namespace detail
+
+namespace detail {
+
+// ---- the coboundary route (coboundary_reduction; docs/homology.md) ------------------------
+
+/// Whether homology() with sparse_elimination takes the coboundary route by default: over the
+/// integers, ranks and torsion only, the default pre-reduction, and not an image or volume.
+/// Measured (docs/performance.md, bench_torsion and bench_homology): on simplicial complexes
+/// and cell lists the route is as fast or faster (matching complex of K_11: minutes -> under a
+/// second), while on cubical volumes the implicit Morse matching of the old route stays ahead.
+/// Over Q the same rule holds: the ranks over Q are the free ranks over Z, so the rationals
+/// take the integral route (exact, with integral working coefficients) instead of a Smith
+/// form over Q, whose fractions grow (matching complex of K_11 over Q: minutes before).
+template <class R, class C>
+bool coboundary_route_by_default(const homology_options& opt, const sparse_elimination& alg) {
+  if constexpr (!(std::same_as<R, integer> || std::same_as<R, rational>) || has_implicit_morse_complex<C>) {
+    return false;
+  } else {
+    return alg.allow_coboundary_route && alg.reduction == pre_reduction::coreductions_and_collapses &&
+           !opt.generators && !opt.keep_basis.value_or(false);
+  }
+}
+
+// ---- the duality route of images and volumes (algorithm/cubical_duality.hpp) ---------------
+
+template <class C>
+inline constexpr std::size_t duality_dimension = 0;
+template <std::size_t D>
+inline constexpr std::size_t duality_dimension<cubical_complex<D>> = D <= 3 ? D : 0;
+
+/// The groups of an image or volume by labelling (cubical_betti_numbers): ranks only, since
+/// a compact subset of R^D, D <= 3, has torsion-free homology, so the groups over any R are
+/// free of those ranks, and so are the cohomology groups (universal coefficients). nullopt
+/// when the route does not apply (generators or a basis asked for, another variant, a
+/// reduced group of the empty image).
+template <euclidean_domain R, cell_complex C>
+std::optional<homology_result<R>> duality_homology(const C& c, const homology_options& opt,
+                                                   const sparse_elimination& alg, bool cohomology, const R& unit) {
+  if constexpr (duality_dimension<C> == 0) {
+    return std::nullopt;
+  } else {
+    if (!alg.cubical_duality ||
+        (alg.reduction != pre_reduction::coreductions_and_collapses && alg.reduction != pre_reduction::morse))
+      return std::nullopt;
+    if (opt.generators || opt.keep_basis.value_or(false)) return std::nullopt;
+    if (opt.reduced && c.top_dimension() < 0) return std::nullopt;
+    auto b = cubical_betti_numbers(c, &opt.control);
+    if (opt.reduced) b[0] -= 1;
+    homology_result<R> res;
+    res.cohomology = cohomology;
+    res.reduced = opt.reduced;
+    res.level_offset_ = opt.reduced ? -1 : 0;
+    res.top_ = c.top_dimension();
+    res.unit_ = unit;
+    for (int k = 0; k <= c.top_dimension(); ++k) {
+      homology_group<R> g;
+      g.dimension = k;
+      g.rank = b[static_cast<std::size_t>(k)];
+      res.groups.push_back(std::move(g));
+    }
+    return res;
+  }
+}
+
+/// The groups from the coboundary route at working coefficients W: rank at level L is
+/// size(L) − rank δ_{L−1} − rank δ_L (rank–nullity; rank δ = rank ∂ of its transpose), the
+/// torsion at level L the non-unit invariant factors of δ_L = ∂_{L+1}^T, as in the Smith form
+/// description at the top of this header.
+template <class R, class W, cell_complex C>
+homology_result<R> coboundary_groups(const C& c, const homology_options& opt, const coboundary_reduction& alg,
+                                     const std::vector<std::vector<bool>>* excluded, const R& unit) {
+  const run_control* control = &opt.control;
+  reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded, .threads = opt.threads,
+                                .control = control};
+  control->report("building the chain complex", 0, 1);
+  reducible_complex<W> rc;
+  if constexpr (std::same_as<R, W>)
+    rc = reducible_complex<W>::build(c, build, unit);
+  else
+    rc = reducible_complex<W>::build(c, build);
+  require_boundary_squared_zero(rc, c);
+  control->report("building the chain complex", 1, 1);
+  const auto inv = reduce_coboundaries<R>(rc, alg, control);
+  homology_result<R> res;
+  res.reduced = opt.reduced;
+  res.level_offset_ = opt.reduced ? -1 : 0;
+  const int top = lacuna::top_dimension(c);
+  res.top_ = top;
+  res.unit_ = unit;
+  for (int k = 0; k <= top; ++k) {
+    const int L = k - res.level_offset_;
+    homology_group<R> g;
+    g.dimension = k;
+    const std::size_t below = L >= 1 ? inv[static_cast<std::size_t>(L - 1)].rank : 0;
+    g.rank = rc.size(L) - below - inv[static_cast<std::size_t>(L)].rank;
+    g.torsion = inv[static_cast<std::size_t>(L)].torsion;
+    res.groups.push_back(std::move(g));
+  }
+  return res;
+}
+
+/// homology / relative_homology with coboundary_reduction; generators or a basis fall back
+/// to sparse_elimination{} (the route keeps no change of basis).
+template <class R, cell_complex C>
+homology_result<R> homology_by_coboundaries(const C& c, const homology_options& opt, const coboundary_reduction& alg,
+                                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
+  if (opt.generators || opt.keep_basis.value_or(false))
+    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, unit);
+  if constexpr (std::same_as<R, rational>) {
+    // H_k(C; Q) = H_k(C; Z) ⊗ Q (universal coefficients; Q is flat over Z): its dimension is
+    // the free rank over Z, and torsion vanishes. The boundary coefficients are integers.
+    const auto z = homology_by_coboundaries<integer>(c, opt, alg, excluded, one<integer>());
+    homology_result<R> res;
+    res.reduced = z.reduced;
+    res.level_offset_ = z.level_offset_;
+    res.top_ = z.top_;
+    res.unit_ = unit;
+    for (const auto& g : z.groups) {
+      homology_group<R> q;
+      q.dimension = g.dimension;
+      q.rank = g.rank;
+      res.groups.push_back(std::move(q));
+    }
+    return res;
+  }
+  if constexpr (std::same_as<R, integer>) {
+    try {
+      return coboundary_groups<R, checked_int64>(c, opt, alg, excluded, unit);
+    } catch (const coefficient_overflow&) {
+      // Widen: repeat with coefficients that cannot overflow.
+    }
+  }
+  return coboundary_groups<R, R>(c, opt, alg, excluded, unit);
+}
+
+}  // namespace detail
+
+}  // namespace lacuna
