@@ -31,6 +31,7 @@
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/algorithm/stages.hpp>
 #include <lacuna/algorithm/field_reduction.hpp>
+#include <lacuna/algorithm/gradient_flow.hpp>
 #include <lacuna/algorithm/morse_reduction.hpp>
 #include <lacuna/algorithm/cubical_morse.hpp>
 #include <lacuna/algorithm/dominated_vertices.hpp>

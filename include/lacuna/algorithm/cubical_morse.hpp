@@ -29,6 +29,7 @@
 // dimension >= 2. With threads = 2 both passes split in two halves; the result is identical.
 #pragma once
 
+#include <lacuna/algorithm/gradient_flow.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/run_control.hpp>
@@ -344,43 +345,26 @@ class cubical_morse_complex {
       sign = -sign;
     }
   }
-  /// The gradient flow of lift and project, over R. seed(add) puts the starting chain in,
-  /// add(key, coefficient); then the pending cells are taken by decreasing key (a gradient
-  /// path lowers the key, so every contribution to a cell has arrived when it is taken). A
-  /// cell taken with c != 0 goes to reached(cell, c); if it is paired with a coface up, c
-  /// flows on: cu = -c / [up:cell] goes to through(up, cu), and cu [up:f] is added to every
-  /// other face f of up. Cost: O(m log m) ring operations, m the cells of the paths met.
+  /// The implicit gradient as algorithm/gradient_flow.hpp follows it: cells are keys, whose
+  /// order strictly falls along a gradient path; partners and faces are read off the voxels.
+  struct gradient_view {
+    using cell_type = std::uint64_t;
+    const cubical_morse_complex* m;
+    std::uint64_t priority(cell_type k) const { return k; }
+    int paired_up(cell_type k, cell_type& up) const {
+      if (!m->paired_up(k, up)) return 0;
+      return static_cast<int>(m->incidence_of(up, k));  // ±1
+    }
+    template <class F>
+    void for_each_face(cell_type k, F&& f) const {
+      m->for_each_face(k, std::forward<F>(f));
+    }
+  };
+  /// lift and project: the shared gradient flow on this complex's gradient.
   template <class R, class Seed, class Reached, class Through>
   void flow(const R& unit, Seed&& seed, Reached&& reached, Through&& through) const {
-    std::unordered_map<std::uint64_t, R> pending;
-    std::vector<std::uint64_t> heap;
-    auto add = [&](std::uint64_t f, const R& v) {
-      auto [p, fresh] = pending.try_emplace(f, zero<R>());
-      p->second += v;
-      if (fresh) {
-        heap.push_back(f);
-        std::push_heap(heap.begin(), heap.end());
-      }
-    };
-    seed(add);
-    while (!heap.empty()) {
-      std::pop_heap(heap.begin(), heap.end());
-      const std::uint64_t cell = heap.back();
-      heap.pop_back();
-      auto it = pending.find(cell);
-      const R c = it->second;
-      pending.erase(it);
-      if (c == zero<R>()) continue;
-      reached(cell, c);
-      std::uint64_t up;
-      if (!paired_up(cell, up)) continue;  // critical or paired down: the path ends here
-      const std::int64_t w_cell = incidence_of(up, cell);
-      const R cu = -(c * from_integer<R>(w_cell) * unit);  // ±1: the inverse is itself
-      through(up, cu);
-      for_each_face(up, [&](std::uint64_t f, std::int64_t w) {
-        if (f != cell) add(f, cu * from_integer<R>(w) * unit);
-      });
-    }
+    gradient_flow<R>(gradient_view{this}, unit, std::forward<Seed>(seed), std::forward<Reached>(reached),
+                     std::forward<Through>(through));
   }
   std::int64_t incidence_of(std::uint64_t up, std::uint64_t face) const {
     std::int64_t w = 0;

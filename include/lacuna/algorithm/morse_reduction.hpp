@@ -28,8 +28,8 @@
 //      it has arrived when ρ is taken. Coefficients are int64 with every operation checked:
 //      lacuna::coefficient_overflow when one does not fit (a caller may then fall back to
 //      the unreduced engine).
-//   3. The chain maps, over any Euclidean domain R: lift (g, Morse -> original) runs the
-//      same traversal and also collects the k-cells -c / [υ:ρ] υ of the gradient paths, so
+//   3. The chain maps, over any Euclidean domain R (the flow of algorithm/gradient_flow.hpp,
+//      shared with cubical_morse.hpp): lift (g, Morse -> original) runs the same traversal and also collects the k-cells -c / [υ:ρ] υ of the gradient paths, so
 //      g(σ) = σ + (those cells); project (f, original -> Morse) takes the k-cells of a chain
 //      by decreasing number: critical ones stay, those paired with a lower cell drop out,
 //      one paired with a (k+1)-cell υ is replaced by -c [υ:ρ'] / [υ:x] on the other faces
@@ -41,6 +41,7 @@
 // project need no reference to the original complex.
 #pragma once
 
+#include <lacuna/algorithm/gradient_flow.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/run_control.hpp>
@@ -121,16 +122,18 @@ class morse_complex {
       if (t.cell >= d.critical.size()) throw std::invalid_argument("lacuna: a chain names a critical cell that does not exist");
       if (!(t.coefficient == zero_r)) out.terms.push_back({d.critical[t.cell], t.coefficient});
     }
-    if (k > 0) {
-      traversal<R> tr(dim(k - 1), unit);
-      for (const auto& t : on_morse.terms) {
-        if (t.coefficient == zero_r) continue;
-        const std::uint32_t s = d.critical[t.cell];
-        for (std::size_t p = d.offsets[s]; p < d.offsets[s + 1]; ++p) tr.add(d.faces[p], tr.ring(d.coefficients[p]) * t.coefficient);
-      }
-      // g(σ) = σ + the cofaces the flow goes through
-      flow(tr, k - 1, zero_r, control, [](std::uint32_t, const R&) {}, [&](std::uint32_t u, const R& w) { out.terms.push_back({u, w}); });
-    }
+    if (k > 0)  // g(σ) = σ + the cofaces the flow goes through
+      gradient_flow<R>(
+          gradient(k - 1), unit,
+          [&](auto&& add) {
+            for (const auto& t : on_morse.terms) {
+              if (t.coefficient == zero_r) continue;
+              const std::uint32_t s = d.critical[t.cell];
+              for (std::size_t p = d.offsets[s]; p < d.offsets[s + 1]; ++p)
+                add(d.faces[p], from_integer<R>(d.coefficients[p]) * unit * t.coefficient);
+            }
+          },
+          [](std::uint32_t, const R&) {}, [&](std::uint32_t u, const R& w) { out.terms.push_back({u, w}); }, control);
     out.normalize_terms();
     return out;
   }
@@ -144,18 +147,17 @@ class morse_complex {
     chain<R> out{k, {}};
     if (on_original.terms.empty()) return out;
     const auto& d = checked_dim(k);
-    const R zero_r = zero<R>() * unit;
-    traversal<R> tr(d, unit);
-    for (const auto& t : on_original.terms) {
+    for (const auto& t : on_original.terms)
       if (t.cell >= d.kind.size()) throw std::invalid_argument("lacuna: a chain names a cell that does not exist");
-      tr.add(static_cast<std::uint32_t>(t.cell), t.coefficient);
-    }
-    flow(
-        tr, k, zero_r, control,
+    gradient_flow<R>(
+        gradient(k), unit,
+        [&](auto&& add) {
+          for (const auto& t : on_original.terms) add(static_cast<std::uint32_t>(t.cell), t.coefficient);
+        },
         [&](std::uint32_t x, const R& c) {
           if (d.kind[x] == critical) out.terms.push_back({d.mate[x], c});  // paired down: 0 in the Morse complex
         },
-        [](std::uint32_t, const R&) {});
+        [](std::uint32_t, const R&) {}, control);
     out.normalize_terms();
     return out;
   }
@@ -183,67 +185,24 @@ class morse_complex {
     std::vector<incidence> morse_terms;
   };
 
-  // Pending coefficients on the cells of one dimension, taken by decreasing death number.
-  template <class R>
-  class traversal {
-   public:
-    traversal(const dimension_data& d, const R& unit) : d_(d), unit_(unit) {}
-    R ring(std::int64_t n) const { return from_integer<R>(n) * unit_; }
-    void add(std::uint32_t cell, const R& v) {
-      auto [it, fresh] = pending_.try_emplace(cell, v);
-      if (fresh) {
-        heap_.push_back(key(cell));
-        std::push_heap(heap_.begin(), heap_.end());
-      } else {
-        it->second += v;
-      }
+  // The gradient on the k-cells (algorithm/gradient_flow.hpp): priority the death number
+  // (every gradient path lowers it), partners and faces from the stored matching.
+  struct gradient_view {
+    using cell_type = std::uint32_t;
+    const dimension_data* lo;
+    const dimension_data* hi;  // the (k+1)-cells; null at the top dimension
+    std::uint64_t priority(cell_type x) const { return lo->order[x]; }
+    int paired_up(cell_type x, cell_type& up) const {
+      if (lo->kind[x] != up_plus && lo->kind[x] != up_minus) return 0;
+      up = lo->mate[x];
+      return lo->kind[x] == up_plus ? 1 : -1;
     }
-    // A contribution from a cell of death number `from`: the matching puts it below.
-    void add_below(std::uint32_t cell, const R& v, std::uint32_t from) {
-      if (d_.order[cell] >= from) throw std::logic_error("lacuna: morse_complex: the matching is not acyclic");
-      add(cell, v);
+    template <class F>
+    void for_each_face(cell_type u, F&& f) const {
+      for (std::size_t p = hi->offsets[u]; p < hi->offsets[u + 1]; ++p) f(hi->faces[p], hi->coefficients[p]);
     }
-    bool empty() const { return heap_.empty(); }
-    std::pair<std::uint32_t, R> pop() {
-      std::pop_heap(heap_.begin(), heap_.end());
-      const auto cell = static_cast<std::uint32_t>(heap_.back() & 0xffffffffU);
-      heap_.pop_back();
-      auto node = pending_.extract(cell);
-      return {cell, std::move(node.mapped())};
-    }
-
-   private:
-    std::uint64_t key(std::uint32_t cell) const { return (std::uint64_t{d_.order[cell]} << 32U) | cell; }
-    const dimension_data& d_;
-    R unit_;
-    std::unordered_map<std::uint32_t, R> pending_;
-    std::vector<std::uint64_t> heap_;
   };
-
-  // The gradient flow of lift and project, on the k-cells pending in tr: they are taken by
-  // decreasing death number (every contribution to a cell comes from a cell of larger number,
-  // so it has arrived when the cell is taken). A cell x taken with c != zero_r goes to
-  // reached(x, c); if it is paired with a (k+1)-cell u, w = -c / [u:x] goes to through(u, w),
-  // and w [u:ρ'] is added to every other face ρ' of u. The stop request of `control` is
-  // looked at every 4096 steps.
-  template <class R, class Reached, class Through>
-  void flow(traversal<R>& tr, int k, const R& zero_r, const run_control* control, Reached&& reached, Through&& through) const {
-    const auto& lo = dim(k);
-    std::uint64_t steps = 0;
-    while (!tr.empty()) {
-      if (control && (++steps & 4095U) == 0) control->check();
-      auto [x, c] = tr.pop();
-      if (c == zero_r) continue;
-      reached(x, c);
-      if (lo.kind[x] != up_plus && lo.kind[x] != up_minus) continue;  // critical or paired down
-      const auto& hi = dim(k + 1);
-      const std::uint32_t u = lo.mate[x];
-      const R w = lo.kind[x] == up_plus ? R(-c) : c;  // -c / [u:x]
-      through(u, w);
-      for (std::size_t p = hi.offsets[u]; p < hi.offsets[u + 1]; ++p)
-        if (hi.faces[p] != x) tr.add_below(hi.faces[p], w * tr.ring(hi.coefficients[p]), lo.order[x]);
-    }
-  }
+  gradient_view gradient(int k) const { return {&dim(k), has(k + 1) ? &dim(k + 1) : nullptr}; }
 
   bool has(int k) const { return k >= 0 && k <= top_; }
   const dimension_data& dim(int k) const { return dims_[static_cast<std::size_t>(k)]; }
