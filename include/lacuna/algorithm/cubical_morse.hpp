@@ -349,6 +349,7 @@ class cubical_morse_complex {
   /// order strictly falls along a gradient path; partners and faces are read off the voxels.
   struct gradient_view {
     using cell_type = std::uint64_t;
+    static constexpr bool priority_is_cell = true;
     const cubical_morse_complex* m;
     std::uint64_t priority(cell_type k) const { return k; }
     int paired_up(cell_type k, cell_type& up) const {

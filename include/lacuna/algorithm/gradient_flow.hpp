@@ -20,6 +20,7 @@
 #include <concepts>
 #include <cstdint>
 #include <stdexcept>
+#include <type_traits>
 #include <unordered_map>
 #include <utility>
 #include <vector>
@@ -30,6 +31,8 @@ namespace lacuna {
 ///   priority(x)              strictly falls along a gradient path (x, its partner u, a face of u);
 ///   paired_up(x, u)          the incidence [u:x] (+1 or −1) when x is paired with a coface u, else 0;
 ///   for_each_face(u, f)      f(face, incidence) for every face of u.
+/// A gradient whose cells are unsigned integers equal to their own priority may say so with
+/// `static constexpr bool priority_is_cell = true;` (the flow then keeps a smaller heap).
 template <class G>
 concept discrete_gradient = requires(const G& g, typename G::cell_type x, typename G::cell_type& up) {
   { g.priority(x) } -> std::convertible_to<std::uint64_t>;
@@ -47,13 +50,20 @@ template <class R, discrete_gradient G, class Seed, class Reached, class Through
 void gradient_flow(const G& g, const R& unit, Seed&& seed, Reached&& reached, Through&& through,
                    const run_control* control = nullptr) {
   using cell = typename G::cell_type;
+  // A cell that is its own priority (G::priority_is_cell) goes on the heap as it is; else
+  // (priority, cell), ordered by priority first.
+  constexpr bool bare = requires { requires G::priority_is_cell; };
+  using heap_entry = std::conditional_t<bare, cell, std::pair<std::uint64_t, cell>>;
   const R zero_r = zero<R>() * unit;
   std::unordered_map<cell, R> pending;
-  std::vector<std::pair<std::uint64_t, cell>> heap;  // (priority, cell), the largest on top
+  std::vector<heap_entry> heap;  // the largest priority on top
   auto add = [&](cell f, const R& v) {
     auto [p, fresh] = pending.try_emplace(f, v);
     if (fresh) {
-      heap.push_back({static_cast<std::uint64_t>(g.priority(f)), f});
+      if constexpr (bare)
+        heap.push_back(f);
+      else
+        heap.push_back({static_cast<std::uint64_t>(g.priority(f)), f});
       std::push_heap(heap.begin(), heap.end());
     } else {
       p->second += v;
@@ -64,7 +74,12 @@ void gradient_flow(const G& g, const R& unit, Seed&& seed, Reached&& reached, Th
   while (!heap.empty()) {
     if (control && (++steps & 4095U) == 0) control->check();
     std::pop_heap(heap.begin(), heap.end());
-    const auto [from, x] = heap.back();
+    std::uint64_t from;
+    cell x;
+    if constexpr (bare)
+      x = heap.back(), from = static_cast<std::uint64_t>(g.priority(x));
+    else
+      from = heap.back().first, x = heap.back().second;
     heap.pop_back();
     auto node = pending.extract(x);
     const R c = std::move(node.mapped());
