@@ -29,6 +29,7 @@
 // dimension >= 2. With threads = 2 both passes split in two halves; the result is identical.
 #pragma once
 
+#include <lacuna/ring/checked.hpp>
 #include <lacuna/algorithm/gradient_flow.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
@@ -602,7 +603,7 @@ class cubical_morse_complex {
 
   static std::int64_t add_checked(std::int64_t a, std::int64_t b) {
     std::int64_t r;
-    if (__builtin_add_overflow(a, b, &r)) throw coefficient_overflow();
+    if (checked_add(a, b, r)) throw coefficient_overflow();
     return r;
   }
 
@@ -644,7 +645,7 @@ class cubical_morse_complex {
       for_each_face(up, [&](std::uint64_t f, std::int64_t w) {
         if (f == rho) return;
         std::int64_t x;
-        if (__builtin_mul_overflow(c, w * w_rho, &x) || x == std::numeric_limits<std::int64_t>::min())
+        if (checked_mul(c, w * w_rho, x) || x == std::numeric_limits<std::int64_t>::min())
           throw coefficient_overflow();
         add(f, -x);
       });

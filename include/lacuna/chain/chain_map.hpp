@@ -17,6 +17,7 @@
 // first cell (lowest dimension, then index) where it fails.
 #pragma once
 
+#include <lacuna/ring/checked.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/concepts.hpp>
@@ -315,7 +316,7 @@ template <class T>
 T mul(const T& a, const T& b) {
   if constexpr (std::same_as<T, std::int64_t>) {
     std::int64_t r = 0;
-    if (__builtin_mul_overflow(a, b, &r)) throw std::overflow_error("lacuna: a chain map coefficient passes 64 bits");
+    if (checked_mul(a, b, r)) throw std::overflow_error("lacuna: a chain map coefficient passes 64 bits");
     return r;
   } else {
     return a * b;
@@ -325,7 +326,7 @@ template <class T>
 T add(const T& a, const T& b) {
   if constexpr (std::same_as<T, std::int64_t>) {
     std::int64_t r = 0;
-    if (__builtin_add_overflow(a, b, &r)) throw std::overflow_error("lacuna: a chain map coefficient passes 64 bits");
+    if (checked_add(a, b, r)) throw std::overflow_error("lacuna: a chain map coefficient passes 64 bits");
     return r;
   } else {
     return a + b;

@@ -16,6 +16,7 @@
 // dimension top - L, and the boundary of a cell is its coboundary.
 #pragma once
 
+#include <lacuna/ring/checked.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
@@ -229,7 +230,7 @@ class reducible_complex {
           std::size_t t = s;
           std::int64_t sum = 0;
           for (; t < scratch.size() && scratch[t].index == scratch[s].index && !exact_sum; ++t)
-            exact_sum = __builtin_add_overflow(sum, scratch[t].value, &sum);
+            exact_sum = checked_add(sum, scratch[t].value, sum);
           if (!exact_sum && sum != 0) {
             R val = from_integer<R>(sum) * unit;
             if (!(val == zero<R>())) data.push_back({scratch[s].index, std::move(val)});

@@ -35,6 +35,7 @@
 // the whole graph and this is homology(clique_complex(...)) with the top from counts.
 #pragma once
 
+#include <lacuna/ring/checked.hpp>
 #include <lacuna/algorithm/dominated_edges.hpp>
 #include <lacuna/algorithm/dominated_vertices.hpp>
 #include <lacuna/chain/chain.hpp>
@@ -290,7 +291,7 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
     // empty simplex's 1), as (-1)^top rank = A - B with A and B sums of naturals, checked.
     std::uint64_t A = 0, B = options.homology.reduced ? 1 : 0;
     const auto add = [](std::uint64_t& s, std::uint64_t x) {
-      if (__builtin_add_overflow(s, x, &s)) throw std::overflow_error("clique_homology: the Euler characteristic passes 64 bits");
+      if (checked_add(s, x, s)) throw std::overflow_error("clique_homology: the Euler characteristic passes 64 bits");
     };
     for (int k = 0; k <= top; ++k) add(k % 2 == 0 ? A : B, out.cell_counts[static_cast<std::size_t>(k)]);
     for (int k = 0; k < top; ++k) add(k % 2 == 0 ? B : A, out.groups[static_cast<std::size_t>(k)].rank);

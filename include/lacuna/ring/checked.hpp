@@ -1,4 +1,5 @@
-// lacuna/ring/checked.hpp — overflow-checked std::int64_t arithmetic.
+// lacuna/ring/checked.hpp — overflow-checked std::int64_t arithmetic: the one family of
+// overflow checks of the library (everything else calls these, never the builtins).
 //
 // The homology engine runs on machine integers and widens to big integers when a step
 // overflows; these helpers say when. Each computes the exact result into `out` when it fits
@@ -23,6 +24,11 @@ namespace lacuna {
 /// a * b into out; true on overflow.
 [[nodiscard]] constexpr bool checked_mul(std::int64_t a, std::int64_t b, std::int64_t& out) noexcept {
   return __builtin_mul_overflow(a, b, &out);
+}
+
+/// a + b into out for unsigned counts (sizes, sums of sizes); true on overflow.
+[[nodiscard]] constexpr bool checked_add(std::uint64_t a, std::uint64_t b, std::uint64_t& out) noexcept {
+  return __builtin_add_overflow(a, b, &out);
 }
 
 /// -a into out; true on overflow (only for a == INT64_MIN).

@@ -6,6 +6,7 @@
 // Inverses use the extended Euclidean algorithm on machine words.
 #pragma once
 
+#include <lacuna/ring/checked.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/primality.hpp>
 
@@ -201,17 +202,17 @@ class mod_p_dynamic {
   /// Sum, difference, product and negation: mod p when an operand is bound (throws std::invalid_argument for two different moduli), exact integer arithmetic between unbound elements (overflow throws).
   friend mod_p_dynamic operator+(const mod_p_dynamic& a, const mod_p_dynamic& b) {
     const std::uint64_t p = common(a, b);
-    if (p == 0) return exact(a, b, [](std::int64_t x, std::int64_t y, std::int64_t& r) { return __builtin_add_overflow(x, y, &r); });
+    if (p == 0) return exact(a, b, [](std::int64_t x, std::int64_t y, std::int64_t& r) { return checked_add(x, y, r); });
     return raw(detail::add_mod(a.residue(p), b.residue(p), p), p);
   }
   friend mod_p_dynamic operator-(const mod_p_dynamic& a, const mod_p_dynamic& b) {
     const std::uint64_t p = common(a, b);
-    if (p == 0) return exact(a, b, [](std::int64_t x, std::int64_t y, std::int64_t& r) { return __builtin_sub_overflow(x, y, &r); });
+    if (p == 0) return exact(a, b, [](std::int64_t x, std::int64_t y, std::int64_t& r) { return checked_sub(x, y, r); });
     return raw(detail::sub_mod(a.residue(p), b.residue(p), p), p);
   }
   friend mod_p_dynamic operator*(const mod_p_dynamic& a, const mod_p_dynamic& b) {
     const std::uint64_t p = common(a, b);
-    if (p == 0) return exact(a, b, [](std::int64_t x, std::int64_t y, std::int64_t& r) { return __builtin_mul_overflow(x, y, &r); });
+    if (p == 0) return exact(a, b, [](std::int64_t x, std::int64_t y, std::int64_t& r) { return checked_mul(x, y, r); });
     return raw(detail::mul_mod(a.residue(p), b.residue(p), p), p);
   }
   friend mod_p_dynamic operator-(const mod_p_dynamic& a) { return mod_p_dynamic() - a; }
