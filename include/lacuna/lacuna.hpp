@@ -14,6 +14,7 @@
 #include <lacuna/complex/validate.hpp>
 #include <lacuna/complex/construct.hpp>
 
+#include <lacuna/chain/combine_terms.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/chain_map.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>

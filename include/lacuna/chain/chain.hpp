@@ -1,6 +1,7 @@
 // lacuna/chain/chain.hpp — chains: finite formal sums of cells of one dimension.
 #pragma once
 
+#include <lacuna/chain/combine_terms.hpp>
 #include <lacuna/ring/concepts.hpp>
 
 #include <algorithm>
@@ -31,16 +32,7 @@ struct chain {
 
   /// Puts the terms in canonical form: sorted by cell, equal cells added, zeros dropped.
   void normalize_terms() {
-    std::sort(terms.begin(), terms.end(), [](const auto& x, const auto& y) { return x.cell < y.cell; });
-    std::size_t out = 0;
-    for (std::size_t i = 0; i < terms.size();) {
-      std::size_t j = i;
-      R sum = terms[i].coefficient;
-      while (++j < terms.size() && terms[j].cell == terms[i].cell) sum += terms[j].coefficient;
-      if (!(sum == zero<R>())) terms[out++] = {terms[i].cell, sum};
-      i = j;
-    }
-    terms.resize(out);
+    combine_terms(terms, &chain_term<R>::cell, &chain_term<R>::coefficient);
   }
   /// True for the zero chain (no terms).
   bool is_zero() const { return terms.empty(); }

@@ -19,6 +19,7 @@
 
 #include <lacuna/ring/checked.hpp>
 #include <lacuna/chain/chain.hpp>
+#include <lacuna/chain/combine_terms.hpp>
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/construct/subcomplex.hpp>
@@ -107,16 +108,16 @@ class explicit_chain_map {
     if (static_cast<std::size_t>(k) >= images_.size()) images_.resize(static_cast<std::size_t>(k) + 1);
     auto& level = images_[static_cast<std::size_t>(k)];
     if (i >= level.size()) level.resize(i + 1);
-    std::sort(terms.begin(), terms.end(), [](const auto& a, const auto& b) { return a.cell < b.cell; });
-    std::vector<chain_term<T>> out;
-    for (const auto& t : terms) {
-      if (!out.empty() && out.back().cell == t.cell)
-        out.back().coefficient = out.back().coefficient + t.coefficient;
-      else
-        out.push_back(t);
-      if (out.back().coefficient == T{}) out.pop_back();
-    }
-    level[i] = std::move(out);
+    combine_terms(terms, &chain_term<T>::cell, &chain_term<T>::coefficient, [](const T& a, const T& b) {
+      if constexpr (std::same_as<T, std::int64_t>) {  // 64-bit images: an overflow throws
+        std::int64_t r = 0;
+        if (checked_add(a, b, r)) throw std::overflow_error("lacuna: a chain map coefficient passes 64 bits");
+        return r;
+      } else {
+        return a + b;
+      }
+    });
+    level[i] = std::move(terms);
   }
   /// The image of the i-th k-cell (empty: zero).
   const std::vector<chain_term<T>>& image(int k, std::size_t i) const {

@@ -4,6 +4,7 @@
 // matrix is the boundary of the j-th k-cell. Each column is sorted by row, without zeros.
 #pragma once
 
+#include <lacuna/chain/combine_terms.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
 #include <lacuna/complex/concepts.hpp>
@@ -37,18 +38,7 @@ struct sparse_matrix {
   }
   /// Sorts each column by row, adds repeated rows, drops zeros.
   void normalize() {
-    for (auto& col : columns) {
-      std::sort(col.begin(), col.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
-      std::size_t out = 0;
-      for (std::size_t s = 0; s < col.size();) {
-        std::size_t t = s;
-        R sum = zero<R>();
-        for (; t < col.size() && col[t].index == col[s].index; ++t) sum += col[t].value;
-        if (!(sum == zero<R>())) col[out++] = {col[s].index, sum};
-        s = t;
-      }
-      col.resize(out);
-    }
+    for (auto& col : columns) combine_terms(col, &sparse_entry<R>::index, &sparse_entry<R>::value);
   }
   /// The number of stored entries.
   std::size_t nonzeros() const {
