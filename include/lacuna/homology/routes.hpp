@@ -352,14 +352,14 @@ std::vector<level_result<R>> compute_levels_any(const C& c, const homology_optio
 
 namespace detail {
 template <euclidean_domain R, cell_complex C, class Algorithm>
-homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool co,
+homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool is_cohomology,
                             const std::vector<std::vector<bool>>* excluded, const R& unit) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
-  if (co && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
-  if (co && opt.witnesses) throw std::invalid_argument("lacuna: witnesses are offered for homology, not cohomology");
-  reducible_build_options b{.augmented = opt.reduced, .dual = co, .excluded = excluded, .threads = opt.threads};
+  if (is_cohomology && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
+  if (is_cohomology && opt.witnesses) throw std::invalid_argument("lacuna: witnesses are offered for homology, not cohomology");
+  reducible_build_options b{.augmented = opt.reduced, .dual = is_cohomology, .excluded = excluded, .threads = opt.threads};
   homology_result<R> res;
-  res.cohomology = co;
+  res.cohomology = is_cohomology;
   res.reduced = opt.reduced;
   res.level_offset_ = opt.reduced ? -1 : 0;
   const int top = lacuna::top_dimension(c);
@@ -367,7 +367,7 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
   res.unit_ = unit;
   auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, unit);
   for (int k = 0; k <= top; ++k) {
-    const int L = co ? top - k : k - res.level_offset_;
+    const int L = is_cohomology ? top - k : k - res.level_offset_;
     auto& lr = levels[static_cast<std::size_t>(L)];
     homology_group<R> g;
     g.dimension = k;
@@ -395,9 +395,9 @@ namespace detail {
 /// The algebra on a Morse complex m of c (pre_reduction::morse): generators are lifted to
 /// c, and with a basis, coordinates() first projects a cycle of c to m.
 template <euclidean_domain R, class M, class Lift, class Project>
-homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const sparse_elimination& alg, bool co,
+homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const sparse_elimination& alg, bool is_cohomology,
                                     const R& unit, Lift lift, Project project) {
-  homology_result<R> res = assemble<R>(m, opt, alg, co, nullptr, unit);
+  homology_result<R> res = assemble<R>(m, opt, alg, is_cohomology, nullptr, unit);
   for (auto& g : res.groups)
     for (auto& z : g.generators) z = lift(z);
   if (res.basis_) res.project_ = std::move(project);
@@ -407,10 +407,10 @@ homology_result<R> on_morse_complex(const M& m, const homology_options& opt, con
 /// pre_reduction::morse; nullopt when it does not apply (relative homology, cohomology with
 /// generators, a Morse incidence beyond 64 bits): the caller then runs without it.
 template <euclidean_domain R, cell_complex C>
-std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, sparse_elimination alg, bool co,
+std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, sparse_elimination alg, bool is_cohomology,
                                                  const R& unit) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
-  if (co && (opt.generators || *opt.keep_basis)) return std::nullopt;
+  if (is_cohomology && (opt.generators || *opt.keep_basis)) return std::nullopt;
   if (opt.witnesses) return std::nullopt;  // bounding chains are lifted through the elimination log only
   alg.reduction = pre_reduction::coreductions_and_collapses;
   try {
@@ -421,13 +421,13 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
       std::shared_ptr<const C> original;
       if (*opt.keep_basis) original = std::make_shared<const C>(c);  // coordinates() may outlive c
       return on_morse_complex<R>(
-          *m, opt, alg, co, unit, [&](const chain<R>& z) { return m->lift(c, z, unit); },
+          *m, opt, alg, is_cohomology, unit, [&](const chain<R>& z) { return m->lift(c, z, unit); },
           [m, original, unit](const chain<R>& x) { return m->project(*original, x, unit); });
     } else {
       auto m = std::make_shared<const morse_complex>(morse_reduce(c, {.control = &opt.control}));
       const run_control* control = &opt.control;
       return on_morse_complex<R>(
-          *m, opt, alg, co, unit, [&](const chain<R>& z) { return m->lift(z, unit, control); },
+          *m, opt, alg, is_cohomology, unit, [&](const chain<R>& z) { return m->lift(z, unit, control); },
           [m, unit](const chain<R>& x) { return m->project(x, unit); });
     }
   } catch (const coefficient_overflow&) {
