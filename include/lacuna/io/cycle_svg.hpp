@@ -166,9 +166,13 @@ namespace svg_detail {
 /// width (empty: solid), written scaled by `unit`.
 inline std::pair<const char*, std::string> cycle_style(std::size_t k, double unit) {
   static constexpr const char* colours[] = {"#D55E00", "#0072B2", "#009E73", "#CC79A7", "#E69F00", "#56B4E9"};
-  static const std::vector<std::vector<double>> dashes = {{}, {4, 2}, {1, 1.6}, {5, 1.6, 1, 1.6}};
+  // plain arrays, not a static vector of vectors: its initializer was compiled in every
+  // translation unit (DEVELOPERS.md, *Compile cost of the headers*)
+  static constexpr double dashes[4][4] = {{}, {4, 2}, {1, 1.6}, {5, 1.6, 1, 1.6}};
+  static constexpr std::size_t dash_lengths[4] = {0, 2, 2, 4};
+  const std::size_t pattern = (k / 6) % 4;
   std::string d;
-  for (double x : dashes[(k / 6) % 4]) d += (d.empty() ? "" : " ") + num(x * unit);
+  for (std::size_t j = 0; j < dash_lengths[pattern]; ++j) d += (d.empty() ? "" : " ") + num(dashes[pattern][j] * unit);
   return {colours[k % 6], d};
 }
 
