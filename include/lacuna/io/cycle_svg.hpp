@@ -84,7 +84,8 @@ using grid_vertex = std::array<std::size_t, 2>;
 /// *Compile cost of the headers*).
 template <std::size_t D>
   requires(D == 2)
-std::vector<std::vector<grid_vertex>> closed_walks(const cubical_complex<D>& image, const std::vector<cycle_edge>& cycle,
+std::vector<std::vector<grid_vertex>> closed_walks(const cubical_complex<D>& image,
+                                                   const std::vector<cycle_edge>& cycle,
                                                    cycle_arithmetic arithmetic) {
   // the chain with equal edges merged: edge -> coefficient (mod 2: its parity)
   std::map<std::size_t, std::int64_t> merged;

@@ -73,7 +73,8 @@ inline bool writable_label(std::string_view s) {
 /// The body of read_facets; `Stream` is std::istream (the public overloads pass every stream as
 /// one), a template so that only the translation units that read the format compile it.
 template <class Stream>
-simplicial_complex<std::string> read_facets_from(Stream& in, const std::string& file_name, const facets_read_options& options) {
+simplicial_complex<std::string> read_facets_from(Stream& in, const std::string& file_name,
+                                                 const facets_read_options& options) {
   using builder = simplicial_complex<std::string>::builder;
   builder b;
   b.max_cells(options.max_cells);
@@ -161,7 +162,8 @@ simplicial_complex<std::string> read_facets_from(Stream& in, const std::string& 
 /// The stream is read in blocks of up to 1 MiB and each line is split in place: labels are looked
 /// up as views, and a string is made only for a vertex seen for the first time.
 template <input_stream Stream>
-simplicial_complex<std::string> read_facets(Stream& in, const std::string& file_name, const facets_read_options& options = {}) {
+simplicial_complex<std::string> read_facets(Stream& in, const std::string& file_name,
+                                            const facets_read_options& options = {}) {
   return facets_detail::read_facets_from<std::istream>(in, file_name, options);
 }
 
