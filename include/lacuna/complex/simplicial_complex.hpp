@@ -95,20 +95,20 @@ template <class L>
 using label_index_t = typename label_index<L>::type;
 
 // Sorts the records of `width` ids in `flat` lexicographically and removes repeats.
-template <std::size_t W>
-void sort_unique_fixed(std::vector<std::uint32_t>& flat) {
-  using record = std::array<std::uint32_t, W>;
-  static_assert(sizeof(record) == W * sizeof(std::uint32_t));
+template <std::size_t W, std::unsigned_integral Id>
+void sort_unique_fixed(std::vector<Id>& flat) {
+  using record = std::array<Id, W>;
+  static_assert(sizeof(record) == W * sizeof(Id));
   std::vector<record> recs(flat.size() / W);
-  if (!recs.empty()) std::memcpy(recs.data(), flat.data(), flat.size() * sizeof(std::uint32_t));
-  std::vector<std::uint32_t>().swap(flat);
+  if (!recs.empty()) std::memcpy(recs.data(), flat.data(), flat.size() * sizeof(Id));
+  std::vector<Id>().swap(flat);
   if (recs.size() < (std::size_t{1} << 15)) {
     std::sort(recs.begin(), recs.end());
   } else {
     // Least-significant-digit radix sort (counting sort per column, last column first): a
     // few linear passes instead of ~log2(n) comparisons of whole records per record — the
     // closure of millions of facets spent most of its time in std::sort.
-    std::uint32_t max_id = 0;
+    Id max_id = 0;
     for (const auto& r : recs)
       for (auto v : r) max_id = std::max(max_id, v);
     const bool one_pass = max_id < (std::uint32_t{1} << 22);
@@ -133,10 +133,14 @@ void sort_unique_fixed(std::vector<std::uint32_t>& flat) {
   }
   recs.erase(std::unique(recs.begin(), recs.end()), recs.end());
   flat.resize(recs.size() * W);
-  if (!recs.empty()) std::memcpy(flat.data(), recs.data(), flat.size() * sizeof(std::uint32_t));
+  if (!recs.empty()) std::memcpy(flat.data(), recs.data(), flat.size() * sizeof(Id));
 }
 
-inline void sort_unique_records(std::vector<std::uint32_t>& flat, std::size_t width) {
+// A template on the id type (std::uint32_t, vertex_id) so that the eight sorts are instantiated
+// only where a complex is built, not in every translation unit that includes this header.
+template <std::unsigned_integral Id>
+  requires(sizeof(Id) <= 4)  // the radix passes below cover 32-bit ids
+void sort_unique_records(std::vector<Id>& flat, std::size_t width) {
   switch (width) {
     case 1: sort_unique_fixed<1>(flat); return;
     case 2: sort_unique_fixed<2>(flat); return;
@@ -158,7 +162,7 @@ inline void sort_unique_records(std::vector<std::uint32_t>& flat, std::size_t wi
                                         rec(b) + static_cast<std::ptrdiff_t>(width));
   };
   std::sort(perm.begin(), perm.end(), less);
-  std::vector<std::uint32_t> out;
+  std::vector<Id> out;
   out.reserve(flat.size());
   for (std::size_t t = 0; t < n; ++t) {
     if (t > 0 && !less(perm[t - 1], perm[t])) continue;
@@ -535,5 +539,19 @@ class simplicial_complex<Label>::builder {
   std::size_t facet_number_ = 0;
   std::size_t max_cells_ = std::numeric_limits<std::size_t>::max();
 };
+
+namespace detail {
+
+// simplicial_complex<std::string>, named through the input types of a construction: the
+// constructions that label their vertices by text (join, barycentric subdivision, ...) build
+// their result through this type, so that their bodies depend on the inputs and the builder of
+// simplicial_complex<std::string> is instantiated only where a construction is called, not in
+// every translation unit that includes them (DEVELOPERS.md, *Compile cost of the headers*).
+template <class... Inputs>
+struct text_labelled_complex {
+  using type = simplicial_complex<std::string>;
+};
+
+}  // namespace detail
 
 }  // namespace lacuna

@@ -21,6 +21,7 @@
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/io/line_reader.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 #include <lacuna/ring/integer.hpp>
 
 #include <cstddef>
@@ -119,11 +120,14 @@ inline bool parse_magnitude(std::string_view digits, std::uint64_t limit, std::u
 
 /// The value of a decimal string of any length (digits only, at least one), by chunks of 18
 /// digits: exact, and free of the prefix rules (0x, leading 0) of string constructors.
-inline integer parse_integer(std::string_view digits) {
+/// `Integer` is lacuna::integer; a template so that its big-integer arithmetic is instantiated
+/// only where cell lists are read.
+template <class Integer>
+Integer parse_integer(std::string_view digits) {
   std::uint64_t m = 0;
   if (digits.size() <= 18 && parse_magnitude(digits, std::numeric_limits<std::uint64_t>::max(), m))
-    return integer(m);
-  integer::big_type v = 0;
+    return Integer(m);
+  typename Integer::big_type v = 0;
   const std::size_t head = digits.size() % 18 == 0 ? 18 : digits.size() % 18;
   std::size_t pos = 0;
   for (std::size_t len = head; pos < digits.size(); pos += len, len = 18) {
@@ -134,14 +138,13 @@ inline integer parse_integer(std::string_view digits) {
     }
     v = v * scale + chunk;
   }
-  return integer(std::move(v));
+  return Integer(std::move(v));
 }
 
-}  // namespace cells_detail
-
-/// Reads a cell list from `in`; `file_name` is used in error messages only.
-/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
-inline cell_list read_cells(std::istream& in, const std::string& file_name, const cells_read_options& options = {}) {
+/// The body of read_cells; `Stream` is std::istream (the public overloads pass every stream as
+/// one), a template so that only the translation units that read the format compile it.
+template <class Stream>
+cell_list read_cells_from(Stream& in, const std::string& file_name, const cells_read_options& options) {
   using namespace cells_detail;
   cell_list out;
   std::unordered_map<std::string, declared> names;
@@ -223,7 +226,7 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
             fail("a coefficient of " + std::to_string(digits.size()) + " digits in the boundary of '" + name +
                  "' is above the limit of " + std::to_string(options.max_coefficient_digits) +
                  " digits (the limit of the reader)");
-          integer m = parse_integer(digits);
+          integer m = parse_integer<integer>(digits);
           if (m.sign() == 0) fail("a coefficient must be positive, found 0 in the boundary of '" + name + "'");
           coefficient = negative ? -m : std::move(m);
           cur.skip();
@@ -271,8 +274,19 @@ inline cell_list read_cells(std::istream& in, const std::string& file_name, cons
   return out;
 }
 
+}  // namespace cells_detail
+
+/// Reads a cell list from `in`; `file_name` is used in error messages only.
+/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+template <input_stream Stream>
+cell_list read_cells(Stream& in, const std::string& file_name, const cells_read_options& options = {}) {
+  return cells_detail::read_cells_from<std::istream>(in, file_name, options);
+}
+
 /// Reads the cell list in the file at `path`.
-inline cell_list read_cells(const std::filesystem::path& path, const cells_read_options& options = {}) {
+template <path_argument Path>
+cell_list read_cells(const Path& file, const cells_read_options& options = {}) {
+  const std::filesystem::path& path = file;
   std::ifstream in(path, std::ios::binary);
   if (!in) throw parse_error(path.string(), 0, "cannot open the file");
   return read_cells(in, path.string(), options);

@@ -79,10 +79,14 @@ using grid_vertex = std::array<std::size_t, 2>;
 /// vertices, the first repeated at the end. Throws std::invalid_argument for an index that is
 /// not an edge of `image` and for a chain whose boundary is not zero (in the arithmetic
 /// given), std::length_error when the coefficients add up to more than 2^26 edge traversals.
-/// O(number of traversals * log).
-inline std::vector<std::vector<grid_vertex>> closed_walks(const cubical_complex<2>& image,
-                                                         const std::vector<cycle_edge>& cycle,
-                                                         cycle_arithmetic arithmetic) {
+/// O(number of traversals * log). `D` is deduced from the image and must be 2; the function is
+/// a template so that only the translation units that call it compile it (DEVELOPERS.md,
+/// *Compile cost of the headers*).
+template <std::size_t D>
+  requires(D == 2)
+std::vector<std::vector<grid_vertex>> closed_walks(const cubical_complex<D>& image,
+                                                   const std::vector<cycle_edge>& cycle,
+                                                   cycle_arithmetic arithmetic) {
   // the chain with equal edges merged: edge -> coefficient (mod 2: its parity)
   std::map<std::size_t, std::int64_t> merged;
   for (const auto& t : cycle) {
@@ -163,9 +167,13 @@ namespace svg_detail {
 /// width (empty: solid), written scaled by `unit`.
 inline std::pair<const char*, std::string> cycle_style(std::size_t k, double unit) {
   static constexpr const char* colours[] = {"#D55E00", "#0072B2", "#009E73", "#CC79A7", "#E69F00", "#56B4E9"};
-  static const std::vector<std::vector<double>> dashes = {{}, {4, 2}, {1, 1.6}, {5, 1.6, 1, 1.6}};
+  // plain arrays, not a static vector of vectors: its initializer was compiled in every
+  // translation unit (DEVELOPERS.md, *Compile cost of the headers*)
+  static constexpr double dashes[4][4] = {{}, {4, 2}, {1, 1.6}, {5, 1.6, 1, 1.6}};
+  static constexpr std::size_t dash_lengths[4] = {0, 2, 2, 4};
+  const std::size_t pattern = (k / 6) % 4;
   std::string d;
-  for (double x : dashes[(k / 6) % 4]) d += (d.empty() ? "" : " ") + num(x * unit);
+  for (std::size_t j = 0; j < dash_lengths[pattern]; ++j) d += (d.empty() ? "" : " ") + num(dashes[pattern][j] * unit);
   return {colours[k % 6], d};
 }
 
@@ -173,9 +181,12 @@ inline std::pair<const char*, std::string> cycle_style(std::size_t k, double uni
 
 /// The picture of `cycles` (1-chains with zero boundary) on `image` (see the head of this
 /// file). Throws as closed_walks does, for any of the cycles. The document is about 40 bytes
-/// per run of foreground pixels in a row plus 8 per corner of a drawn cycle.
-inline std::string cycle_picture_svg(const cubical_complex<2>& image, const std::vector<std::vector<cycle_edge>>& cycles,
-                                     const cycle_picture_options& options = {}) {
+/// per run of foreground pixels in a row plus 8 per corner of a drawn cycle. `D` is deduced
+/// from the image and must be 2 (a template for the reason closed_walks is one).
+template <std::size_t D>
+  requires(D == 2)
+std::string cycle_picture_svg(const cubical_complex<D>& image, const std::vector<std::vector<cycle_edge>>& cycles,
+                              const cycle_picture_options& options = {}) {
   using svg_detail::num;
   std::vector<std::vector<std::vector<grid_vertex>>> drawn;
   for (const auto& z : cycles) drawn.push_back(closed_walks(image, z, options.arithmetic));

@@ -25,6 +25,7 @@
 #pragma once
 
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 #include <lacuna/io/text_lines.hpp>
 
 #include <cstddef>
@@ -66,10 +67,12 @@ struct distances_read_options {
   std::size_t max_line_bytes = std::size_t{1} << 22;
 };
 
-/// Reads a distance matrix from `in`; `file_name` names it in error messages only.
-/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
-inline distance_matrix read_distances(std::istream& in, const std::string& file_name,
-                                      const distances_read_options& options = {}) {
+namespace distances_detail {
+
+/// The body of read_distances; `Stream` is std::istream (the public overloads pass every stream as
+/// one), a template so that only the translation units that read the format compile it.
+template <class Stream>
+distance_matrix read_distances_from(Stream& in, const std::string& file_name, const distances_read_options& options) {
   using text_detail::shortest;
   text_detail::line_reader reader(in, file_name, options.max_line_bytes);
   distance_matrix out;
@@ -151,9 +154,20 @@ inline distance_matrix read_distances(std::istream& in, const std::string& file_
   return out;
 }
 
+}  // namespace distances_detail
+
+/// Reads a distance matrix from `in`; `file_name` names it in error messages only.
+/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+template <input_stream Stream>
+distance_matrix read_distances(Stream& in, const std::string& file_name, const distances_read_options& options = {}) {
+  return distances_detail::read_distances_from<std::istream>(in, file_name, options);
+}
+
 /// Reads the distance matrix in the file at `path`. Throws lacuna::parse_error ("FILE: cannot
 /// open the file", or FILE:LINE: message).
-inline distance_matrix read_distances(const std::filesystem::path& path, const distances_read_options& options = {}) {
+template <path_argument Path>
+distance_matrix read_distances(const Path& file, const distances_read_options& options = {}) {
+  const std::filesystem::path& path = file;
   std::ifstream in(path, std::ios::binary);
   if (!in) throw parse_error(path.string(), 0, "cannot open the file");
   return read_distances(in, path.string(), options);

@@ -24,6 +24,7 @@
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/io/line_reader.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 #include <lacuna/io/read_limits.hpp>
 
 #include <algorithm>
@@ -69,14 +70,11 @@ inline bool writable_label(std::string_view s) {
   return true;
 }
 
-}  // namespace facets_detail
-
-/// Reads a facet list from `in`; `file_name` is used in error messages only.
-/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
-/// The stream is read in blocks of up to 1 MiB and each line is split in place: labels are looked
-/// up as views, and a string is made only for a vertex seen for the first time.
-inline simplicial_complex<std::string> read_facets(std::istream& in, const std::string& file_name,
-                                                   const facets_read_options& options = {}) {
+/// The body of read_facets; `Stream` is std::istream (the public overloads pass every stream as
+/// one), a template so that only the translation units that read the format compile it.
+template <class Stream>
+simplicial_complex<std::string> read_facets_from(Stream& in, const std::string& file_name,
+                                                 const facets_read_options& options) {
   using builder = simplicial_complex<std::string>::builder;
   builder b;
   b.max_cells(options.max_cells);
@@ -157,10 +155,23 @@ inline simplicial_complex<std::string> read_facets(std::istream& in, const std::
   }
 }
 
+}  // namespace facets_detail
+
+/// Reads a facet list from `in`; `file_name` is used in error messages only.
+/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+/// The stream is read in blocks of up to 1 MiB and each line is split in place: labels are looked
+/// up as views, and a string is made only for a vertex seen for the first time.
+template <input_stream Stream>
+simplicial_complex<std::string> read_facets(Stream& in, const std::string& file_name,
+                                            const facets_read_options& options = {}) {
+  return facets_detail::read_facets_from<std::istream>(in, file_name, options);
+}
+
 /// Reads the facet list in the file at `path`. Throws lacuna::parse_error ("FILE: cannot
 /// open the file", or FILE:LINE: message).
-inline simplicial_complex<std::string> read_facets(const std::filesystem::path& path,
-                                                   const facets_read_options& options = {}) {
+template <path_argument Path>
+simplicial_complex<std::string> read_facets(const Path& file, const facets_read_options& options = {}) {
+  const std::filesystem::path& path = file;
   std::ifstream in(path, std::ios::binary);
   if (!in) throw parse_error(path.string(), 0, "cannot open the file");
   return read_facets(in, path.string(), options);

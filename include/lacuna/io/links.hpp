@@ -28,6 +28,7 @@
 #pragma once
 
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 #include <lacuna/io/text_lines.hpp>
 
 #include <algorithm>
@@ -86,11 +87,10 @@ inline bool parse_count(std::string_view s, std::uint64_t& out) {
   return true;
 }
 
-}  // namespace links_detail
-
-/// Reads a sparse distance list from `in`; `file_name` names it in error messages only.
-/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
-inline link_list read_links(std::istream& in, const std::string& file_name, const links_read_options& options = {}) {
+/// The body of read_links; `Stream` is std::istream (the public overloads pass every stream as
+/// one), a template so that only the translation units that read the format compile it.
+template <class Stream>
+link_list read_links_from(Stream& in, const std::string& file_name, const links_read_options& options) {
   using text_detail::quote;
   text_detail::line_reader reader(in, file_name, options.max_line_bytes);
   link_list out;
@@ -164,9 +164,20 @@ inline link_list read_links(std::istream& in, const std::string& file_name, cons
   return out;
 }
 
+}  // namespace links_detail
+
+/// Reads a sparse distance list from `in`; `file_name` names it in error messages only.
+/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+template <input_stream Stream>
+link_list read_links(Stream& in, const std::string& file_name, const links_read_options& options = {}) {
+  return links_detail::read_links_from<std::istream>(in, file_name, options);
+}
+
 /// Reads the sparse distance list in the file at `path`. Throws lacuna::parse_error ("FILE:
 /// cannot open the file", or FILE:LINE: message).
-inline link_list read_links(const std::filesystem::path& path, const links_read_options& options = {}) {
+template <path_argument Path>
+link_list read_links(const Path& file, const links_read_options& options = {}) {
+  const std::filesystem::path& path = file;
   std::ifstream in(path, std::ios::binary);
   if (!in) throw parse_error(path.string(), 0, "cannot open the file");
   return read_links(in, path.string(), options);

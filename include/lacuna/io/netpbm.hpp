@@ -18,6 +18,7 @@
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/read_limits.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 
 #include <array>
 #include <cstddef>
@@ -36,9 +37,12 @@ namespace lacuna::io {
 
 namespace detail {
 
+// A template on its stream (always std::istream: the public functions pass every stream as
+// one) so that only the translation units that read the format compile it.
+template <class Stream>
 class netpbm_reader {
  public:
-  netpbm_reader(std::istream& in, const std::string& name, const image_options& opt)
+  netpbm_reader(Stream& in, const std::string& name, const image_options& opt)
       : src_(in), name_(name), opt_(opt) {}
 
   cubical_complex<2> read() {
@@ -274,12 +278,15 @@ class netpbm_reader {
 
 /// Reads a PBM or PGM image (P1, P2, P4, P5) from a stream as a 2D cubical complex; `name`
 /// names the input in error messages. Throws lacuna::parse_error.
-inline cubical_complex<2> read_netpbm(std::istream& in, const std::string& name, const image_options& options = {}) {
-  return detail::netpbm_reader(in, name, options).read();
+template <input_stream Stream>
+cubical_complex<2> read_netpbm(Stream& in, const std::string& name, const image_options& options = {}) {
+  return detail::netpbm_reader<std::istream>(in, name, options).read();
 }
 
 /// Reads a PBM or PGM file.
-inline cubical_complex<2> read_netpbm(const std::filesystem::path& path, const image_options& options = {}) {
+template <path_argument Path>
+cubical_complex<2> read_netpbm(const Path& file, const image_options& options = {}) {
+  const std::filesystem::path& path = file;
   auto in = detail::open_input(path);
   return read_netpbm(in, path.string(), options);
 }
@@ -287,17 +294,20 @@ inline cubical_complex<2> read_netpbm(const std::filesystem::path& path, const i
 /// The samples of a PBM or PGM image, row by row from the top, as integers (P1 and P4: 1 for
 /// black), with the extents {width, height}: the input of a sublevel or superlevel
 /// filtration. The same checks and limits as read_netpbm. Throws lacuna::parse_error.
-inline std::pair<std::array<std::size_t, 2>, std::vector<std::int32_t>> read_netpbm_samples(
-    std::istream& in, const std::string& name, const read_limits& limits = {}) {
+template <input_stream Stream>
+std::pair<std::array<std::size_t, 2>, std::vector<std::int32_t>> read_netpbm_samples(
+    Stream& in, const std::string& name, const read_limits& limits = {}) {
   std::vector<std::int32_t> samples;
   const image_options options{.limits = limits};
-  auto extents = detail::netpbm_reader(in, name, options).read_samples(samples);
+  auto extents = detail::netpbm_reader<std::istream>(in, name, options).read_samples(samples);
   return {extents, std::move(samples)};
 }
 
 /// Reads the samples of a PBM or PGM file (see above).
-inline std::pair<std::array<std::size_t, 2>, std::vector<std::int32_t>> read_netpbm_samples(
-    const std::filesystem::path& path, const read_limits& limits = {}) {
+template <path_argument Path>
+std::pair<std::array<std::size_t, 2>, std::vector<std::int32_t>> read_netpbm_samples(
+    const Path& file, const read_limits& limits = {}) {
+  const std::filesystem::path& path = file;
   auto in = detail::open_input(path);
   return read_netpbm_samples(in, path.string(), limits);
 }
@@ -314,8 +324,11 @@ inline void write_pgm(std::ostream& out, std::size_t width, std::size_t height,
 }
 
 /// Writes the foreground of a 2D cubical complex as a PGM: 255 for foreground, 0 otherwise.
-/// Reading it back gives the same complex.
-inline void write_pgm(std::ostream& out, const cubical_complex<2>& c) {
+/// Reading it back gives the same complex. `D` is deduced from the complex and must be 2 (a
+/// template so that only the translation units that call it instantiate the complex).
+template <std::size_t D>
+  requires(D == 2)
+void write_pgm(std::ostream& out, const cubical_complex<D>& c) {
   const auto n = c.extents();
   out << "P5\n" << n[0] << ' ' << n[1] << "\n255\n";
   for (std::size_t y = 0; y < n[1]; ++y)

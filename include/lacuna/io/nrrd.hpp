@@ -19,6 +19,7 @@
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/io/read_limits.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 
 #if defined(LACUNA_HAVE_ZLIB) && LACUNA_HAVE_ZLIB
 #if __has_include(<zlib.h>)
@@ -79,9 +80,12 @@ inline std::string_view trim(std::string_view s) {
   return s;
 }
 
+// A template on its stream (always std::istream: the public functions pass every stream as
+// one) so that only the translation units that read the format compile it.
+template <class Stream>
 class nrrd_reader {
  public:
-  nrrd_reader(std::istream& in, const std::string& name, const read_limits& limits)
+  nrrd_reader(Stream& in, const std::string& name, const read_limits& limits)
       : lines_(in, name, {.max_line_bytes = 65536, .read_ahead = false}), src_(in), name_(name), limits_(limits) {}
 
   nrrd_header read_header(int max_dimension) {
@@ -360,16 +364,17 @@ class nrrd_reader {
 }  // namespace detail
 
 /// Reads a NRRD header (the stream is left at the first data byte). Throws parse_error.
-inline nrrd_header read_nrrd_header(std::istream& in, const std::string& name, const read_limits& limits = {},
-                                    int max_dimension = 3) {
-  return detail::nrrd_reader(in, name, limits).read_header(max_dimension);
+template <input_stream Stream>
+nrrd_header read_nrrd_header(Stream& in, const std::string& name, const read_limits& limits = {},
+                             int max_dimension = 3) {
+  return detail::nrrd_reader<std::istream>(in, name, limits).read_header(max_dimension);
 }
 
 /// Reads a NRRD volume of dimension at most D as a D-dimensional cubical complex (axes beyond
 /// the file's dimension get size 1). `name` names the input in errors. Throws parse_error.
 template <std::size_t D = 3>
 cubical_complex<D> read_nrrd(std::istream& in, const std::string& name, const image_options& options = {}) {
-  return detail::nrrd_reader(in, name, options.limits).template read<D>(options);
+  return detail::nrrd_reader<std::istream>(in, name, options.limits).template read<D>(options);
 }
 
 /// Reads a NRRD file.
@@ -387,7 +392,7 @@ std::pair<std::array<std::size_t, D>, std::vector<std::int32_t>> read_nrrd_sampl
                                                                                   const std::string& name,
                                                                                   const read_limits& limits = {}) {
   std::vector<std::int32_t> samples;
-  auto extents = detail::nrrd_reader(in, name, limits).template read_samples<D>(samples);
+  auto extents = detail::nrrd_reader<std::istream>(in, name, limits).template read_samples<D>(samples);
   return {extents, std::move(samples)};
 }
 

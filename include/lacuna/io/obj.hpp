@@ -15,6 +15,7 @@
 #include <lacuna/complex/polygon_mesh.hpp>
 #include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/read_limits.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 
 #include <array>
 #include <cstddef>
@@ -30,9 +31,12 @@ namespace lacuna::io {
 
 namespace detail {
 
+// A template on its stream (always std::istream: the public functions pass every stream as
+// one) so that only the translation units that read the format compile it.
+template <class Stream>
 class obj_reader {
  public:
-  obj_reader(std::istream& in, const std::string& name, const read_limits& limits)
+  obj_reader(Stream& in, const std::string& name, const read_limits& limits)
       : lines_(in, name), name_(name), limits_(limits) {}
 
   polygon_mesh read() {
@@ -121,12 +125,15 @@ class obj_reader {
 
 /// Reads an OBJ mesh from a stream; `name` names the input in errors. Throws parse_error.
 /// Messages name faces as the mesh does (f0 is the first face of the file).
-inline polygon_mesh read_obj(std::istream& in, const std::string& name, const read_limits& limits = {}) {
-  return detail::obj_reader(in, name, limits).read();
+template <input_stream Stream>
+polygon_mesh read_obj(Stream& in, const std::string& name, const read_limits& limits = {}) {
+  return detail::obj_reader<std::istream>(in, name, limits).read();
 }
 
 /// Reads an OBJ file.
-inline polygon_mesh read_obj(const std::filesystem::path& path, const read_limits& limits = {}) {
+template <path_argument Path>
+polygon_mesh read_obj(const Path& file, const read_limits& limits = {}) {
+  const std::filesystem::path& path = file;
   auto in = detail::open_input(path);
   return read_obj(in, path.string(), limits);
 }

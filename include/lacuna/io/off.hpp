@@ -20,6 +20,7 @@
 #include <lacuna/complex/polygon_mesh.hpp>
 #include <lacuna/io/line_reader.hpp>
 #include <lacuna/io/read_limits.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 
 #include <array>
 #include <cstddef>
@@ -35,9 +36,12 @@ namespace lacuna::io {
 
 namespace detail {
 
+// A template on its stream (always std::istream: the public functions pass every stream as
+// one) so that only the translation units that read the format compile it.
+template <class Stream>
 class off_reader {
  public:
-  off_reader(std::istream& in, const std::string& name, const read_limits& limits)
+  off_reader(Stream& in, const std::string& name, const read_limits& limits)
       : size_(remaining_bytes(in)), lines_(in, name), name_(name), limits_(limits) {}
 
   polygon_mesh read() {
@@ -192,12 +196,15 @@ class off_reader {
 }  // namespace detail
 
 /// Reads an OFF mesh from a stream; `name` names the input in errors. Throws parse_error.
-inline polygon_mesh read_off(std::istream& in, const std::string& name, const read_limits& limits = {}) {
-  return detail::off_reader(in, name, limits).read();
+template <input_stream Stream>
+polygon_mesh read_off(Stream& in, const std::string& name, const read_limits& limits = {}) {
+  return detail::off_reader<std::istream>(in, name, limits).read();
 }
 
 /// Reads an OFF file.
-inline polygon_mesh read_off(const std::filesystem::path& path, const read_limits& limits = {}) {
+template <path_argument Path>
+polygon_mesh read_off(const Path& file, const read_limits& limits = {}) {
+  const std::filesystem::path& path = file;
   auto in = detail::open_input(path);
   return read_off(in, path.string(), limits);
 }

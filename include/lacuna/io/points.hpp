@@ -17,6 +17,7 @@
 #pragma once
 
 #include <lacuna/complex/errors.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 #include <lacuna/io/text_lines.hpp>
 
 #include <algorithm>
@@ -67,9 +68,12 @@ struct points_read_options {
   std::size_t max_line_bytes = std::size_t{1} << 22;
 };
 
-/// Reads a point cloud from `in`; `file_name` names it in error messages only.
-/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
-inline point_cloud read_points(std::istream& in, const std::string& file_name, const points_read_options& options = {}) {
+namespace points_detail {
+
+/// The body of read_points; `Stream` is std::istream (the public overloads pass every stream as
+/// one), a template so that only the translation units that read the format compile it.
+template <class Stream>
+point_cloud read_points_from(Stream& in, const std::string& file_name, const points_read_options& options) {
   text_detail::line_reader reader(in, file_name, options.max_line_bytes);
   point_cloud out;
   std::vector<std::string_view> fields;
@@ -112,10 +116,21 @@ inline point_cloud read_points(std::istream& in, const std::string& file_name, c
   return out;
 }
 
+}  // namespace points_detail
+
+/// Reads a point cloud from `in`; `file_name` names it in error messages only.
+/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+template <input_stream Stream>
+point_cloud read_points(Stream& in, const std::string& file_name, const points_read_options& options = {}) {
+  return points_detail::read_points_from<std::istream>(in, file_name, options);
+}
+
 /// Reads the point cloud in the file at `path`; a `.csv` file (the extension in any letter
 /// case) may begin with a header line. Throws lacuna::parse_error ("FILE: cannot open the
 /// file", or FILE:LINE: message).
-inline point_cloud read_points(const std::filesystem::path& path, points_read_options options = {}) {
+template <path_argument Path>
+point_cloud read_points(const Path& file, points_read_options options = {}) {
+  const std::filesystem::path& path = file;
   std::ifstream in(path, std::ios::binary);
   if (!in) throw parse_error(path.string(), 0, "cannot open the file");
   std::string ext = path.extension().string();

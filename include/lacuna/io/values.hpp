@@ -23,9 +23,11 @@
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
+#include <lacuna/io/reader_arguments.hpp>
 #include <lacuna/io/text_lines.hpp>
 
 #include <algorithm>
+#include <concepts>
 #include <cstddef>
 #include <filesystem>
 #include <fstream>
@@ -121,9 +123,12 @@ class value_list {
   std::vector<std::size_t> ends_;  // name n is text_[ends_[n - 1], ends_[n])
 };
 
-/// Reads a value file from `in`; `file_name` names it in error messages (and in value_list).
-/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
-inline value_list read_values(std::istream& in, const std::string& file_name, const values_read_options& options = {}) {
+namespace values_detail {
+
+/// The body of read_values; `Stream` is std::istream (the public overloads pass every stream as
+/// one), a template so that only the translation units that read the format compile it.
+template <class Stream>
+value_list read_values_from(Stream& in, const std::string& file_name, const values_read_options& options) {
   text_detail::line_reader reader(in, file_name, options.max_line_bytes);
   value_list out(file_name);
   std::vector<std::string_view> tokens;
@@ -159,9 +164,20 @@ inline value_list read_values(std::istream& in, const std::string& file_name, co
   return out;
 }
 
+}  // namespace values_detail
+
+/// Reads a value file from `in`; `file_name` names it in error messages (and in value_list).
+/// Throws lacuna::parse_error ("FILE:LINE: message") on bad input.
+template <input_stream Stream>
+value_list read_values(Stream& in, const std::string& file_name, const values_read_options& options = {}) {
+  return values_detail::read_values_from<std::istream>(in, file_name, options);
+}
+
 /// Reads the value file at `path`. Throws lacuna::parse_error ("FILE: cannot open the file",
 /// or FILE:LINE: message).
-inline value_list read_values(const std::filesystem::path& path, const values_read_options& options = {}) {
+template <path_argument Path>
+value_list read_values(const Path& file, const values_read_options& options = {}) {
+  const std::filesystem::path& path = file;
   std::ifstream in(path, std::ios::binary);
   if (!in) throw parse_error(path.string(), 0, "cannot open the file");
   return read_values(in, path.string(), options);
@@ -206,12 +222,16 @@ class listed_cells {
 /// Finds the simplex of each record (labels in any order) in `c`. Throws lacuna::parse_error at
 /// the record's line of the value file for a label repeated within a line, labels that are not
 /// a simplex of `c` (named `complex_file` in the message), and a simplex listed twice.
-inline std::vector<cell_value> resolve_values(const value_list& list, const simplicial_complex<std::string>& c,
-                                              std::string_view complex_file) {
+/// `Label` is std::string (a complex read from a facet list), deduced; a template so that only
+/// the translation units that call it compile it.
+template <class Label>
+  requires std::same_as<Label, std::string>
+std::vector<cell_value> resolve_values(const value_list& list, const simplicial_complex<Label>& c,
+                                       std::string_view complex_file) {
   std::vector<cell_value> out;
   out.reserve(list.size());
   values_detail::listed_cells listed(c);
-  std::vector<simplicial_complex<std::string>::vertex_id> ids;
+  std::vector<typename simplicial_complex<Label>::vertex_id> ids;
   std::string label;
   for (std::size_t r = 0; r < list.size(); ++r) {
     const auto fail = [&](const std::string& message) { throw parse_error(list.file(), list.line(r), message); };
@@ -239,7 +259,10 @@ inline std::vector<cell_value> resolve_values(const value_list& list, const simp
 /// Finds the cell of each record by its name in `c`. Throws lacuna::parse_error at the
 /// record's line of the value file for a line with more than one name, a name that is not a
 /// cell of `c` (named `complex_file` in the message), and a cell listed twice.
-inline std::vector<cell_value> resolve_values(const value_list& list, const cell_list& c, std::string_view complex_file) {
+/// `CellList` is lacuna::cell_list, deduced (a template for the reason the overload above is one).
+template <class CellList>
+  requires std::same_as<CellList, cell_list>
+std::vector<cell_value> resolve_values(const value_list& list, const CellList& c, std::string_view complex_file) {
   std::unordered_map<std::string_view, std::pair<int, std::size_t>> by_name;
   for (int k = 0; k <= c.top_dimension(); ++k)
     for (std::size_t i = 0; i < c.cell_count(k); ++i) by_name.emplace(c.cell_name(k, i), std::pair{k, i});

@@ -39,8 +39,8 @@ namespace lacuna {
 /// The barycentric subdivision of X as a simplicial_complex<std::string>; χ(sd X) = χ(X).
 template <class L>
 simplicial_complex<std::string> barycentric_subdivision(const simplicial_complex<L>& x) {
-  using out_t = simplicial_complex<std::string>;
-  out_t::builder b;
+  using out_t = typename detail::text_labelled_complex<L>::type;
+  typename out_t::builder b;
   std::vector<std::size_t> first;  // first[k]: sd-vertex id of the first k-simplex
   std::size_t g = 0;
   for (int k = 0; k <= x.top_dimension(); ++k) {
@@ -55,7 +55,8 @@ simplicial_complex<std::string> barycentric_subdivision(const simplicial_complex
       b.vertex(s);
     }
   }
-  std::vector<std::uint32_t> perm, prefix, ids;
+  using id = typename simplicial_complex<L>::vertex_id;  // the same type in sd X
+  std::vector<id> perm, prefix, ids;
   for (const auto& [p, i] : x.facets()) {
     const auto vs = x.vertices(p, i);
     perm.assign(vs.begin(), vs.end());  // increasing, so next_permutation visits all orders
@@ -64,8 +65,8 @@ simplicial_complex<std::string> barycentric_subdivision(const simplicial_complex
       prefix.clear();
       for (std::size_t j = 0; j < perm.size(); ++j) {
         prefix.insert(std::upper_bound(prefix.begin(), prefix.end(), perm[j]), perm[j]);
-        const auto idx = x.find(std::span<const std::uint32_t>(prefix));
-        ids.push_back(static_cast<std::uint32_t>(first[j] + *idx));
+        const auto idx = x.find(std::span<const id>(prefix));
+        ids.push_back(static_cast<id>(first[j] + *idx));
       }
       b.add_facet_ids(ids);
     } while (std::next_permutation(perm.begin(), perm.end()));
@@ -137,11 +138,11 @@ void require_regular(const C& c) {
 template <cell_complex C>
 simplicial_complex<std::string> barycentric_subdivision(const C& c) {
   detail::require_regular(c);
-  using out_t = simplicial_complex<std::string>;
+  using out_t = typename detail::text_labelled_complex<C>::type;
   const int top = lacuna::top_dimension(c);
   std::vector<std::size_t> first;
   std::vector<std::string> labels;
-  std::unordered_set<std::string> seen;
+  std::unordered_set<typename out_t::label_type> seen;
   bool unique = true;
   for (int k = 0; k <= top; ++k) {
     first.push_back(labels.size());
@@ -164,7 +165,7 @@ simplicial_complex<std::string> barycentric_subdivision(const C& c) {
       labels.push_back(std::move(l));
     }
   }
-  out_t::builder b;
+  typename out_t::builder b;
   for (int k = 0; k <= top; ++k)
     for (std::size_t i = 0; i < lacuna::cell_count(c, k); ++i)
       b.vertex(unique ? labels[first[static_cast<std::size_t>(k)] + i]

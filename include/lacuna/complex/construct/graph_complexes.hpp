@@ -9,6 +9,8 @@
 
 #include <lacuna/complex/simplicial_complex.hpp>
 
+#include <concepts>
+#include <limits>
 #include <stdexcept>
 #include <vector>
 
@@ -17,12 +19,16 @@ namespace lacuna {
 /// The facets of the matching complex of K_n: the matchings that leave at most one vertex
 /// uncovered (exactly the maximal ones: two uncovered vertices would span a free edge). The
 /// vertex {a, b} (a < b) of the complex is numbered a·n + b. Count: (n−1)!! for n even,
-/// n·(n−2)!! for n odd.
-inline std::vector<std::vector<int>> matching_complex_facets(int n) {
+/// n·(n−2)!! for n odd. `Label`: the integer type of the vertex numbers, int by default; a
+/// template so that only the translation units that call it compile it (DEVELOPERS.md,
+/// *Compile cost of the headers*).
+template <std::integral Label = int>
+  requires(std::numeric_limits<Label>::max() >= 4095)
+std::vector<std::vector<Label>> matching_complex_facets(int n) {
   if (n < 2 || n > 40) throw std::invalid_argument("lacuna: matching_complex needs 2 <= n <= 40");
-  std::vector<std::vector<int>> facets;
+  std::vector<std::vector<Label>> facets;
   std::vector<bool> used(static_cast<std::size_t>(n), false);
-  std::vector<int> current;
+  std::vector<Label> current;
   auto go = [&](auto&& self, bool skipped) -> void {
     int v = 0;
     while (v < n && used[static_cast<std::size_t>(v)]) ++v;
@@ -34,7 +40,7 @@ inline std::vector<std::vector<int>> matching_complex_facets(int n) {
     for (int w = v + 1; w < n; ++w) {
       if (used[static_cast<std::size_t>(w)]) continue;
       used[static_cast<std::size_t>(w)] = true;
-      current.push_back(v * n + w);
+      current.push_back(static_cast<Label>(v * n + w));  // below 40·40
       self(self, skipped);
       current.pop_back();
       used[static_cast<std::size_t>(w)] = false;
@@ -47,19 +53,26 @@ inline std::vector<std::vector<int>> matching_complex_facets(int n) {
 }
 
 /// The matching complex M(K_n), 2 <= n <= 40 (the closure of matching_complex_facets(n)).
-inline simplicial_complex<int> matching_complex(int n) {
-  return simplicial_complex<int>::from_facets(matching_complex_facets(n));
+/// `Label`: the integer type of the vertex labels, int by default (wide enough for the labels
+/// below 40·40). A template so that only the translation units that build it instantiate
+/// simplicial_complex<Label> (DEVELOPERS.md, *Compile cost of the headers*).
+template <std::integral Label = int>
+  requires(std::numeric_limits<Label>::max() >= 4095)
+simplicial_complex<Label> matching_complex(int n) {
+  return simplicial_complex<Label>::from_facets(matching_complex_facets<Label>(n));
 }
 
 /// The facets of the m × n chessboard complex: placements of min(m, n) non-attacking rooks.
-/// The square (row r, column c) is the vertex r·n + c.
-inline std::vector<std::vector<int>> chessboard_complex_facets(int m, int n) {
+/// The square (row r, column c) is the vertex r·n + c. `Label`: as for matching_complex_facets.
+template <std::integral Label = int>
+  requires(std::numeric_limits<Label>::max() >= 4095)
+std::vector<std::vector<Label>> chessboard_complex_facets(int m, int n) {
   if (m < 1 || n < 1 || m * n > 4096) throw std::invalid_argument("lacuna: chessboard_complex needs 1 <= m, n and m*n <= 4096");
   const bool by_rows = m <= n;  // place one rook in every line of the shorter side
   const int lines = by_rows ? m : n, other = by_rows ? n : m;
-  std::vector<std::vector<int>> facets;
+  std::vector<std::vector<Label>> facets;
   std::vector<bool> used(static_cast<std::size_t>(other), false);
-  std::vector<int> current;
+  std::vector<Label> current;
   auto go = [&](auto&& self, int line) -> void {
     if (line == lines) {
       facets.push_back(current);
@@ -68,7 +81,7 @@ inline std::vector<std::vector<int>> chessboard_complex_facets(int m, int n) {
     for (int c = 0; c < other; ++c) {
       if (used[static_cast<std::size_t>(c)]) continue;
       used[static_cast<std::size_t>(c)] = true;
-      current.push_back(by_rows ? line * n + c : c * n + line);
+      current.push_back(static_cast<Label>(by_rows ? line * n + c : c * n + line));  // below 4096
       self(self, line + 1);
       current.pop_back();
       used[static_cast<std::size_t>(c)] = false;
@@ -79,8 +92,12 @@ inline std::vector<std::vector<int>> chessboard_complex_facets(int m, int n) {
 }
 
 /// The chessboard complex of an m × n board (the closure of chessboard_complex_facets).
-inline simplicial_complex<int> chessboard_complex(int m, int n) {
-  return simplicial_complex<int>::from_facets(chessboard_complex_facets(m, n));
+/// `Label`: the integer type of the vertex labels, int by default (wide enough for the labels
+/// below 4096); a template for the reason matching_complex is one.
+template <std::integral Label = int>
+  requires(std::numeric_limits<Label>::max() >= 4095)
+simplicial_complex<Label> chessboard_complex(int m, int n) {
+  return simplicial_complex<Label>::from_facets(chessboard_complex_facets<Label>(m, n));
 }
 
 }  // namespace lacuna

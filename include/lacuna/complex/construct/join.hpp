@@ -17,9 +17,9 @@ namespace lacuna {
 /// χ(X ∗ Y) = χ(X) + χ(Y) - χ(X) χ(Y). Cost: one facet per pair of facets.
 template <class L1, class L2>
 simplicial_complex<std::string> join(const simplicial_complex<L1>& x, const simplicial_complex<L2>& y) {
-  using out_t = simplicial_complex<std::string>;
-  out_t::builder b;
-  std::unordered_set<std::string> taken;
+  using out_t = typename detail::text_labelled_complex<L1, L2>::type;
+  typename out_t::builder b;
+  std::unordered_set<typename out_t::label_type> taken;
   for (const auto& l : x.labels()) {
     auto s = detail::label_to_string(l);
     taken.insert(s);

@@ -21,8 +21,8 @@ namespace lacuna {
 template <class L1, class L2>
 simplicial_complex<std::string> simplicial_product(const simplicial_complex<L1>& x,
                                                    const simplicial_complex<L2>& y) {
-  using out_t = simplicial_complex<std::string>;
-  out_t::builder b;
+  using out_t = typename detail::text_labelled_complex<L1, L2>::type;
+  typename out_t::builder b;
   const std::size_t ny = y.vertex_count();
   for (std::size_t u = 0; u < x.vertex_count(); ++u)
     for (std::size_t v = 0; v < ny; ++v)
