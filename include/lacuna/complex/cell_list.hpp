@@ -16,6 +16,7 @@
 // real_projective_space(n), lens_space(p, q), sphere(n).
 #pragma once
 
+#include <lacuna/ring/checked.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/detail/concat.hpp>
 #include <lacuna/complex/errors.hpp>
@@ -43,13 +44,13 @@ namespace detail {
 /// a + b, or an invalid_complex naming `what` if it does not fit int64.
 inline std::int64_t checked_add(std::int64_t a, std::int64_t b, const std::string& what) {
   std::int64_t r;
-  if (__builtin_add_overflow(a, b, &r)) throw invalid_complex("integer overflow: " + what);
+  if (lacuna::checked_add(a, b, r)) throw invalid_complex("integer overflow: " + what);
   return r;
 }
 /// a * b, or an invalid_complex naming `what` if it does not fit int64.
 inline std::int64_t checked_mul(std::int64_t a, std::int64_t b, const std::string& what) {
   std::int64_t r;
-  if (__builtin_mul_overflow(a, b, &r)) throw invalid_complex("integer overflow: " + what);
+  if (lacuna::checked_mul(a, b, r)) throw invalid_complex("integer overflow: " + what);
   return r;
 }
 
@@ -77,7 +78,7 @@ inline bool normalize_chain_if_fits(std::vector<incidence>& terms) {
     std::int64_t sum = 0;
     const std::size_t f = terms[t].face, t0 = t;
     for (; t < terms.size() && terms[t].face == f; ++t)
-      if (__builtin_add_overflow(sum, terms[t].coefficient, &sum)) return false;
+      if (lacuna::checked_add(sum, terms[t].coefficient, sum)) return false;
     merge = merge || sum == 0 || t - t0 > 1;
   }
   if (merge) normalize_chain(terms, std::string());

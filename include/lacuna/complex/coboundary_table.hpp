@@ -10,6 +10,7 @@
 // Equal faces listed twice in one boundary are added up; zero coefficients are dropped.
 #pragma once
 
+#include <lacuna/ring/checked.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/complex/errors.hpp>
 
@@ -57,7 +58,7 @@ class coboundary_table {
           std::size_t& pos = fill[t.face];
           if (pos > start && d.terms[pos - 1].face == j) {
             std::int64_t s;
-            if (__builtin_add_overflow(d.terms[pos - 1].coefficient, t.coefficient, &s))
+            if (checked_add(d.terms[pos - 1].coefficient, t.coefficient, s))
               throw invalid_complex("coboundary_table: integer overflow in the boundary of " + std::to_string(k + 1) +
                                         "-cell " + std::to_string(j),
                                     k + 1, j);
