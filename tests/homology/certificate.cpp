@@ -225,6 +225,32 @@ TEST_CASE("a torsion summand left out with its generator is refused by the torsi
   refused_for_torsion(torsion_mix(), summand_dropped(torsion_mix(), 1), 1, "96", "48");
 }
 
+TEST_CASE("a torsion witness needs several minors when no one minor has the gcd") {
+  // One loop e and two 2-cells along 2e and 3e: the cellular chain complex gives ∂_2 = (2 3),
+  // so H_1 = Z/gcd(2, 3) = 0 and H_2 = Z (its kernel). No pivot is a unit; the 1×1 minors are
+  // 2 and 3, and only both together prove that H_1 has no torsion.
+  cell_list c;
+  c.add_cell(0, "v");
+  c.add_cell(1, "e", {{0, 1}, {0, -1}});
+  c.add_cell(2, "A", {{0, 2}});
+  c.add_cell(2, "B", {{0, 3}});
+  CHECK(certified<integer>(c) == std::vector<group>{{1, {}}, {0, {}}, {1, {}}});
+  auto cert = lacuna::certified_homology<integer>(c).certificate;
+  REQUIRE(cert.torsion.size() == 3);
+  CHECK(cert.torsion[1].pivot_rows.empty());
+  CHECK(cert.torsion[1].minors.size() == 2);
+  // Either minor alone leaves the gcd at 2 or 3: refused.
+  for (std::size_t i = 0; i < cert.torsion[1].minors.size(); ++i) {
+    auto one = cert;
+    one.torsion[1].minors = {cert.torsion[1].minors[i]};
+    const auto rep = lacuna::check_certificate(c, one);
+    INFO(rep.first_failure);
+    CHECK(!rep.ok);
+    CHECK(rep.dimension == 1);
+    CHECK(rep.first_failure.find(", not the product 1") != std::string::npos);
+  }
+}
+
 TEST_CASE("no choice of minors proves a torsion summand left out absent") {
   // RP^2 × RP^2 with H_1 claimed Z/2 (Künneth: Z/2 + Z/2): every block of the core of ∂_2, with
   // the unit pivots of the witness, gives a certificate that is refused — the gcd of all the
