@@ -240,9 +240,10 @@ torsion_witness torsion_witness_of(const C& c, int k, const homology_basis<R>& b
     if (!(P == integer(1))) throw std::logic_error(H + ": the core has rank 0 but torsion is claimed");
     return w;
   }
-  std::mt19937_64 random(0x6c6163756e61ULL + static_cast<std::uint64_t>(k));
-  std::vector<std::uint64_t> primes;  // small ones (they clear small primes from the gcd), then large ones
-  for (std::uint64_t q : {2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41, 43, 47}) primes.push_back(q);
+  using seed_type = std::mt19937_64::result_type;
+  std::mt19937_64 random(seed_type{0x6c6163756e61} + static_cast<seed_type>(k));
+  // small primes (they clear small primes from the gcd), then large ones
+  std::vector<std::uint64_t> primes{2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41, 43, 47};
   for (std::uint64_t q = (std::uint64_t{1} << 31) - 1; primes.size() < 24; --q)
     if (is_prime(q)) primes.push_back(q);
   std::vector<std::size_t> row_order(m), column_order(n);
