@@ -24,11 +24,16 @@
 //     boundary matrices of the whole complex are reduced mod p instead (reduce_chain_complex,
 //     algorithm/field_reduction.hpp): pivots by increasing reduced column have non-singular
 //     leading minors (the reduced pivot columns are the original ones times a unitriangular
-//     matrix, and with distinct lows they are triangular). Over Z/p, p itself.
+//     matrix, and with distinct lows they are triangular). Over Z/p, p itself;
+//   * torsion witnesses (over Z), for each H_k: the log's unit pivots of ∂_{k+1} in its order,
+//     then blocks of the core matrix that those pivots leave, found by eliminations mod primes
+//     in pseudo-random orders until the gcd of their exact determinants is the product of the
+//     torsion factors (detail::certify::torsion_witness_of).
 // Cost: that of homology() with generators and a kept basis, plus the pull of one cochain per
 // generator through the log (as the lift of the generators), plus a product of the kept core
 // transforms, plus the elimination of each boundary map mod p in the log's order (about what
-// the engine's elimination cost; docs/performance.md, "Certified homology").
+// the engine's elimination cost; docs/performance.md, "Certified homology"), plus over Z one
+// more elimination over Z per boundary map along the unit pivots, and the blocks' determinants.
 #pragma once
 
 #include <lacuna/algorithm/elimination_maps.hpp>
@@ -319,9 +324,11 @@ torsion_witness torsion_witness_of(const C& c, int k, const homology_basis<R>& b
 
 /// The homology of c over R with generators, and a certificate of it: for every group, its
 /// generators, a cocycle per generator (identity pairing), a bounding chain per torsion
-/// generator, and rank witnesses of the boundary maps (homology/certificate.hpp). R models
-/// certifiable_ring; C models cell_complex. options: as for homology(); generators, a kept
-/// basis and witnesses are switched on; reduced homology is refused (std::invalid_argument).
+/// generator, rank witnesses of the boundary maps and, over the integers, torsion witnesses
+/// (homology/certificate.hpp). R models certifiable_ring; C models cell_complex. options: as
+/// for homology(); generators, a kept basis and witnesses are switched on; reduced homology is
+/// refused (std::invalid_argument). Throws std::runtime_error if no torsion witness is found
+/// within its bound of tries (never returns a certificate that does not check).
 /// The result is what homology() with those options returns (the elimination route, without
 /// a Morse pre-reduction). check_certificate(c, r.certificate) verifies the certificate.
 template <certifiable_ring R, cell_complex C>
