@@ -1,7 +1,8 @@
 // `lacuna homology --certificate OUT.json` and the standalone checker certificate_check
 // (examples/certificate_check.cpp): certificates of textbook spaces written by the tool check
 // valid, and edited certificates — a torsion factor changed (the Z/2 → Z/4 of the report), a
-// generator removed, a cocycle value changed — are refused, naming the group and the factor.
+// generator removed, a cocycle value changed, a torsion summand left out — are refused, naming
+// the group and the factor; a certificate without torsion witnesses is called incomplete.
 #include "run.hpp"
 
 #include <fstream>
@@ -101,6 +102,46 @@ TEST_CASE("edited certificates are refused, naming the group and factor") {
   CHECK(expect_error(check(file, junk)).find("junk.json") != std::string::npos);
   const auto order = d.write("order.json", std::regex_replace(good, std::regex("\"order\": 2"), "\"order\": 4"));
   CHECK(expect_error(check(file, order)).find("order 4") != std::string::npos);
+}
+
+TEST_CASE("a certificate that leaves out a torsion summand is refused by the standalone checker") {
+  temp_dir d;
+  const auto file = d.write("rp2.cells", rp2);
+  const auto cert = (d.path() / "rp2.json").string();
+  REQUIRE(run({"homology", "--quiet", "--certificate", cert, file}).status == 0);
+  const std::string good = slurp(cert);
+  REQUIRE(good.find("\"torsion_witnesses\"") != std::string::npos);
+  REQUIRE(check(file, cert).status == 0);
+  // H_1 = Z/2 (Hatcher 2002, §2.1) claimed as 0: the factor and its generator removed.
+  std::string t = good;
+  const std::string group = "{\"dimension\": 1, \"rank\": 0, \"torsion\": [2], \"generators\": [";
+  const auto a = t.find(group);
+  REQUIRE(a != std::string::npos);
+  const auto end = t.find("\n    ]}", a);
+  REQUIRE(end != std::string::npos);
+  t.replace(a, end + std::string("\n    ]}").size() - a, "{\"dimension\": 1, \"rank\": 0, \"torsion\": [], \"generators\": []}");
+  const auto bad = d.write("dropped.json", t);
+  const auto r = check(file, bad);
+  INFO(r.out << r.err);
+  CHECK(r.status == 1);
+  CHECK(r.out.rfind("invalid: H_1: the torsion witness", 0) == 0);
+  CHECK(r.out.find("minors is 2, not the product 1") != std::string::npos);
+  // The same certificate without its torsion witnesses (the layout before them): every other
+  // check passes, and the checker says the torsion is not proved complete (exit status 3).
+  const auto key = good.find(",\n  \"torsion_witnesses\"");
+  REQUIRE(key != std::string::npos);
+  const auto old = d.write("old.json", good.substr(0, key) + "\n}\n");
+  const auto o = check(file, old);
+  INFO(o.out << o.err);
+  CHECK(o.status == 3);
+  CHECK(o.out.rfind("incomplete: ", 0) == 0);
+  CHECK(o.out.find("no torsion witnesses") != std::string::npos);
+  // A torsion witness naming a cell the input does not have: unreadable (exit status 2).
+  const auto pos = good.find("\"minors\": [{\"rows\": [\"q\"]");
+  REQUIRE(pos != std::string::npos);
+  std::string u = good;
+  u.replace(pos, std::string("\"minors\": [{\"rows\": [\"q\"]").size(), "\"minors\": [{\"rows\": [\"x\"]");
+  CHECK(expect_error(check(file, d.write("unknown.json", u))).find("no 1-cell is named \"x\"") != std::string::npos);
 }
 
 TEST_CASE("--certificate is refused where no certificate is offered") {

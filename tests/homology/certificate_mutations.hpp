@@ -1,7 +1,8 @@
 // Mutations of homology certificates, shared by the tests of this folder: each one changes a
 // certificate the way a wrong answer would differ (a torsion factor, a generator, an order, a
-// witness's coefficient), and mutations_rejected checks that check_certificate refuses every
-// one that applies, naming the group and the generator or factor where the fault is.
+// witness's coefficient, a torsion summand left out, a torsion witness's minors), and
+// mutations_rejected checks that check_certificate refuses every one that applies, naming the
+// group and the generator or factor where the fault is.
 #pragma once
 
 #include <doctest/doctest.h>
@@ -98,6 +99,51 @@ inline int mutations_rejected(const C& c) {
                     return true;
                   }, t, -2, ""});
   }
+  if (t >= 0) {
+    // A whole torsion summand left out with its generator, cocycle and bounding chain (the
+    // first factor, so the others still divide each other): everything the witnesses of (a)-(d)
+    // check still holds; only the determinants of the torsion witness see it.
+    ms.push_back({"a torsion summand dropped with its generator", [t](cert_t& x) {
+                    auto& g = x.groups[t];
+                    g.torsion.erase(g.torsion.begin());
+                    g.generators.erase(g.generators.begin() + static_cast<std::ptrdiff_t>(g.rank));
+                    g.cocycles.erase(g.cocycles.begin() + static_cast<std::ptrdiff_t>(g.rank));
+                    g.bounding_chains.erase(g.bounding_chains.begin());
+                    return true;
+                  }, t, -1, "torsion witness"});
+  }
+  // The torsion witnesses themselves: the degree of the first one with a core block and unit
+  // pivots, if any.
+  int w = -1;
+  for (std::size_t k = 0; k < good.torsion.size() && w < 0; ++k)
+    if (!good.torsion[k].pivot_rows.empty() && !good.torsion[k].minors.empty() && !good.torsion[k].minors[0].rows.empty())
+      w = static_cast<int>(k);
+  int any = -1;
+  for (std::size_t k = 0; k < good.torsion.size() && any < 0; ++k)
+    if (!good.torsion[k].minors.empty()) any = static_cast<int>(k);
+  if (any >= 0) {
+    ms.push_back({"the torsion witnesses removed (a certificate of the older layout)", [](cert_t& x) {
+                    x.torsion.clear();
+                    return true;
+                  }, -1, -1, "no torsion witnesses"});
+    ms.push_back({"the minors of a torsion witness removed", [any](cert_t& x) {
+                    x.torsion[static_cast<std::size_t>(any)].minors.clear();
+                    return true;
+                  }, any, -1, "no minor"});
+    ms.push_back({"a pivot of a torsion witness dropped", [any](cert_t& x) {
+                    auto& tw = x.torsion[static_cast<std::size_t>(any)];
+                    if (tw.pivot_rows.empty()) return false;
+                    tw.pivot_rows.pop_back(), tw.pivot_columns.pop_back();
+                    return true;
+                  }, any, -1, "not of size"});
+  }
+  if (w >= 0) {
+    ms.push_back({"a row of a minor's block replaced by a pivot row", [w](cert_t& x) {
+                    auto& tw = x.torsion[static_cast<std::size_t>(w)];
+                    tw.minors[0].rows[0] = tw.pivot_rows[0];
+                    return true;
+                  }, w, -1, "named twice"});
+  }
   if (f >= 0) {
     ms.push_back({"free generator dropped (rank one less)", [f](cert_t& x) {
                     auto& g = x.groups[f];
@@ -152,6 +198,7 @@ inline int mutations_rejected(const C& c) {
     if (m.dimension != -3) CHECK(rep.dimension == m.dimension);
     if (m.generator != -2) CHECK(rep.generator == m.generator);
     if (!m.words.empty()) CHECK(rep.first_failure.find(m.words) != std::string::npos);
+    CHECK(rep.torsion_unproved == (m.words == "no torsion witnesses"));
   }
   return applied;
 }

@@ -24,11 +24,16 @@
 //     boundary matrices of the whole complex are reduced mod p instead (reduce_chain_complex,
 //     algorithm/field_reduction.hpp): pivots by increasing reduced column have non-singular
 //     leading minors (the reduced pivot columns are the original ones times a unitriangular
-//     matrix, and with distinct lows they are triangular). Over Z/p, p itself.
+//     matrix, and with distinct lows they are triangular). Over Z/p, p itself;
+//   * torsion witnesses (over Z), for each H_k: the log's unit pivots of ∂_{k+1} in its order,
+//     then blocks of the core matrix that those pivots leave, found by eliminations mod primes
+//     in pseudo-random orders until the gcd of their exact determinants is the product of the
+//     torsion factors (detail::certify::torsion_witness_of).
 // Cost: that of homology() with generators and a kept basis, plus the pull of one cochain per
 // generator through the log (as the lift of the generators), plus a product of the kept core
 // transforms, plus the elimination of each boundary map mod p in the log's order (about what
-// the engine's elimination cost; docs/performance.md, "Certified homology").
+// the engine's elimination cost; docs/performance.md, "Certified homology"), plus over Z one
+// more elimination over Z per boundary map along the unit pivots, and the blocks' determinants.
 #pragma once
 
 #include <lacuna/algorithm/elimination_maps.hpp>
@@ -41,8 +46,12 @@
 #include <lacuna/ring/primality.hpp>
 #include <lacuna/ring/rational.hpp>
 
+#include <algorithm>
 #include <concepts>
 #include <cstdint>
+#include <numeric>
+#include <random>
+#include <set>
 #include <stdexcept>
 #include <vector>
 
@@ -202,13 +211,124 @@ bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::ui
   return true;
 }
 
+/// The torsion witness of H_k over the integers (homology/certificate.hpp, torsion_witness):
+/// the log's unit pivots of ∂_{k+1}, in their order, then blocks of the core. The minor of
+/// ∂_{k+1} on the pivots' rows and columns and a block of core rows and columns has
+/// determinant ± that of the block in the core matrix D (the Schur complement that the unit
+/// pivots leave; docs/certificates.md). D is recomputed here exactly by the checker's own
+/// elimination (detail::cert::exact_schur), its rank is s = rank − (unit pivots), and blocks
+/// are chosen until the gcd of their determinants (exact, Bareiss) is P, the product of the
+/// claimed torsion factors — the gcd of all s×s minors of D, d_1⋯d_s(D). Each block comes from
+/// a Gaussian elimination of D modulo a prime, with the rows and columns taken in a
+/// pseudo-random order (a fixed seed, so the certificate is reproducible): a block non-singular
+/// mod q has a determinant prime to q, so primes that do not divide P leave the gcd quickly.
+/// Nothing here is trusted: the checker recomputes every determinant. Throws std::runtime_error
+/// when no such blocks are found within a bounded number of tries (never a wrong certificate).
+template <cell_complex C, class R>
+torsion_witness torsion_witness_of(const C& c, int k, const homology_basis<R>& basis, std::size_t rank, const integer& P) {
+  torsion_witness w;
+  for (const auto& st : basis.log.steps)
+    if (st.level == k + 1) w.pivot_rows.push_back(st.b), w.pivot_columns.push_back(st.a);
+  const std::size_t u = w.pivot_rows.size();
+  const auto& core_rows = basis.levels[static_cast<std::size_t>(k)].core;
+  const auto& core_columns = basis.levels[static_cast<std::size_t>(k) + 1].core;
+  const std::vector<std::size_t> rows(core_rows.begin(), core_rows.end()), columns(core_columns.begin(), core_columns.end());
+  std::vector<std::vector<integer>> D;
+  std::string why;
+  const std::string H = "lacuna::certified_homology: the torsion witness of H_" + std::to_string(k);
+  if (!cert::exact_schur<integer>(c, k + 1, w.pivot_rows, w.pivot_columns, rows, columns, D, why))
+    throw std::logic_error(H + ": the elimination's pivots are not unit pivots of the boundary (" + why + ")");
+  if (u > rank) throw std::logic_error(H + ": more unit pivots than the rank");
+  const std::size_t s = rank - u, m = rows.size(), n = columns.size();
+  if (s == 0) {
+    w.minors.push_back({});
+    if (!(P == integer(1))) throw std::logic_error(H + ": the core has rank 0 but torsion is claimed");
+    return w;
+  }
+  using seed_type = std::mt19937_64::result_type;
+  std::mt19937_64 random(seed_type{0x6c6163756e61} + static_cast<seed_type>(k));
+  // small primes (they clear small primes from the gcd), then large ones
+  std::vector<std::uint64_t> primes{2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41, 43, 47};
+  for (std::uint64_t q = (std::uint64_t{1} << 31) - 1; primes.size() < 24; --q)
+    if (is_prime(q)) primes.push_back(q);
+  std::vector<std::size_t> row_order(m), column_order(n);
+  std::iota(row_order.begin(), row_order.end(), std::size_t{0});
+  std::iota(column_order.begin(), column_order.end(), std::size_t{0});
+  integer g(0);
+  std::set<std::pair<std::vector<std::size_t>, std::vector<std::size_t>>> tried;
+  constexpr int max_tries = 256;
+  for (int t = 0; t < max_tries && !(g == P); ++t) {
+    // A large prime first (a generic block), then the primes in turn.
+    const std::uint64_t p = primes[(static_cast<std::size_t>(t) + primes.size() - 1) % primes.size()];
+    if (t > 0) {
+      std::shuffle(row_order.begin(), row_order.end(), random);
+      std::shuffle(column_order.begin(), column_order.end(), random);
+    }
+    // Gaussian elimination of D mod p, columns and rows in the orders drawn.
+    std::vector<std::vector<std::uint64_t>> a(n, std::vector<std::uint64_t>(m));
+    for (std::size_t j = 0; j < n; ++j)
+      for (std::size_t i = 0; i < m; ++i) {
+        integer x = D[j][i] % integer(static_cast<std::int64_t>(p));
+        if (x < integer(0)) x += integer(static_cast<std::int64_t>(p));
+        a[j][i] = static_cast<std::uint64_t>(x.small_value());
+      }
+    std::vector<char> used(m, 0);
+    std::vector<std::size_t> block_rows, block_columns;
+    std::vector<std::pair<std::size_t, std::size_t>> pivots;  // (row, column) positions in D
+    for (std::size_t jj = 0; jj < n && pivots.size() < s; ++jj) {
+      const std::size_t j = column_order[jj];
+      auto& col = a[j];
+      for (const auto& [pr, pc] : pivots) {  // reduce by the earlier pivot columns
+        if (col[pr] == 0) continue;
+        const auto& pcol = a[pc];
+        std::uint64_t inv = 1, b = pcol[pr], e = p - 2;
+        for (; e; e >>= 1, b = b * b % p)
+          if (e & 1) inv = inv * b % p;
+        const std::uint64_t f = col[pr] * inv % p;
+        for (std::size_t i = 0; i < m; ++i)
+          if (pcol[i]) col[i] = (col[i] + p - f * pcol[i] % p) % p;
+      }
+      for (std::size_t ii = 0; ii < m; ++ii) {
+        const std::size_t i = row_order[ii];
+        if (!used[i] && col[i] != 0) {
+          used[i] = 1;
+          pivots.push_back({i, j});
+          break;
+        }
+      }
+    }
+    if (pivots.size() != s) continue;  // p divides a determinantal divisor: no full block mod p
+    for (const auto& [i, j] : pivots) block_rows.push_back(i), block_columns.push_back(j);
+    std::sort(block_rows.begin(), block_rows.end());
+    std::sort(block_columns.begin(), block_columns.end());
+    if (!tried.insert({block_rows, block_columns}).second) continue;
+    std::vector<std::vector<integer>> block(s, std::vector<integer>(s));
+    for (std::size_t j = 0; j < s; ++j)
+      for (std::size_t i = 0; i < s; ++i) block[j][i] = D[block_columns[j]][block_rows[i]];
+    const integer det = cert::bareiss_determinant(std::move(block));
+    const integer before = g;
+    g = cert::magnitude(lacuna::gcd(g, det));
+    if (g == before) continue;  // this block adds nothing to the gcd: not kept
+    minor_block mb;
+    for (std::size_t i : block_rows) mb.rows.push_back(rows[i]);
+    for (std::size_t j : block_columns) mb.columns.push_back(columns[j]);
+    w.minors.push_back(std::move(mb));
+  }
+  if (!(g == P))
+    throw std::runtime_error(H + ": no minors of ∂_" + std::to_string(k + 1) + " found whose determinants have gcd " +
+                             P.to_string() + " (the gcd reached is " + g.to_string() + ")");
+  return w;
+}
+
 }  // namespace detail::certify
 
 /// The homology of c over R with generators, and a certificate of it: for every group, its
 /// generators, a cocycle per generator (identity pairing), a bounding chain per torsion
-/// generator, and rank witnesses of the boundary maps (homology/certificate.hpp). R models
-/// certifiable_ring; C models cell_complex. options: as for homology(); generators, a kept
-/// basis and witnesses are switched on; reduced homology is refused (std::invalid_argument).
+/// generator, rank witnesses of the boundary maps and, over the integers, torsion witnesses
+/// (homology/certificate.hpp). R models certifiable_ring; C models cell_complex. options: as
+/// for homology(); generators, a kept basis and witnesses are switched on; reduced homology is
+/// refused (std::invalid_argument). Throws std::runtime_error if no torsion witness is found
+/// within its bound of tries (never returns a certificate that does not check).
 /// The result is what homology() with those options returns (the elimination route, without
 /// a Morse pre-reduction). check_certificate(c, r.certificate) verifies the certificate.
 template <certifiable_ring R, cell_complex C>
@@ -306,6 +426,21 @@ certified_homology_result<R> certified_homology(const C& c, homology_options opt
   if (cert.ranks.empty() && top >= 0)
     throw std::logic_error("lacuna::certified_homology: no prime tried gives ranks that account for the free ranks");
   if (top < 0) cert.ranks.clear();
+  // Torsion witnesses (over the integers): minors of each ∂_{k+1} whose determinants have the
+  // product of the torsion factors of H_k as gcd, so no torsion summand is left out.
+  if constexpr (std::same_as<R, integer>) {
+    if (top >= 0) {
+      cert.torsion.assign(static_cast<std::size_t>(top) + 1, {});
+      for (int k = 0; k < top; ++k) {
+        integer P(1);
+        for (const auto& d : h[k].torsion) P = P * d;
+        const std::size_t rank = cert.ranks[static_cast<std::size_t>(k) + 1].rows.size();
+        if (rank > 0)
+          cert.torsion[static_cast<std::size_t>(k)] =
+              detail::certify::torsion_witness_of(c, k, basis, rank, detail::cert::magnitude(P));
+      }
+    }
+  }
   return out;
 }
 

@@ -257,7 +257,45 @@ void write_certificate_json(std::ostream& os, const C& c, const homology_certifi
     }
     os << "]}";
   }
-  os << (first ? "]" : "\n  ]") << "\n}\n";
+  os << (first ? "]" : "\n  ]");
+  // Torsion witnesses (over Z): one per boundary map ∂_{k+1} whose group H_k needs one.
+  if (!cert.torsion.empty()) {
+    os << ",\n  \"torsion_witnesses\": [";
+    auto cells = [&](int k, const std::vector<std::size_t>& v) {
+      os << '[';
+      for (std::size_t i = 0; i < v.size(); ++i) {
+        if (i) os << ", ";
+        string_out(os, lacuna::cell_name(c, k, v[i]));
+      }
+      os << ']';
+    };
+    first = true;
+    for (std::size_t k = 0; k < cert.torsion.size(); ++k) {
+      const auto& w = cert.torsion[k];
+      if (w.minors.empty() && w.pivot_rows.empty()) continue;
+      const int kk = static_cast<int>(k);
+      os << (first ? "\n" : ",\n") << "    {\"dimension\": " << k + 1 << ", \"pivots\": [";
+      first = false;
+      for (std::size_t i = 0; i < w.pivot_rows.size(); ++i) {
+        os << (i ? ", [" : "[");
+        string_out(os, lacuna::cell_name(c, kk, w.pivot_rows[i]));
+        os << ", ";
+        string_out(os, lacuna::cell_name(c, kk + 1, w.pivot_columns[i]));
+        os << ']';
+      }
+      os << "],\n     \"minors\": [";
+      for (std::size_t i = 0; i < w.minors.size(); ++i) {
+        os << (i ? ", " : "") << "{\"rows\": ";
+        cells(kk, w.minors[i].rows);
+        os << ", \"columns\": ";
+        cells(kk + 1, w.minors[i].columns);
+        os << '}';
+      }
+      os << "]}";
+    }
+    os << (first ? "]" : "\n  ]");
+  }
+  os << "\n}\n";
 }
 
 /// Reads a certificate written by write_certificate_json against the complex c it describes:
@@ -353,6 +391,34 @@ homology_certificate<R> read_certificate_json(std::istream& in, const C& c, cons
       if (pv.kind != value::array || pv.items.size() != 2) throw bad("expected a pivot [\"row cell\", \"column cell\"]");
       w.rows.push_back(cell(static_cast<int>(k) - 1, pv.items[0]));
       w.columns.push_back(cell(static_cast<int>(k), pv.items[1]));
+    }
+  }
+  // "torsion_witnesses" came after the first layout: a certificate without it is read, and
+  // check_certificate then says that the torsion is not proved complete.
+  if (const value* tv = root.find("torsion_witnesses")) {
+    if (tv->kind != value::array) throw bad("expected \"torsion_witnesses\" of the right kind");
+    cert.torsion.assign(static_cast<std::size_t>(top + 1), {});
+    std::vector<char> seen(static_cast<std::size_t>(top + 1), 0);
+    for (const auto& wv : tv->items) {
+      if (wv.kind != value::object) throw bad("expected a torsion witness object");
+      const std::size_t d = count(need(wv, "dimension", value::number));
+      if (d < 1 || d > static_cast<std::size_t>(top)) throw bad("a torsion witness of dimension " + std::to_string(d));
+      if (seen[d - 1]) throw bad("two torsion witnesses of dimension " + std::to_string(d));
+      seen[d - 1] = 1;
+      auto& w = cert.torsion[d - 1];
+      const int k = static_cast<int>(d) - 1;
+      for (const auto& pv : need(wv, "pivots", value::array).items) {
+        if (pv.kind != value::array || pv.items.size() != 2) throw bad("expected a pivot [\"row cell\", \"column cell\"]");
+        w.pivot_rows.push_back(cell(k, pv.items[0]));
+        w.pivot_columns.push_back(cell(k + 1, pv.items[1]));
+      }
+      for (const auto& mv : need(wv, "minors", value::array).items) {
+        if (mv.kind != value::object) throw bad("expected a minor object {\"rows\": [...], \"columns\": [...]}");
+        minor_block b;
+        for (const auto& x : need(mv, "rows", value::array).items) b.rows.push_back(cell(k, x));
+        for (const auto& x : need(mv, "columns", value::array).items) b.columns.push_back(cell(k + 1, x));
+        w.minors.push_back(std::move(b));
+      }
     }
   }
   return cert;
