@@ -64,7 +64,7 @@
 #include <vector>
 
 namespace lacuna {
-namespace detail::lattice {
+namespace detail::lattice_smith_impl {
 
 using modular::u64;
 
@@ -207,7 +207,7 @@ struct square_source {
   u64 residue(std::size_t i, std::size_t j, u64) const { return (*H)[i * m + j]; }
 };
 
-}  // namespace detail::lattice
+}  // namespace detail::lattice_smith_impl
 
 /// The rank and invariant factors of the integer matrix A when its rank is min(rows, cols)
 /// and every prime dividing its invariant factors is below 2^16, by the maximal-minor and
@@ -221,7 +221,7 @@ template <class Int>
 std::optional<smith_invariants<Int>> lattice_smith_invariants(const sparse_matrix<Int>& A,
                                                               const run_control* control = nullptr) {
   namespace md = detail::modular;
-  namespace dl = detail::lattice;
+  namespace dl = detail::lattice_smith_impl;
   using big = md::big_of<Int>;
   using md::u64;
   smith_invariants<Int> out;
