@@ -69,6 +69,12 @@ namespace detail::lattice_smith_impl {
 using modular::u64;
 
 /// x mod q in [0, q), for an integer ring Int with small and big values (lacuna::integer).
+/// Word operations (m n^2 / 2, the local Hermite insertion of m vectors of length n) beyond
+/// which lattice_smith_invariants declines at once: about 2-4 s on one core. Measured: the
+/// 3 485 x 8 712 remainder of the 8 x 8 chessboard complex (rank deficient) spent 11 s in the
+/// rank step before declining; the 17 007 x 137 one of M(K_12) needs 1.6e8.
+inline constexpr double work_limit = 2e9;
+
 template <class Int>
 u64 residue(const Int& x, u64 q) {
   if (x.is_small()) return detail::reduce_signed(x.small_value(), q);
@@ -123,9 +129,10 @@ std::vector<std::size_t> independent_mod_p(const vectors<Int>& V, const std::vec
   std::vector<u64> basis;  // rows of length n, each normalized to 1 at its pivot column
   std::vector<std::size_t> cols, chosen;
   std::vector<u64> r;
-  std::size_t seen = 0;
+  std::size_t seen = 0, dependent = 0;
   for (const std::size_t i : order) {
     if (chosen.size() == n) break;
+    if (dependent > order.size() - n) break;  // n independent ones can no longer be found
     if (control && (++seen & 255U) == 0) control->check();
     V.dense_residues(i, p, r);
     for (std::size_t k = 0; k < cols.size(); ++k) {
@@ -138,7 +145,10 @@ std::vector<std::size_t> independent_mod_p(const vectors<Int>& V, const std::vec
     }
     std::size_t c = 0;
     while (c < n && r[c] == 0) ++c;
-    if (c == n) continue;
+    if (c == n) {
+      ++dependent;
+      continue;
+    }
     const modular::fixed_factor inv(detail::inv_mod(r[c], p), p);
     for (std::size_t j = 0; j < n; ++j) r[j] = inv.times(r[j], p);
     basis.insert(basis.end(), r.begin(), r.end());
@@ -215,7 +225,8 @@ struct square_source {
 /// not proved full, a prime factor that cannot be placed, a valuation beyond word-size
 /// prime powers). A returned value is always exact; on nullopt the caller uses another route.
 /// Stop requests through `control`. Meant for tall (or wide) matrices: on a square one it
-/// costs like modular_smith_invariants and declines more often.
+/// costs like modular_smith_invariants and declines more often. Declines at once when
+/// m n^2 / 2 (m vectors of length n, n = min(rows, cols)) passes 2e9 word operations.
 template <class Int>
   requires std::same_as<Int, integer>
 std::optional<smith_invariants<Int>> lattice_smith_invariants(const sparse_matrix<Int>& A,
@@ -228,6 +239,7 @@ std::optional<smith_invariants<Int>> lattice_smith_invariants(const sparse_matri
   if (A.rows == 0 || A.cols == 0) return out;
   const dl::vectors<Int> V = dl::as_vectors(A);
   const std::size_t n = V.n, m = V.v.size();
+  if (0.5 * static_cast<double>(m) * static_cast<double>(n) * static_cast<double>(n) > dl::work_limit) return std::nullopt;
 
   // 1. Three sets of n vectors independent mod p (full rank proved by the first).
   u64 p = md::prime_below(mod_p_modulus_limit);
