@@ -124,7 +124,7 @@ BENCHMARK(matching_Z_new)->Arg(13)->Arg(14) ONCE;  // over 400 s and not run (do
 BENCHMARK(matching_Z_sparse)->DenseRange(11, 12) ONCE;
 BENCHMARK(matching_Z_old)->DenseRange(9, 10) ONCE;
 BENCHMARK(matching_Z2)->DenseRange(9, 14) ONCE;
-BENCHMARK(matching_Z3)->DenseRange(9, 12) ONCE;
+BENCHMARK(matching_Z3)->DenseRange(9, 14) ONCE;
 BENCHMARK(matching_Z2_new)->DenseRange(9, 12) ONCE;
 BENCHMARK(chessboard_Z_new)->DenseRange(4, 8) ONCE;
 BENCHMARK(chessboard_Z_old)->DenseRange(4, 6) ONCE;
