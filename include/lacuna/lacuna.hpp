@@ -27,6 +27,7 @@
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/smith_invariants.hpp>
 #include <lacuna/algorithm/modular_smith.hpp>
+#include <lacuna/algorithm/lattice_smith.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/algorithm/elimination_maps.hpp>
 #include <lacuna/algorithm/smith_normal_form.hpp>

@@ -3,7 +3,8 @@
 // rank and non-unit invariant factors of δ_k = ∂_{k+1}^T must equal FLINT's Smith form of
 // ∂_{k+1} (a matrix and its transpose have the same Smith form). Complexes: the matching
 // complex of K_8, the 4 × 5 chessboard complex, random 2-complexes of Linial–Meshulam type
-// (all edges on n vertices, each triangle with probability p), and a cell list whose
+// (all edges on n vertices, each triangle with probability p), each also with every remainder
+// past the dense limit (lattice_smith_invariants or the sparse route), and a cell list whose
 // reduction passes 64 bits (the checked_int64 run throws, the lacuna::integer run answers).
 #include "../homology/support.hpp"
 #include "flint_support.hpp"
@@ -21,9 +22,9 @@ using lacuna::integer;
 /// The route's invariants per boundary matrix, as FLINT would print them: "1" for each unit
 /// (rank − #torsion of them, the units come first) then the non-unit factors.
 template <class W, class C>
-std::vector<std::vector<std::string>> route_invariants(const C& c) {
+std::vector<std::vector<std::string>> route_invariants(const C& c, const lacuna::coboundary_reduction& options = {}) {
   const auto rc = lacuna::reducible_complex<W>::build(c);
-  const auto inv = lacuna::reduce_coboundaries<integer>(rc);
+  const auto inv = lacuna::reduce_coboundaries<integer>(rc, options);
   std::vector<std::vector<std::string>> out;
   for (std::size_t L = 0; L + 1 < inv.size(); ++L) {
     std::vector<std::string> f(inv[L].rank - inv[L].torsion.size(), "1");
@@ -45,6 +46,10 @@ void check_against_flint(const C& c) {
   const auto expected = flint_all(c);
   CHECK(route_invariants<lacuna::checked_int64>(c) == expected);
   CHECK(route_invariants<integer>(c) == expected);
+  // every remainder past the dense limit: through lattice_smith_invariants where its proofs
+  // hold (algorithm/lattice_smith.hpp), else the sparse route; and the sparse route alone
+  CHECK(route_invariants<lacuna::checked_int64>(c, {.dense_limit = 0}) == expected);
+  CHECK(route_invariants<lacuna::checked_int64>(c, {.dense_limit = 0, .lattice_smith = false}) == expected);
 }
 
 /// All edges on n vertices, each triangle with probability p (Linial & Meshulam 2006).
