@@ -234,6 +234,22 @@ void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
   }
 }
 
+/// The chain complex of c at working coefficients W (integers mapped to R's `unit` when W is
+/// R), with the ∂∂ = 0 precondition checked and the phase "building the chain complex"
+/// reported to build.control (not null).
+template <class R, class W, cell_complex C>
+reducible_complex<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& unit) {
+  build.control->report("building the chain complex", 0, 1);
+  reducible_complex<W> rc;
+  if constexpr (std::same_as<R, W>)
+    rc = reducible_complex<W>::build(c, build, unit);
+  else
+    rc = reducible_complex<W>::build(c, build);
+  require_boundary_squared_zero(rc, c);  // precondition, checked
+  build.control->report("building the chain complex", 1, 1);
+  return rc;
+}
+
 /// The whole computation at one working coefficient type W.
 template <class R, class W, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
@@ -241,14 +257,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
                                             const R& unit) {
   const run_control* control = &opt.control;
   build.control = control;
-  control->report("building the chain complex", 0, 1);
-  reducible_complex<W> rc;
-  if constexpr (std::same_as<R, W>)
-    rc = reducible_complex<W>::build(c, build, unit);
-  else
-    rc = reducible_complex<W>::build(c, build);
-  require_boundary_squared_zero(rc, c);  // precondition, checked
-  control->report("building the chain complex", 1, 1);
+  reducible_complex<W> rc = build_checked_complex<R, W>(c, build, unit);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
@@ -508,16 +517,9 @@ template <class R, class W, cell_complex C>
 homology_result<R> coboundary_groups(const C& c, const homology_options& opt, const coboundary_reduction& alg,
                                      const std::vector<std::vector<bool>>* excluded, const R& unit) {
   const run_control* control = &opt.control;
-  reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded, .threads = opt.threads,
-                                .control = control};
-  control->report("building the chain complex", 0, 1);
-  reducible_complex<W> rc;
-  if constexpr (std::same_as<R, W>)
-    rc = reducible_complex<W>::build(c, build, unit);
-  else
-    rc = reducible_complex<W>::build(c, build);
-  require_boundary_squared_zero(rc, c);
-  control->report("building the chain complex", 1, 1);
+  const reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded,
+                                      .threads = opt.threads, .control = control};
+  const reducible_complex<W> rc = build_checked_complex<R, W>(c, build, unit);
   const auto inv = reduce_coboundaries<R>(rc, alg, control);
   homology_result<R> res;
   res.reduced = opt.reduced;
