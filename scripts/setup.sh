@@ -16,6 +16,8 @@ packages=(
   doxygen               # the API reference (target docs, test docs/api_reference)
   clang                 # libFuzzer targets
   libclang-rt-14-dev    # sanitizer and fuzzer runtimes for clang
+  libopenmpi-dev        # the MPI part (include/lacuna/distributed/, lacuna-mpi, tests/distributed/)
+  openmpi-bin           # mpiexec, which runs the tests of the MPI part
   dpkg-dev              # cpack -G DEB: dpkg-shlibdeps finds the tool's library dependencies
 )
 
