@@ -1,7 +1,33 @@
-// lacuna/homology/verify.hpp — an independent check of the generators of a homology or
-// cohomology result.
+// lacuna/homology/verify.hpp — a check of the groups and generators of a homology or
+// cohomology result, independent of the engine's elimination data where a certificate exists.
 //
-// What is checked, for every group H_k of a result computed with generators:
+// Homology over a certifiable_ring (Z, Q, Z/p with p < 2^32 fixed at compile time), not
+// reduced — the certified check (detail::verify_by_certificate):
+//   1. a certificate of the complex (certified_homology, homology/certify.hpp) is checked by
+//      check_certificate (homology/certificate.hpp), which shares no code with the engine. A
+//      passing check proves H_k ≅ R^r ⊕ ⊕ R/d_i for every k and that the certificate's
+//      cochains φ_j induce an isomorphism Φ: H_k → R^r ⊕ ⊕ R/d_i (docs/certificates.md);
+//   2. the result's rank and torsion factors are compared with the proved ones, factor by
+//      factor (the report names the group and the factor);
+//   3. the result's generators: count and order labels; cycles, from lacuna::boundary of the
+//      complex; their classes Φ(z_l), by the sparse product of the cochains and the
+//      generators. Refused at once: a zero class (a boundary), a free class of finite order
+//      or that is not primitive (the gcd of its free coordinates divides det F below), a
+//      torsion class whose order lcm d_j / gcd(c_j, d_j) is not its claimed order, and two
+//      classes that are units times one basis element;
+//   4. spanning: the matrix A of the classes is [[F, 0], [B, T]] (torsion classes have no
+//      free coordinates), an automorphism of R^r ⊕ ⊕ R/d_i iff F and T are. When every class
+//      is a unit times a distinct basis element (of its own order, for T) both are signed
+//      permutations: accepted in linear time. Otherwise the Smith form of A stacked on the
+//      relations d_i e_i must be unimodular (finitely generated modules are Hopfian, so a
+//      surjection R^r ⊕ ⊕ R/d_i → H_k is an isomorphism): a dense (generators × generators)
+//      test, run only up to verify_options::dense_generator_limit generators; beyond, the
+//      group is reported as not proved — never accepted.
+// Nothing of the verdict rests on the engine's coordinates: only on what check_certificate
+// proved and on the complex's own boundaries.
+//
+// Cohomology, reduced homology and other rings (no certificate yet) — the older check
+// (detail::verify_by_coordinates), which is not a proof:
 //   1. counts: rank free generators (order 0) then one per torsion factor, in order;
 //   2. cycles: ∂z = 0 for a homology generator (and ε(z) = 0 in degree 0 of reduced
 //      homology), δφ = 0 for a cohomology generator; both computed here from
@@ -17,14 +43,13 @@
 //      vectors together with t_i e_i span R^N (Smith form of the stacked matrix: full rank,
 //      unit invariant factors). A surjection Z^r ⊕ ⊕R/t_i → H sending the standard basis to
 //      the generators is then an isomorphism (finitely generated modules are Hopfian).
-//
 // Steps 3 and 4 lean on the engine's own elimination data, and step 4 only for small
-// complexes: for an answer that must be trusted, certified_homology and check_certificate
-// (homology/certify.hpp, homology/certificate.hpp; docs/certificates.md) check witnesses
-// against the complex itself at any size.
+// complexes: beyond it, this check accepted H_1 = Z ⊕ Z/4 for Z ⊕ Z/2 on a complex of 2170
+// cells.
 //
-// Failures are reported, not thrown: the report holds the first failure in words. Errors of
-// use (a result without generators) throw std::invalid_argument.
+// Failures are reported, not thrown: the report holds the first failure in words (and, in the
+// certified check, the group and generator). Errors of use (a result without generators)
+// throw std::invalid_argument.
 #pragma once
 
 #include <lacuna/algorithm/dense_smith.hpp>
@@ -77,7 +102,7 @@ struct verify_options {
   /// generators; beyond, it is reported as not proved.
   std::size_t dense_generator_limit = 2000;
   /// Threads, stop request, progress and memory limit of the certificate's computation.
-  run_control control;
+  run_control control{};
 };
 
 namespace detail {
