@@ -4,13 +4,17 @@
 //   generators   lacuna::homology with generators (the elimination route, basis kept);
 //   certify      lacuna::certified_homology (the same, plus cocycles, bounding chains and
 //                the rank witnesses mod p);
-//   check        lacuna::check_certificate on a certificate made outside the timed loop.
+//   check        lacuna::check_certificate on a certificate made outside the timed loop;
+//   verify       lacuna::verify_generators (homology/verify.hpp: it makes a certificate of the
+//                complex, checks it, and reads the result's generators in its cocycles) on a
+//                result of lacuna::homology with generators made outside the timed loop.
 //   build/bin/bench_certificate --benchmark_filter='torus/1024|porous/64'
 #include "../tests/cubical/volume_support.hpp"
 #include "bench_support.hpp"
 
 #include <lacuna/homology/certificate.hpp>
 #include <lacuna/homology/certify.hpp>
+#include <lacuna/homology/verify.hpp>
 #include <lacuna/ring/integer.hpp>
 
 #include <benchmark/benchmark.h>
@@ -33,13 +37,15 @@ const lacuna::cubical_complex<3>& porous(std::size_t n) {
   return *slot;
 }
 
-enum class what { generators, certify, check };
+enum class what { generators, certify, check, verify };
 
 template <class C>
 void run(benchmark::State& s, const C& c, what w) {
   std::size_t b1 = 0, witness_terms = 0;
   std::optional<lacuna::homology_certificate<integer>> cert;
   if (w == what::check) cert = lacuna::certified_homology<integer>(c).certificate;
+  std::optional<lacuna::homology_result<integer>> result;
+  if (w == what::verify) result = lacuna::homology<integer>(c, {.generators = true});
   for (auto _ : s) {
     if (w == what::generators) {
       auto h = lacuna::homology<integer>(c, {.generators = true, .keep_basis = true});
@@ -49,6 +55,10 @@ void run(benchmark::State& s, const C& c, what w) {
       auto r = lacuna::certified_homology<integer>(c);
       b1 = r.result.groups.size() > 1 ? r.result.groups[1].rank : 0;
       benchmark::DoNotOptimize(r);
+    } else if (w == what::verify) {
+      const auto rep = lacuna::verify_generators(c, *result);
+      if (!rep.ok) s.SkipWithError(rep.first_failure.c_str());
+      b1 = result->groups.size() > 1 ? result->groups[1].rank : 0;
     } else {
       const auto rep = lacuna::check_certificate(c, *cert);
       if (!rep.ok) s.SkipWithError(rep.first_failure.c_str());
@@ -78,6 +88,11 @@ void coin_flip_certify(benchmark::State& s) {
 void coin_flip_check(benchmark::State& s) {
   run(s, lacuna_bench::random_volume(static_cast<std::size_t>(s.range(0))), what::check);
 }
+void torus_verify(benchmark::State& s) { run(s, lacuna_bench::torus(static_cast<int>(s.range(0))), what::verify); }
+void porous_verify(benchmark::State& s) { run(s, porous(static_cast<std::size_t>(s.range(0))), what::verify); }
+void coin_flip_verify(benchmark::State& s) {
+  run(s, lacuna_bench::random_volume(static_cast<std::size_t>(s.range(0))), what::verify);
+}
 
 }  // namespace
 
@@ -90,4 +105,8 @@ BENCHMARK(porous_check)->Arg(64)->Arg(128)->Unit(benchmark::kMillisecond)->Itera
 BENCHMARK(coin_flip_generators)->Arg(64)->Unit(benchmark::kMillisecond)->Iterations(1);
 BENCHMARK(coin_flip_certify)->Arg(64)->Unit(benchmark::kMillisecond)->Iterations(1);
 BENCHMARK(coin_flip_check)->Arg(64)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(torus_verify)->Arg(256)->Arg(1024)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(porous_verify)->Arg(64)->Arg(128)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(coin_flip_generators)->Arg(24)->Arg(32)->Arg(40)->Unit(benchmark::kMillisecond)->Iterations(1);
+BENCHMARK(coin_flip_verify)->Arg(24)->Arg(32)->Arg(40)->Arg(64)->Unit(benchmark::kMillisecond)->Iterations(1);
 BENCHMARK_MAIN();

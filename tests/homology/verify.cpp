@@ -1,6 +1,9 @@
 // verify_generators must reject what is wrong (so the passing checks elsewhere mean
 // something), and cohomology with cocycle generators of textbook spaces.
 #include "support.hpp"
+#include "homology/verify_mutations.hpp"
+
+#include <lacuna/complex/construct/product.hpp>
 
 #include <lacuna/homology/verify.hpp>
 #include <lacuna/ring/mod_p.hpp>
@@ -58,23 +61,31 @@ TEST_CASE("verify_generators rejects tampered generators") {
     bad.groups[1].generators[0] = lacuna::scaled(integer(2), bad.groups[1].generators[0]);
     const auto rep = lacuna::verify_generators(rp2, bad);
     CHECK(!rep.ok);
-    CHECK(rep.first_failure.find("H_1 generator 0") != std::string::npos);
+    CHECK(rep.dimension == 1);
+    CHECK(rep.generator == 0);  // torsion factor 0 (rank 0)
+    CHECK(rep.first_failure.find("H_1 torsion factor 0 (order 2): the generator is a boundary") != std::string::npos);
   }
   {
     auto bad = h;  // a torsion factor claimed for the wrong order
     bad.groups[1].orders[0] = integer(4);
     CHECK(!lacuna::verify_generators(rp2, bad).ok);
   }
-  // The dense cross-check alone catches a free generator of H_1(torus) replaced by a cycle
-  // whose class is the other generator plus twice itself (still a basis? no: det 2).
+  // Another basis of H_1(torus): classes (2, 1) and (1, 0) in the certified basis, det = -1,
+  // is accepted (the dense test of the certified coordinates); (2, 1) and (0, 1), det = 2, is
+  // not: the two span a subgroup of index 2.
   {
+    auto alt = good;
+    alt.groups[1].generators[0] = lacuna::add_scaled(good.groups[1].generators[1], integer(2), good.groups[1].generators[0]);
+    alt.groups[1].generators[1] = good.groups[1].generators[0];
+    const auto rep = lacuna::verify_generators(torus, alt);
+    INFO(rep.first_failure);
+    CHECK(rep.ok);
     auto bad = good;
-    bad.groups[1].generators[0] = lacuna::add_scaled(good.groups[1].generators[1], integer(2), good.groups[1].generators[0]);
-    bad.groups[1].generators[1] = lacuna::add_scaled(good.groups[1].generators[0], integer(0), good.groups[1].generators[0]);
-    // classes (2, 1) and (1, 0): det = -1, a basis, but not unit-diagonal in own coordinates.
-    const auto rep = lacuna::verify_generators(torus, bad);
-    CHECK(!rep.ok);
-    CHECK(rep.first_failure.find("coordinate") != std::string::npos);
+    bad.groups[1].generators[0] = alt.groups[1].generators[0];
+    const auto rep2 = lacuna::verify_generators(torus, bad);
+    CHECK(!rep2.ok);
+    CHECK(rep2.dimension == 1);
+    CHECK(rep2.first_failure.find("index 2") != std::string::npos);
   }
   CHECK_THROWS_AS(lacuna::verify_generators(torus, lacuna::homology<integer>(torus)), std::invalid_argument);
 }
@@ -113,6 +124,83 @@ TEST_CASE("verify_generators rejects a cochain that is not a cocycle") {
   const auto rep = lacuna::verify_generators(t, bad);
   CHECK(!rep.ok);
   CHECK(rep.first_failure.find("cocycle") != std::string::npos);
+}
+
+/// A circle of n vertices and n edges.
+cell_list circle_of(std::size_t n) {
+  cell_list c;
+  for (std::size_t i = 0; i < n; ++i) c.add_cell(0, "v" + std::to_string(i));
+  for (std::size_t i = 0; i < n; ++i) c.add_cell(1, "e" + std::to_string(i), {{(i + 1) % n, 1}, {i, -1}});
+  return c;
+}
+
+TEST_CASE("verify_generators refuses H_1 = Z + Z/4 for Z + Z/2 at every size") {
+  // The older check (through the engine's coordinates, dense cross-check up to 2000 cells)
+  // refused this at 62 cells and accepted it at 2170. H_1(RP^2 x S^1) = Z + Z/2 by Künneth
+  // (Hatcher 2002, Theorem 3B.6, from memory: H_1 = H_1(RP^2) + H_1(S^1)).
+  for (std::size_t n : {1, 35, 70}) {
+    const auto x = lacuna::product(six_vertex_rp2(), circle_of(n));
+    CAPTURE(lacuna::total_cell_count(x));
+    const auto h = lacuna::homology<integer>(x, {.generators = true});
+    REQUIRE(h[1].rank == 1);
+    REQUIRE(h[1].torsion == std::vector<integer>{integer(2)});
+    REQUIRE(lacuna::verify_generators(x, h).ok);
+    auto bad = h;
+    bad.groups[1].torsion[0] = integer(4);
+    bad.groups[1].orders[1] = integer(4);
+    const auto rep = lacuna::verify_generators(x, bad);
+    INFO(rep.first_failure);
+    CHECK(!rep.ok);
+    CHECK(rep.dimension == 1);
+    CHECK(rep.generator == 1);  // torsion factor 0, after the one free generator
+    CHECK(rep.first_failure.find("H_1 torsion factor 0: the result claims order 4, the certificate proves order 2") !=
+          std::string::npos);
+  }
+}
+
+/// H_1 = Z + Z/2 + Z/4 + Z/12: loops a..d at one vertex, 2-cells along 2b, 4c and 12d (the
+/// cellular chain complex gives the groups at once).
+cell_list three_torsion_factors() {
+  cell_list c;
+  c.add_cell(0, "v");
+  for (const char* e : {"a", "b", "c", "d"}) c.add_cell(1, e, {{0, 1}, {0, -1}});
+  c.add_cell(2, "B", {{1, 2}});
+  c.add_cell(2, "C", {{2, 4}});
+  c.add_cell(2, "D", {{3, 12}});
+  return c;
+}
+
+TEST_CASE("verify_generators refuses every mutation of a result, naming the group and factor") {
+  using verify_mutations::result_mutations_rejected;
+  // RP^2 x S^1 (Künneth, above), the torus (H_1 = Z^2, Hatcher 2002 Example 2.36), RP^2 x RP^2
+  // (H_1 = Z/2 + Z/2, Künneth, from memory), the cell list of three torsion factors.
+  CHECK(result_mutations_rejected(lacuna::product(six_vertex_rp2(), circle_of(35))) >= 9);
+  CHECK(result_mutations_rejected(seven_vertex_torus()) >= 6);
+  CHECK(result_mutations_rejected(lacuna::product(six_vertex_rp2(), six_vertex_rp2())) >= 5);
+  CHECK(result_mutations_rejected(three_torsion_factors()) >= 11);
+}
+
+TEST_CASE("verify_generators: a torsion summand left out is named, and another basis is accepted") {
+  // RP^2 x RP^2: H_1 = Z/2 + Z/2 (Künneth, from memory). Claiming one Z/2 is refused.
+  const auto x = lacuna::product(six_vertex_rp2(), six_vertex_rp2());
+  const auto h = lacuna::homology<integer>(x, {.generators = true});
+  REQUIRE(h[1].torsion == std::vector<integer>{integer(2), integer(2)});
+  auto bad = h;
+  bad.groups[1].torsion.pop_back();
+  bad.groups[1].generators.pop_back();
+  bad.groups[1].orders.pop_back();
+  const auto rep = lacuna::verify_generators(x, bad);
+  CHECK(!rep.ok);
+  CHECK(rep.dimension == 1);
+  CHECK(rep.generator == 1);
+  CHECK(rep.first_failure.find("H_1 torsion factor 1: the certificate proves a factor of order 2, the result leaves it out") !=
+        std::string::npos);
+  // The two Z/2 generators replaced by z_0 + z_1 and z_1: still a basis of Z/2 + Z/2.
+  auto alt = h;
+  alt.groups[1].generators[0] = lacuna::add_scaled(h[1].generators[0], integer(1), h[1].generators[1]);
+  const auto ok = lacuna::verify_generators(x, alt);
+  INFO(ok.first_failure);
+  CHECK(ok.ok);
 }
 
 }  // namespace homology_verify_test
