@@ -67,7 +67,7 @@ struct volume_slab {
 
 namespace detail {
 
-inline bool slab_foreground(const io::nrrd_header& h, const unsigned char* p, const std::optional<std::int64_t>& threshold) {
+inline std::int64_t sample_value(const io::nrrd_header& h, const unsigned char* p) {
   std::int64_t v;
   switch (h.type) {
     case io::nrrd_header::sample_type::uint8: v = p[0]; break;
@@ -78,40 +78,36 @@ inline bool slab_foreground(const io::nrrd_header& h, const unsigned char* p, co
       v = h.type == io::nrrd_header::sample_type::uint16 ? std::int64_t{u} : std::int64_t{static_cast<std::int16_t>(u)};
     }
   }
-  return threshold ? v >= *threshold : v != 0;
+  return v;
 }
 
 }  // namespace detail
 
-/// Reads the layers [begin, end) of the NRRD file `path` (see the file comment). Throws
-/// lacuna::parse_error with the one-process reader's wording for a bad header, a truncated or
-/// overlong raw file and corrupt gzip data. begin <= end <= layers is a precondition
-/// (std::invalid_argument otherwise).
-inline volume_slab read_nrrd_slab(const std::filesystem::path& path, std::size_t begin, std::size_t end,
-                                  const io::image_options& options = {}) {
+namespace detail {
+
+/// Reads the layers [begin, end) of the NRRD file `path` (see the file comment), calling
+/// start(extents) once the header is read, then sample(v, value) for the v-th sample of the layers (axis 0 fastest); returns the volume's
+/// extents. Throws lacuna::parse_error with the one-process reader's wording for a bad header,
+/// a truncated or overlong raw file and corrupt gzip data; std::invalid_argument unless
+/// begin <= end <= layers.
+template <class Start, class Sample>
+std::array<std::size_t, 3> read_nrrd_layers(const std::filesystem::path& path, std::size_t begin, std::size_t end,
+                                            const io::read_limits& limits, Start&& start, Sample&& sample) {
   const std::string name = path.string();
   auto in = io::detail::open_input(path);
-  const io::nrrd_header h = io::read_nrrd_header(in, name, options.limits, 3);
-  volume_slab s;
-  s.volume_extents = {1, 1, 1};
-  for (std::size_t a = 0; a < h.sizes.size(); ++a) s.volume_extents[a] = static_cast<std::size_t>(h.sizes[a]);
-  const auto [nx, ny, nz] = s.volume_extents;
-  if (begin > end || end > nz) throw std::invalid_argument("lacuna: read_nrrd_slab: layers out of range");
-  s.begin = begin;
-  s.end = end;
+  const io::nrrd_header h = io::read_nrrd_header(in, name, limits, 3);
+  std::array<std::size_t, 3> extents{1, 1, 1};
+  for (std::size_t a = 0; a < h.sizes.size(); ++a) extents[a] = static_cast<std::size_t>(h.sizes[a]);
+  const auto [nx, ny, nz] = extents;
+  if (begin > end || end > nz) throw std::invalid_argument("lacuna: reading a slab: layers out of range");
+  start(extents);
   const std::uint64_t bps = h.bytes_per_sample();
   const std::uint64_t layer_bytes = static_cast<std::uint64_t>(nx) * ny * bps;  // checked by the header reader
   const std::uint64_t needed = layer_bytes * nz;
   const std::size_t layers = end - begin;
-  const std::size_t voxels = nx * ny * layers;
-  std::vector<std::uint64_t> bits((voxels + 63) / 64, 0);
   auto set_bits = [&](const unsigned char* p, std::uint64_t first_byte, std::size_t n) {
     // n bytes of the slab's data starting at slab byte `first_byte` (a multiple of bps)
-    for (std::size_t i = 0; i + bps <= n; i += bps)
-      if (detail::slab_foreground(h, p + i, options.threshold)) {
-        const std::uint64_t v = (first_byte + i) / bps;
-        bits[v >> 6] |= std::uint64_t{1} << (v & 63);
-      }
+    for (std::size_t i = 0; i + bps <= n; i += bps) sample(static_cast<std::size_t>((first_byte + i) / bps), sample_value(h, p + i));
   };
   if (h.encoding == io::nrrd_header::data_encoding::raw) {
     std::error_code ec;
@@ -194,8 +190,40 @@ inline volume_slab read_nrrd_slab(const std::filesystem::path& path, std::size_t
                                    ": gzip-encoded data needs zlib: build with LACUNA_HAVE_ZLIB=1 and link zlib");
 #endif
   }
-  if (layers > 0) s.complex = cubical_complex<3>({nx, ny, layers}, std::move(bits));
+  return extents;
+}
+
+}  // namespace detail
+
+/// Reads the layers [begin, end) of the NRRD file `path` as a binary slab under the foreground
+/// rule of `options` (see the file comment; errors as the one-process reader's).
+inline volume_slab read_nrrd_slab(const std::filesystem::path& path, std::size_t begin, std::size_t end,
+                                  const io::image_options& options = {}) {
+  std::vector<std::uint64_t> bits;
+  volume_slab s;
+  s.volume_extents = detail::read_nrrd_layers(
+      path, begin, end, options.limits,
+      [&](const std::array<std::size_t, 3>& e) { bits.assign((e[0] * e[1] * (end - begin) + 63) / 64, 0); },
+      [&](std::size_t v, std::int64_t value) {
+        if (options.threshold ? value >= *options.threshold : value != 0) bits[v >> 6] |= std::uint64_t{1} << (v & 63);
+      });
+  s.begin = begin;
+  s.end = end;
+  if (end > begin) s.complex = cubical_complex<3>({s.volume_extents[0], s.volume_extents[1], end - begin}, std::move(bits));
   return s;
 }
+
+/// Reads the samples of the layers [begin, end) of the NRRD file `path` (axis 0 fastest), as
+/// io::read_nrrd_samples reads the whole volume; returns the volume's extents and the samples.
+inline std::pair<std::array<std::size_t, 3>, std::vector<std::int32_t>> read_nrrd_slab_samples(
+    const std::filesystem::path& path, std::size_t begin, std::size_t end, const io::read_limits& limits = {}) {
+  std::vector<std::int32_t> samples;
+  const auto extents = detail::read_nrrd_layers(
+      path, begin, end, limits, [&](const std::array<std::size_t, 3>& e) { samples.assign(e[0] * e[1] * (end - begin), 0); },
+      [&](std::size_t v, std::int64_t value) { samples[v] = static_cast<std::int32_t>(value); });
+  return {extents, std::move(samples)};
+}
+
+
 
 }  // namespace lacuna::distributed
