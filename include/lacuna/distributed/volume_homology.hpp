@@ -46,6 +46,7 @@
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/distributed/collective_error.hpp>
+#include <lacuna/distributed/gather_words.hpp>
 #include <lacuna/distributed/volume_blocks.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/io/read_limits.hpp>
@@ -194,6 +195,20 @@ inline std::uint64_t reduce_slab(const volume_slab& s, std::size_t layers, const
   return cells;
 }
 
+/// The grid ids of the cells of glue_residuals(all, g), by dimension, in the order of their
+/// indices there (increasing ids).
+inline std::vector<std::vector<std::uint64_t>> glued_ids(const std::vector<std::int64_t>& all) {
+  std::vector<std::vector<std::uint64_t>> ids(4);
+  for (std::size_t at = 0; at + 3 <= all.size(); at += 3 + 2 * static_cast<std::size_t>(all[at + 2]))
+    ids[static_cast<std::size_t>(all[at])].push_back(static_cast<std::uint64_t>(all[at + 1]));
+  for (auto& v : ids) {
+    std::sort(v.begin(), v.end());
+    v.erase(std::unique(v.begin(), v.end()), v.end());
+  }
+  while (!ids.empty() && ids.back().empty()) ids.pop_back();
+  return ids;
+}
+
 /// The glued complex of the gathered residuals (interface cells kept once).
 inline cell_list glue_residuals(const std::vector<std::int64_t>& all, const grid_numbering& g) {
   struct cell {
@@ -273,32 +288,14 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
       for (int k = 0; k <= s.complex.top_dimension(); ++k) st.cells_in_blocks += s.complex.cell_count(k);
       st.residual_cells += detail::reduce_slab(s, extents[2], g, out);
     }
-    if (out.size() > static_cast<std::size_t>(std::numeric_limits<int>::max()))
-      throw std::length_error("lacuna: the residual of one rank exceeds 2^31 words (use more ranks or blocks)");
     return out;
   });
 
-  // Gather the residuals on the root (MPI_Gatherv: the counts, then the words).
-  int count = static_cast<int>(residual.size());
-  std::vector<int> counts(rank == options.root ? static_cast<std::size_t>(size) : 0), displs;
-  check_mpi(MPI_Gather(&count, 1, MPI_INT, counts.data(), 1, MPI_INT, options.root, comm), "MPI_Gather (residual sizes)");
-  std::vector<std::int64_t> all;
-  std::size_t total = 0;
-  const bool too_big = collective_phase(comm, "preparing the gathering", [&] {
-    if (rank != options.root) return false;
-    for (int c : counts) total += static_cast<std::size_t>(c);
-    if (total > static_cast<std::size_t>(std::numeric_limits<int>::max()))
-      throw std::length_error("lacuna: the residuals exceed 2^31 words on the root");
-    displs.resize(static_cast<std::size_t>(size));
-    for (std::size_t i = 0, d = 0; i < counts.size(); d += static_cast<std::size_t>(counts[i]), ++i) displs[i] = static_cast<int>(d);
-    all.resize(total);
-    return false;
-  });
-  (void)too_big;
-  check_mpi(MPI_Gatherv(residual.data(), count, MPI_INT64_T, all.data(), counts.data(), displs.data(), MPI_INT64_T, options.root, comm),
-            "MPI_Gatherv (residuals)");
-  st.bytes_sent += sizeof(int) + residual.size() * sizeof(std::int64_t);
-  if (rank == options.root) st.bytes_received += counts.size() * sizeof(int) + total * sizeof(std::int64_t);
+  // Gather the residuals on the root.
+  communication_counts sent;
+  std::vector<std::int64_t> all = gather_words(comm, options.root, residual, sent);
+  st.bytes_sent += sent.bytes_sent;
+  st.bytes_received += sent.bytes_received;
   std::vector<std::int64_t>().swap(residual);
 
   // Phase 3: glue and finish on the root.
