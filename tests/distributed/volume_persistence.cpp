@@ -109,6 +109,7 @@ void check_against_one_process(const std::array<std::size_t, 3>& n, const std::v
           MPI_COMM_WORLD, path, {.direction = direction, .blocks_per_rank = per_rank});
       CHECK(r2.has_result == (rank_in_world() == 0));
       if (!r2.has_result) continue;
+      try {  // checks on the root only: a failed REQUIRE must not end the test case on the root alone
       CHECK(values_of(r2.result) == values_of(one2));
       CHECK(values_of(r3.result) == values_of(one3));
       // the whole grid is a solid box: contractible (Z, 0, 0, 0)
@@ -129,6 +130,8 @@ void check_against_one_process(const std::array<std::size_t, 3>& n, const std::v
                     static_cast<std::int64_t>(r2.result.diagrams[2].betti_at(t)) ==
                 truth.euler);
         }
+      }
+      } catch (...) {
       }
     }
   }

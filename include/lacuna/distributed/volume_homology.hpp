@@ -37,9 +37,12 @@
 // input, integer overflow or memory exhaustion on any rank ends the call on every rank with
 // the same lacuna::distributed::distributed_error naming the rank, the phase and the message.
 //
-// Not yet offered: generators (options.homology.generators is refused with
-// std::invalid_argument on every rank), gluing in a reduction tree (the residuals are
-// gathered on the root in one step).
+// Generators (options.homology.generators, over the integers): the root's generators of the
+// glued complex are broadcast, every rank lifts the cells interior to its slabs by their Morse
+// lift, and the root adds the pieces up (detail::lift_generators): cycles of the whole
+// volume's complex in the classes of the root's generators, cells named by grid position.
+// Not yet offered: generators over other rings (std::invalid_argument on every rank), gluing
+// in a reduction tree (the residuals are gathered on the root in one step).
 #pragma once
 
 #include <lacuna/algorithm/morse_reduction.hpp>
@@ -57,6 +60,7 @@
 
 #include <algorithm>
 #include <array>
+#include <concepts>
 #include <cstddef>
 #include <cstdint>
 #include <filesystem>
@@ -97,11 +101,23 @@ struct volume_run_statistics {
   std::uint64_t glued_cells = 0;          ///< root: cells of the glued complex; 0 elsewhere
 };
 
+/// A chain of the whole volume's cubical complex, its cells named by their position in the
+/// doubled grid of the whole volume (cubical_complex<3>::position_type, index_of gives the
+/// one-process index).
+template <class R>
+struct grid_chain {
+  int dimension = 0;                                              ///< k
+  std::vector<std::pair<std::array<std::size_t, 3>, R>> terms;  ///< (position, coefficient), by position
+};
+
 /// The answer of volume_homology on one rank.
 template <class R>
 struct volume_homology_result {
   bool has_result = false;           ///< true on the root
-  homology_result<R> result;         ///< the homology of the volume (on the root)
+  homology_result<R> result;         ///< the homology of the volume (on the root); its chains index the glued complex
+  /// With options.homology.generators (over the integers): generators[k][j] is the cycle of the
+  /// volume's complex lifting result.groups[k].generators[j] (on the root).
+  std::vector<std::vector<grid_chain<R>>> generators;
   volume_run_statistics statistics;  ///< this rank's figures
 };
 
@@ -145,12 +161,20 @@ struct grid_numbering {
 
 /// Appends the residual complex of one slab to `out`: per critical cell, dimension, grid id,
 /// term count, then (face grid id, coefficient) pairs.
+/// A reduced slab kept for lifting generators: its Morse complex, and its critical cells by
+/// grid id.
+struct kept_slab {
+  volume_slab slab;
+  morse_complex morse;
+  std::array<std::unordered_map<std::uint64_t, std::size_t>, 4> critical;
+};
+
 inline std::uint64_t reduce_slab(const volume_slab& s, std::size_t layers, const grid_numbering& g,
-                                 std::vector<std::int64_t>& out) {
+                                 std::vector<std::int64_t>& out, kept_slab* keep = nullptr) {
   const cubical_complex<3>& c = s.complex;
   if (c.top_dimension() < 0) return 0;
   const interface_cut cut(c, s.begin > 0, s.end < layers);
-  const morse_complex m = morse_reduce(cut);
+  morse_complex m = morse_reduce(cut);
   const std::size_t shift = 2 * s.begin;
   std::uint64_t cells = 0;
   std::map<std::uint64_t, integer> acc;
@@ -190,8 +214,10 @@ inline std::uint64_t reduce_slab(const volume_slab& s, std::size_t layers, const
       }
       out[count_at] = terms;
       ++cells;
+      if (keep) keep->critical[static_cast<std::size_t>(k)][g.id(p, shift)] = i;
     }
   }
+  if (keep) keep->morse = std::move(m);
   return cells;
 }
 
@@ -243,6 +269,113 @@ inline cell_list glue_residuals(const std::vector<std::int64_t>& all, const grid
   return out;
 }
 
+
+/// Lifts the root's generators (chains of the glued complex) to cycles of the whole volume's
+/// complex: a glued cell on a plane two slabs share is a cell of the volume as it is; any
+/// other is a critical cell of exactly one slab, whose rank lifts it by that slab's Morse lift
+/// g (g(σ) = σ + the cells of the gradient paths from σ; a chain map, so a cycle goes to a
+/// cycle of the same class: Sköldberg 2006). Collective over comm.
+template <class R>
+void lift_generators(MPI_Comm comm, int root, volume_homology_result<R>& r, const std::vector<kept_slab>& kept,
+                     const grid_numbering& g, const std::vector<volume_block>& blocks,
+                     const std::vector<std::vector<std::uint64_t>>& ids) {
+  int rank = 0;
+  MPI_Comm_rank(comm, &rank);
+  auto small = [](const integer& x) {
+    if (!x.is_small()) throw std::overflow_error("lacuna: a generator coefficient does not fit in 64 bits");
+    return x.small_value();
+  };
+  // the root packs them: per generator, degree, term count, then (grid id, coefficient) pairs
+  std::vector<std::int64_t> words = collective_phase(comm, "packing the generators", [&] {
+    std::vector<std::int64_t> w;
+    if (rank != root) return w;
+    for (const auto& grp : r.result.groups)
+      for (const auto& z : grp.generators) {
+        w.push_back(z.dimension);
+        w.push_back(static_cast<std::int64_t>(z.terms.size()));
+        for (const auto& t : z.terms) {
+          w.push_back(static_cast<std::int64_t>(ids.at(static_cast<std::size_t>(z.dimension)).at(t.cell)));
+          w.push_back(small(t.coefficient));
+        }
+      }
+    if (w.size() > static_cast<std::size_t>(std::numeric_limits<int>::max()))
+      throw std::length_error("the generators exceed 2^31 - 1 words");
+    return w;
+  });
+  long long n = static_cast<long long>(words.size());
+  check_mpi(MPI_Bcast(&n, 1, MPI_LONG_LONG, root, comm), "MPI_Bcast (generator size)");
+  words.resize(static_cast<std::size_t>(n));
+  check_mpi(MPI_Bcast(words.data(), static_cast<int>(n), MPI_INT64_T, root, comm), "MPI_Bcast (generators)");
+  r.statistics.bytes_received += rank == root ? 0 : static_cast<std::uint64_t>(n) * sizeof(std::int64_t);
+  r.statistics.bytes_sent += rank == root ? static_cast<std::uint64_t>(n) * sizeof(std::int64_t) : 0;
+  // every rank lifts the cells interior to its slabs: (generator, grid id, coefficient)
+  const std::vector<std::int64_t> lifted = collective_phase(comm, "lifting the generators", [&] {
+    std::vector<std::int64_t> out;
+    std::int64_t gen = 0;
+    for (std::size_t at = 0; at < words.size(); ++gen) {
+      const int k = static_cast<int>(words[at]);
+      const auto terms = static_cast<std::size_t>(words[at + 1]);
+      at += 2;
+      for (std::size_t t = 0; t < terms; ++t, at += 2) {
+        const auto id = static_cast<std::uint64_t>(words[at]);
+        const std::size_t z = g.position(id)[2];
+        for (const auto& ks : kept) {
+          const bool low_ok = ks.slab.begin == 0 || z > 2 * ks.slab.begin;
+          const bool high_ok = ks.slab.end == ks.slab.volume_extents[2] ? z <= 2 * ks.slab.end : z < 2 * ks.slab.end;
+          if (!low_ok || !high_ok) continue;
+          const auto f = ks.critical[static_cast<std::size_t>(k)].find(id);
+          if (f == ks.critical[static_cast<std::size_t>(k)].end())
+            throw std::runtime_error("lacuna: a generator names a cell its slab did not keep");
+          const chain<integer> up = ks.morse.lift(chain<integer>{k, {{f->second, integer(words[at + 1])}}});
+          for (const auto& u : up.terms) {
+            out.push_back(gen);
+            out.push_back(static_cast<std::int64_t>(g.id(ks.slab.complex.position(k, u.cell), 2 * ks.slab.begin)));
+            out.push_back(small(u.coefficient));
+          }
+          break;
+        }
+      }
+    }
+    return out;
+  });
+  communication_counts sent;
+  const std::vector<std::int64_t> all = gather_words(comm, root, lifted, sent);
+  r.statistics.bytes_sent += sent.bytes_sent;
+  r.statistics.bytes_received += sent.bytes_received;
+  collective_phase(comm, "assembling the generators", [&] {
+    if (rank != root) return;
+    std::vector<std::map<std::uint64_t, integer>> sums;
+    std::vector<int> degree;
+    auto shared_plane = [&](std::size_t z) {
+      if (z % 2 != 0) return false;
+      for (const auto& b : blocks)
+        if (b.begin > 0 && 2 * b.begin == z) return true;
+      return false;
+    };
+    for (std::size_t at = 0; at < words.size();) {
+      degree.push_back(static_cast<int>(words[at]));
+      sums.emplace_back();
+      const auto terms = static_cast<std::size_t>(words[at + 1]);
+      at += 2;
+      for (std::size_t t = 0; t < terms; ++t, at += 2) {
+        const auto id = static_cast<std::uint64_t>(words[at]);
+        if (shared_plane(g.position(id)[2])) sums.back()[id] += integer(words[at + 1]);
+      }
+    }
+    for (std::size_t at = 0; at + 3 <= all.size(); at += 3)
+      sums.at(static_cast<std::size_t>(all[at]))[static_cast<std::uint64_t>(all[at + 1])] += integer(all[at + 2]);
+    r.generators.assign(r.result.groups.size(), {});
+    std::size_t gen = 0;
+    for (std::size_t k = 0; k < r.result.groups.size(); ++k)
+      for (std::size_t j = 0; j < r.result.groups[k].generators.size(); ++j, ++gen) {
+        grid_chain<R> c;
+        c.dimension = degree.at(gen);
+        for (const auto& [id, x] : sums.at(gen))
+          if (!(x == integer(0))) c.terms.emplace_back(g.position(id), x);
+        r.generators[k].push_back(std::move(c));
+      }
+  });
+}
 }  // namespace detail
 
 /// The homology over R (a lacuna::euclidean_domain; `unit` its one, for rings with a
@@ -261,7 +394,10 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
   MPI_Comm_rank(comm, &rank);
   MPI_Comm_size(comm, &size);
   if (options.root < 0 || options.root >= size) throw std::invalid_argument("lacuna: volume_homology: the root is not a rank of the communicator");
-  if (options.homology.generators) throw std::invalid_argument("lacuna: volume_homology does not offer generators yet");
+  if (options.homology.generators && !std::same_as<R, integer>)
+    throw std::invalid_argument("lacuna: volume_homology offers generators over the integers only");
+  const bool want_generators = options.homology.generators;
+  std::vector<detail::kept_slab> kept;
   volume_homology_result<R> r;
   auto& st = r.statistics;
   const io::image_options image{.threshold = options.threshold, .limits = options.limits};
@@ -282,11 +418,17 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
     std::vector<std::int64_t> out;
     for (const auto& b : blocks) {
       if (b.owner != rank) continue;
-      const volume_slab s = read_nrrd_slab(path, b.begin, b.end, image);
+      volume_slab s = read_nrrd_slab(path, b.begin, b.end, image);
       ++st.blocks;
       st.voxels_read += static_cast<std::uint64_t>(extents[0]) * extents[1] * (b.end - b.begin);
       for (int k = 0; k <= s.complex.top_dimension(); ++k) st.cells_in_blocks += s.complex.cell_count(k);
-      st.residual_cells += detail::reduce_slab(s, extents[2], g, out);
+      if (want_generators) {
+        kept.emplace_back();
+        st.residual_cells += detail::reduce_slab(s, extents[2], g, out, &kept.back());
+        kept.back().slab = std::move(s);
+      } else {
+        st.residual_cells += detail::reduce_slab(s, extents[2], g, out);
+      }
     }
     return out;
   });
@@ -299,9 +441,12 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
   std::vector<std::int64_t>().swap(residual);
 
   // Phase 3: glue and finish on the root.
+  std::vector<std::int64_t> all_kept;
+  std::vector<std::vector<std::uint64_t>> glued_ids;
   collective_phase(comm, "gluing the residual complexes and finishing", [&] {
     if (rank != options.root) return;
     const cell_list glued = detail::glue_residuals(all, g);
+    if (want_generators) all_kept = std::move(all);
     std::vector<std::int64_t>().swap(all);
     for (int k = 0; k <= glued.top_dimension(); ++k) st.glued_cells += glued.cell_count(k);
     r.result = homology<R>(glued, options.homology, sparse_elimination{}, unit);
@@ -313,7 +458,10 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
         r.result.groups.push_back(std::move(empty));
       }
     r.has_result = true;
+    if (want_generators) glued_ids = detail::glued_ids(all_kept);
   });
+  if constexpr (std::same_as<R, integer>)
+    if (want_generators) detail::lift_generators(comm, options.root, r, kept, g, blocks, glued_ids);
   return r;
 }
 
