@@ -277,21 +277,23 @@ TEST_CASE("pieces: a malformed piece file fails on every rank, naming the rank, 
   int failing = -1;
   try {
     lacuna::distributed::read_piece(MPI_COMM_WORLD, file);
-  } catch (const lacuna::distributed::rank_error& e) {
+  } catch (const lacuna::distributed::distributed_error& e) {
     what = e.what();
-    failing = e.rank();
+    failing = e.failing_rank();
   }
   std::filesystem::remove(file);
   CHECK(failing == n - 1);
   const auto bad = dir / ("lacuna-pieces-" + std::to_string(id) + "-" + std::to_string(n - 1) + ".facets");
-  CHECK(what.rfind("rank " + std::to_string(n - 1) + ": " + bad.string() + ":2: ", 0) == 0);
+  CHECK(what.rfind("lacuna: rank " + std::to_string(n - 1) + " of " + std::to_string(n) + " failed while reading its piece: " +
+                       bad.string() + ":2: ",
+                   0) == 0);
   CHECK(what.find("is repeated within one simplex") != std::string::npos);
   // a file that does not exist, on rank 0
   failing = -1;
   try {
     lacuna::distributed::read_piece(MPI_COMM_WORLD, r == 0 ? dir / "lacuna-no-such-piece.facets" : std::filesystem::path{});
-  } catch (const lacuna::distributed::rank_error& e) {
-    failing = e.rank();
+  } catch (const lacuna::distributed::distributed_error& e) {
+    failing = e.failing_rank();
     what = e.message();
   }
   CHECK(failing == 0);
@@ -301,7 +303,7 @@ TEST_CASE("pieces: a malformed piece file fails on every rank, naming the rank, 
 TEST_CASE("pieces: generators are refused, on every rank") {
   const auto piece = lacuna::distributed::make_piece(MPI_COMM_WORLD, my_piece(projective_plane(), split::round_robin));
   CHECK_THROWS_AS(lacuna::distributed::pieces_homology<lacuna::integer>(MPI_COMM_WORLD, piece, {.generators = true}),
-                  lacuna::distributed::rank_error);
+                  lacuna::distributed::distributed_error);
 }
 
 }  // namespace pieces_test

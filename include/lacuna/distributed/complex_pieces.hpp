@@ -1,9 +1,7 @@
 // lacuna/distributed/complex_pieces.hpp — the homology of a simplicial complex given in pieces,
 // one piece per MPI rank (optional part: needs MPI, target lacuna::distributed).
 //
-//   collectively(comm, f)                  runs f on every rank; if any rank throws, every rank
-//                                          throws the same rank_error ("rank R: what")
-//   read_piece(comm, path [, options])     this rank's .facets file (io/facets.hpp), collectively
+//   read_piece(comm, files [, options])    this rank's .facets file(s) (io/facets.hpp)
 //   make_piece(comm, facets)               this rank's piece from a generator's facets
 //   reduce_pieces(comm, piece)             the residual chain complex, on the root (rank 0)
 //   pieces_homology<R>(comm, piece, ...)   its homology over R, on the root
@@ -33,6 +31,10 @@
 // by the update), so reduced homology is kept too. Coefficients are int64 with overflow
 // checks: an elimination that would overflow is not done (the pair stays for the engine).
 //
+// Errors: every step runs as a phase of distributed/collective_error.hpp: bad input, overflow
+// or exhaustion on any rank ends the call on every rank with the same distributed_error naming
+// the rank, the phase and the message ("FILE:LINE: problem" for a bad piece file).
+//
 // The finish. The shared cells (sent once, by the lowest rank holding them, with their
 // simplicial boundaries) and every rank's remaining private cells are gathered on the root,
 // built into a lacuna::cell_list by name (a simplex's name is its labels in increasing order)
@@ -42,6 +44,7 @@
 // counts its private cells and the shared cells it sends, summed over the ranks.
 #pragma once
 
+#include <lacuna/distributed/collective_error.hpp>
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
@@ -65,57 +68,6 @@
 #include <vector>
 
 namespace lacuna::distributed {
-
-// ---- collective errors ------------------------------------------------------------------
-
-/// An error raised on one rank and reported on all: what() is "rank R: message", the message
-/// that rank's exception carried ("FILE:LINE: problem" for a parse error).
-class rank_error : public std::runtime_error {
- public:
-  rank_error(int rank, const std::string& message)
-      : std::runtime_error("rank " + std::to_string(rank) + ": " + message), rank_(rank), message_(message) {}
-  /// The rank that failed (the lowest, if several did).
-  int rank() const noexcept { return rank_; }
-  /// Its message, without the rank.
-  const std::string& message() const noexcept { return message_; }
-
- private:
-  int rank_;
-  std::string message_;
-};
-
-/// Runs f() on this rank, then agrees with every rank of comm on the outcome: if f threw on
-/// any rank, every rank throws the same rank_error naming the lowest failing rank and its
-/// message. Collective: every rank of comm must call it, with the same sequence of calls, and f
-/// must not make collective calls (a rank that throws halfway would leave the others waiting).
-template <class F>
-void collectively(MPI_Comm comm, F&& f) {
-  int rank = 0, size = 1;
-  MPI_Comm_rank(comm, &rank);
-  MPI_Comm_size(comm, &size);
-  std::string message;
-  bool failed = false;
-  try {
-    std::forward<F>(f)();
-  } catch (const std::exception& e) {
-    failed = true;
-    message = e.what();
-  } catch (...) {
-    failed = true;
-    message = "an unknown error";
-  }
-  int mine = failed ? rank : size, first = size;
-  MPI_Allreduce(&mine, &first, 1, MPI_INT, MPI_MIN, comm);
-  if (first == size) return;
-  // the failing rank's message, at most 4 KiB of it, to all
-  if (rank != first) message.clear();
-  if (message.size() > 4096) message.resize(4096);
-  int length = static_cast<int>(message.size());
-  MPI_Bcast(&length, 1, MPI_INT, first, comm);
-  message.resize(static_cast<std::size_t>(length));
-  if (length > 0) MPI_Bcast(message.data(), length, MPI_CHAR, first, comm);
-  throw rank_error(first, message);
-}
 
 // ---- pieces -----------------------------------------------------------------------------
 
@@ -176,7 +128,7 @@ inline std::vector<int> shared_holders(MPI_Comm comm, const std::vector<std::str
   }
   std::vector<int> send_counts(P), recv_counts(P), send_at(P), recv_at(P);
   std::string send_buffer;
-  collectively(comm, [&] {
+  collective_phase(comm, "exchanging simplex names", [&] {
     std::size_t total = 0;
     for (std::size_t d = 0; d < P; ++d) {
       send_counts[d] = message_size(out[d].size(), "the exchange of simplex names");
@@ -192,7 +144,7 @@ inline std::vector<int> shared_holders(MPI_Comm comm, const std::vector<std::str
   MPI_Alltoall(send_counts.data(), 1, MPI_INT, recv_counts.data(), 1, MPI_INT, comm);
   std::size_t received = 0;
   for (std::size_t s = 0; s < P; ++s) received += static_cast<std::size_t>(recv_counts[s]);
-  collectively(comm, [&] { message_size(received, "the exchange of simplex names"); });
+  collective_phase(comm, "exchanging simplex names", [&] { message_size(received, "the exchange of simplex names"); });
   for (std::size_t s = 0, at = 0; s < P; ++s) {
     recv_at[s] = static_cast<int>(at);
     at += static_cast<std::size_t>(recv_counts[s]);
@@ -292,23 +244,40 @@ struct piece_options {
   io::facets_read_options read = {};
 };
 
-/// This rank's piece from the .facets file at `path` (an empty path: an empty piece).
-/// Collective: if any rank's file is missing or malformed, every rank throws rank_error
-/// naming that rank, the file, the line and the problem.
-inline piece_complex read_piece(MPI_Comm comm, const std::filesystem::path& path, const piece_options& options = {}) {
-  piece_complex piece;
-  collectively(comm, [&] {
-    if (!path.empty()) piece = pieces_detail::sorted_by_label(io::read_facets(path, options.read), options.read.max_cells);
+/// This rank's piece: the union of the .facets files `files` (io/facets.hpp; none: an empty
+/// piece). Collective: if any rank's file is missing or malformed, every rank throws
+/// distributed_error naming that rank, the file, the line and the problem.
+inline piece_complex read_piece(MPI_Comm comm, const std::vector<std::filesystem::path>& files,
+                                const piece_options& options = {}) {
+  return collective_phase(comm, "reading its piece", [&] {
+    if (files.empty()) return piece_complex{};
+    if (files.size() == 1) return pieces_detail::sorted_by_label(io::read_facets(files[0], options.read), options.read.max_cells);
+    piece_complex::builder b;
+    b.max_cells(options.read.max_cells);
+    for (const auto& f : files) {
+      const auto c = io::read_facets(f, options.read);
+      for (const auto& [k, i] : c.facets()) {
+        std::vector<std::string> labels;
+        for (const auto v : c.vertices(k, i)) labels.push_back(c.label(v));
+        b.add_facet(labels);
+      }
+    }
+    return pieces_detail::sorted_by_label(std::move(b).finalize(), options.read.max_cells);
   });
-  return piece;
+}
+
+/// This rank's piece from the one .facets file at `path` (an empty path: an empty piece).
+inline piece_complex read_piece(MPI_Comm comm, const std::filesystem::path& path, const piece_options& options = {}) {
+  return read_piece(comm, path.empty() ? std::vector<std::filesystem::path>{} : std::vector<std::filesystem::path>{path},
+                    options);
 }
 
 /// This rank's piece from facets a generator made (each a range of labels), collectively:
-/// a bad facet on any rank throws rank_error on every rank.
+/// a bad facet on any rank throws distributed_error on every rank.
 template <class Facets>
 piece_complex make_piece(MPI_Comm comm, Facets&& facets, const piece_options& options = {}) {
   piece_complex piece;
-  collectively(comm, [&] {
+  collective_phase(comm, "building its piece", [&] {
     piece_complex::builder b;
     b.max_cells(options.read.max_cells);
     for (auto&& f : facets) {
@@ -335,13 +304,13 @@ struct pieces_residual {
 
 /// Reduces the union of the pieces (one per rank of comm) to a residual complex on rank 0; see
 /// the top of this header. `piece` must be numbered in label order (read_piece and make_piece
-/// do that). Collective; errors are rank_error on every rank.
+/// do that). Collective; errors are distributed_error on every rank.
 inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) {
   using pieces_detail::term;
   int rank = 0, size = 1;
   MPI_Comm_rank(comm, &rank);
   MPI_Comm_size(comm, &size);
-  collectively(comm, [&] {
+  collective_phase(comm, "checking its piece", [&] {
     if (!std::is_sorted(piece.labels().begin(), piece.labels().end()))
       throw std::invalid_argument("lacuna: reduce_pieces: the piece is not numbered in label order (use read_piece or make_piece)");
   });
@@ -374,7 +343,7 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
   pieces_residual out;
   std::string records;  // this rank's cells for the root: k, name, n, then n lines "coefficient face"
   std::vector<std::uint64_t> counted(static_cast<std::size_t>(global_top + 1), 0);
-  collectively(comm, [&] {
+  collective_phase(comm, "reducing its piece", [&] {
     // private cells: boundaries (private and shared faces), cofaces among private cells
     std::vector<std::vector<std::vector<term>>> bd(dims);
     std::vector<std::vector<std::vector<std::uint32_t>>> cob(dims);
@@ -479,10 +448,10 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
       at[s] = static_cast<int>(std::min<std::size_t>(total, INT_MAX));
       total += static_cast<std::size_t>(lengths[s]);
     }
-  collectively(comm, [&] { pieces_detail::message_size(total, "the residual complex gathered on rank 0"); });
+  collective_phase(comm, "gathering the residual complexes", [&] { pieces_detail::message_size(total, "the residual complex gathered on rank 0"); });
   std::string all(rank == 0 ? total : 0, '\0');
   MPI_Gatherv(records.data(), mine, MPI_CHAR, all.data(), lengths.data(), at.data(), MPI_CHAR, 0, comm);
-  collectively(comm, [&] {
+  collective_phase(comm, "gluing the residual complexes", [&] {
     if (rank != 0) return;
     // records by dimension, then cells added dimension by dimension (faces first)
     struct record {
@@ -540,13 +509,13 @@ homology_result<R> pieces_homology(MPI_Comm comm, const piece_complex& piece, ho
                                    pieces_residual* residual = nullptr) {
   int rank = 0;
   MPI_Comm_rank(comm, &rank);
-  collectively(comm, [&] {
+  collective_phase(comm, "checking the options", [&] {
     if (options.generators || options.witnesses || options.keep_basis)
       throw std::invalid_argument("lacuna: generators are not offered for a complex in pieces");
   });
   auto r = reduce_pieces(comm, piece);
   homology_result<R> h;
-  collectively(comm, [&] {
+  collective_phase(comm, "computing the homology of the residual complex", [&] {
     if (rank != 0) return;
     h = lacuna::homology<R>(r.residual, options, algorithm, unit);
     for (int k = static_cast<int>(h.groups.size()); k < static_cast<int>(r.cells.size()); ++k) {
