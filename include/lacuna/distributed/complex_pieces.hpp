@@ -510,7 +510,7 @@ homology_result<R> pieces_homology(MPI_Comm comm, const piece_complex& piece, ho
   int rank = 0;
   MPI_Comm_rank(comm, &rank);
   collective_phase(comm, "checking the options", [&] {
-    if (options.generators || options.witnesses || options.keep_basis)
+    if (options.generators || options.witnesses || options.keep_basis.value_or(false))
       throw std::invalid_argument("lacuna: generators are not offered for a complex in pieces");
   });
   auto r = reduce_pieces(comm, piece);
