@@ -120,22 +120,24 @@ void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files
     auto r = lacuna::distributed::volume_homology<R>(comm, files[0], vo, unit);
     h = std::move(r.result);
     counts.cells = volume_cell_counts(comm, files[0], vo);
+    if (o.reduced && counts.cells.empty())  // as lacuna homology --reduced refuses it, on every rank
+      throw usage_error(o.file + ": the complex is empty: its reduced homology is Z in dimension -1, which --reduced "
+                                 "does not print");
   } else {
     lacuna::distributed::piece_options po;
     if (o.max_cells) po.read.max_cells = static_cast<std::size_t>(*o.max_cells);
     if (o.max_facet_vertices) po.read.max_facet_vertices = static_cast<std::size_t>(*o.max_facet_vertices);
     const auto piece = lacuna::distributed::read_piece(comm, files_of_rank(files, rank, size), po);
+    // The reduced homology of the empty complex is refused as `lacuna homology --reduced` does,
+    // on every rank alike (the union is empty when every piece is).
+    int top = piece.top_dimension(), global_top = -1;
+    MPI_Allreduce(&top, &global_top, 1, MPI_INT, MPI_MAX, comm);
+    if (o.reduced && global_top < 0)
+      throw usage_error(o.file + ": the complex is empty: its reduced homology is Z in dimension -1, which --reduced "
+                                 "does not print");
     lacuna::distributed::pieces_residual residual;
-    // The reduced homology of the empty complex is refused as `lacuna homology --reduced` does.
-    h = lacuna::distributed::pieces_homology<R>(comm, piece, {.reduced = false}, lacuna::sparse_elimination{}, unit,
-                                                &residual);
+    h = lacuna::distributed::pieces_homology<R>(comm, piece, ho, lacuna::sparse_elimination{}, unit, &residual);
     counts.cells = residual.cells;
-    if (o.reduced) {
-      if (counts.cells.empty())
-        throw usage_error(o.file + ": the complex is empty: its reduced homology is Z in dimension -1, which --reduced "
-                                   "does not print");
-      h = lacuna::distributed::pieces_homology<R>(comm, piece, ho, lacuna::sparse_elimination{}, unit);
-    }
   }
   if (rank != 0) return;
   std::string out;
