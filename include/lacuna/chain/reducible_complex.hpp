@@ -141,10 +141,10 @@ class reducible_complex {
   }
 
   /// Builds the complex of c, mapping an integer incidence n into R as from_integer<R>(n) *
-  /// unit. `unit` is the one of R; it matters for rings whose modulus lives in the elements
+  /// unit. `ring_one` is the one of R; it matters for rings whose modulus lives in the elements
   /// (mod_p_dynamic: pass a bound one, mod_p_dynamic(1, p)).
   template <cell_complex C>
-  static reducible_complex build(const C& c, reducible_build_options opt = {}, const R& unit = one<R>()) {
+  static reducible_complex build(const C& c, reducible_build_options opt = {}, const R& ring_one = one<R>()) {
     if (opt.dual && opt.augmented) throw std::invalid_argument("reducible_complex: dual and augmented together");
     reducible_complex rc;
     const int top = lacuna::top_dimension(c);
@@ -232,7 +232,7 @@ class reducible_complex {
           for (; t < scratch.size() && scratch[t].index == scratch[s].index && !exact_sum; ++t)
             exact_sum = checked_add(sum, scratch[t].value, sum);
           if (!exact_sum && sum != 0) {
-            R val = from_integer<R>(sum) * unit;
+            R val = from_integer<R>(sum) * ring_one;
             if (!(val == zero<R>())) data.push_back({scratch[s].index, std::move(val)});
           }
           s = t;
@@ -247,7 +247,7 @@ class reducible_complex {
             integer sum;
             for (; t < exact.size() && exact[t].index == exact[s].index; ++t) sum += exact[t].value;
             if (sum.sign() != 0) {
-              R val = coefficient_in<R>(sum, unit);
+              R val = coefficient_in<R>(sum, ring_one);
               if (!(val == zero<R>())) data.push_back({exact[s].index, std::move(val)});
             }
             s = t;
@@ -321,7 +321,7 @@ class reducible_complex {
         const int L0 = lvl(0);
         const std::size_t nv = rc.size(L0);
         for (std::uint32_t v = 0; v < nv; ++v) {
-          const entry e{0, unit};
+          const entry e{0, ring_one};
           std::vector<entry> b(rc.bd_[index(L0)][v].begin(), rc.bd_[index(L0)][v].end());
           b.insert(b.begin(), e);
           rc.bd_[index(L0)].assign(v, b);

@@ -219,7 +219,7 @@ class homology_result {
     const int k = z.dimension;
     const int top = lacuna::top_dimension(c);
     if (k < 0 || k > top) throw std::invalid_argument("lacuna: no cells of dimension " + std::to_string(k));
-    const R unit = unit_;
+    const R ring_one = ring_one_;
     std::unordered_map<std::size_t, R> acc;
     if (!cohomology) {
       if (k == 0 && !reduced) return;  // every 0-chain is a cycle
@@ -233,7 +233,7 @@ class homology_result {
         for (auto&& v : lacuna::boundary(c, k, t.cell)) {
           const incidence inc = as_incidence(v);
           if (excluded(k - 1, inc.face)) continue;
-          acc[inc.face] += from_integer<R>(inc.coefficient) * unit * t.coefficient;
+          acc[inc.face] += from_integer<R>(inc.coefficient) * ring_one * t.coefficient;
         }
       }
     } else {
@@ -247,7 +247,7 @@ class homology_result {
         for (auto&& v : lacuna::boundary(c, k + 1, s)) {
           const incidence inc = as_incidence(v);
           auto it = phi.find(inc.face);
-          if (it != phi.end()) acc[s] += from_integer<R>(inc.coefficient) * unit * it->second;
+          if (it != phi.end()) acc[s] += from_integer<R>(inc.coefficient) * ring_one * it->second;
         }
     }
     for (const auto& [cell, v] : acc)
@@ -256,7 +256,7 @@ class homology_result {
   }
 
  public:
-  R unit_ = one<R>();  ///< internal: the one of R the result was computed with
+  R ring_one_ = one<R>();  ///< internal: the one of R the result was computed with
 };
 
 }  // namespace lacuna

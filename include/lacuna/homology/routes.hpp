@@ -234,15 +234,15 @@ void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
   }
 }
 
-/// The chain complex of c at working coefficients W (integers mapped to R's `unit` when W is
+/// The chain complex of c at working coefficients W (integers mapped to R's `ring_one` when W is
 /// R), with the ∂∂ = 0 precondition checked and the phase "building the chain complex"
 /// reported to build.control (not null).
 template <class R, class W, cell_complex C>
-reducible_complex<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& unit) {
+reducible_complex<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& ring_one) {
   build.control->report("building the chain complex", 0, 1);
   reducible_complex<W> rc;
   if constexpr (std::same_as<R, W>)
-    rc = reducible_complex<W>::build(c, build, unit);
+    rc = reducible_complex<W>::build(c, build, ring_one);
   else
     rc = reducible_complex<W>::build(c, build);
   require_boundary_squared_zero(rc, c);  // precondition, checked
@@ -254,10 +254,10 @@ reducible_complex<W> build_checked_complex(const C& c, const reducible_build_opt
 template <class R, class W, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
                                             reducible_build_options build, std::shared_ptr<homology_basis<R>>* basis,
-                                            const R& unit) {
+                                            const R& ring_one) {
   const run_control* control = &opt.control;
   build.control = control;
-  reducible_complex<W> rc = build_checked_complex<R, W>(c, build, unit);
+  reducible_complex<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
@@ -338,7 +338,7 @@ inline constexpr bool fast_integer_path<staged_elimination<Pre, Eliminate, Core>
 template <class R, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels_any(const C& c, const homology_options& opt, const Algorithm& alg,
                                                 reducible_build_options build,
-                                                std::shared_ptr<homology_basis<R>>* basis, const R& unit) {
+                                                std::shared_ptr<homology_basis<R>>* basis, const R& ring_one) {
   if constexpr (staged_algorithm<Algorithm>) {
     static_assert(reduction_stage<decltype(alg.pre), R>,
                   "lacuna: the pre-reduction stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
@@ -349,12 +349,12 @@ std::vector<level_result<R>> compute_levels_any(const C& c, const homology_optio
   }
   if constexpr (std::same_as<R, integer> && fast_integer_path<Algorithm>) {
     try {
-      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, unit);
+      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, ring_one);
     } catch (const coefficient_overflow&) {
       // Widen: repeat with coefficients that cannot overflow.
     }
   }
-  return compute_levels<R, R>(c, opt, alg, build, basis, unit);
+  return compute_levels<R, R>(c, opt, alg, build, basis, ring_one);
 }
 
 }  // namespace detail
@@ -362,7 +362,7 @@ std::vector<level_result<R>> compute_levels_any(const C& c, const homology_optio
 namespace detail {
 template <euclidean_domain R, cell_complex C, class Algorithm>
 homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool is_cohomology,
-                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
+                            const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (is_cohomology && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
   if (is_cohomology && opt.witnesses) throw std::invalid_argument("lacuna: witnesses are offered for homology, not cohomology");
@@ -373,8 +373,8 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
   res.level_offset_ = opt.reduced ? -1 : 0;
   const int top = lacuna::top_dimension(c);
   res.top_ = top;
-  res.unit_ = unit;
-  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, unit);
+  res.ring_one_ = ring_one;
+  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, ring_one);
   for (int k = 0; k <= top; ++k) {
     const int L = is_cohomology ? top - k : k - res.level_offset_;
     auto& lr = levels[static_cast<std::size_t>(L)];
@@ -405,8 +405,8 @@ namespace detail {
 /// c, and with a basis, coordinates() first projects a cycle of c to m.
 template <euclidean_domain R, class M, class Lift, class Project>
 homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const sparse_elimination& alg, bool is_cohomology,
-                                    const R& unit, Lift lift, Project project) {
-  homology_result<R> res = assemble<R>(m, opt, alg, is_cohomology, nullptr, unit);
+                                    const R& ring_one, Lift lift, Project project) {
+  homology_result<R> res = assemble<R>(m, opt, alg, is_cohomology, nullptr, ring_one);
   for (auto& g : res.groups)
     for (auto& z : g.generators) z = lift(z);
   if (res.basis_) res.project_ = std::move(project);
@@ -417,7 +417,7 @@ homology_result<R> on_morse_complex(const M& m, const homology_options& opt, con
 /// generators, a Morse incidence beyond 64 bits): the caller then runs without it.
 template <euclidean_domain R, cell_complex C>
 std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, sparse_elimination alg, bool is_cohomology,
-                                                 const R& unit) {
+                                                 const R& ring_one) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (is_cohomology && (opt.generators || *opt.keep_basis)) return std::nullopt;
   if (opt.witnesses) return std::nullopt;  // bounding chains are lifted through the elimination log only
@@ -430,14 +430,14 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
       std::shared_ptr<const C> original;
       if (*opt.keep_basis) original = std::make_shared<const C>(c);  // coordinates() may outlive c
       return on_morse_complex<R>(
-          *m, opt, alg, is_cohomology, unit, [&](const chain<R>& z) { return m->lift(c, z, unit); },
-          [m, original, unit](const chain<R>& x) { return m->project(*original, x, unit); });
+          *m, opt, alg, is_cohomology, ring_one, [&](const chain<R>& z) { return m->lift(c, z, ring_one); },
+          [m, original, ring_one](const chain<R>& x) { return m->project(*original, x, ring_one); });
     } else {
       auto m = std::make_shared<const morse_complex>(morse_reduce(c, {.control = &opt.control}));
       const run_control* control = &opt.control;
       return on_morse_complex<R>(
-          *m, opt, alg, is_cohomology, unit, [&](const chain<R>& z) { return m->lift(z, unit, control); },
-          [m, unit](const chain<R>& x) { return m->project(x, unit); });
+          *m, opt, alg, is_cohomology, ring_one, [&](const chain<R>& z) { return m->lift(z, ring_one, control); },
+          [m, ring_one](const chain<R>& x) { return m->project(x, ring_one); });
     }
   } catch (const coefficient_overflow&) {
     return std::nullopt;
@@ -482,7 +482,7 @@ inline constexpr std::size_t duality_dimension<cubical_complex<D>> = D <= 3 ? D 
 /// reduced group of the empty image).
 template <euclidean_domain R, cell_complex C>
 std::optional<homology_result<R>> duality_homology(const C& c, const homology_options& opt,
-                                                   const sparse_elimination& alg, bool cohomology, const R& unit) {
+                                                   const sparse_elimination& alg, bool cohomology, const R& ring_one) {
   if constexpr (duality_dimension<C> == 0) {
     return std::nullopt;
   } else {
@@ -498,7 +498,7 @@ std::optional<homology_result<R>> duality_homology(const C& c, const homology_op
     res.reduced = opt.reduced;
     res.level_offset_ = opt.reduced ? -1 : 0;
     res.top_ = c.top_dimension();
-    res.unit_ = unit;
+    res.ring_one_ = ring_one;
     for (int k = 0; k <= c.top_dimension(); ++k) {
       homology_group<R> g;
       g.dimension = k;
@@ -515,18 +515,18 @@ std::optional<homology_result<R>> duality_homology(const C& c, const homology_op
 /// description at the top of this header.
 template <class R, class W, cell_complex C>
 homology_result<R> coboundary_groups(const C& c, const homology_options& opt, const coboundary_reduction& alg,
-                                     const std::vector<std::vector<bool>>* excluded, const R& unit) {
+                                     const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   const run_control* control = &opt.control;
   const reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded,
                                       .threads = opt.threads, .control = control};
-  const reducible_complex<W> rc = build_checked_complex<R, W>(c, build, unit);
+  const reducible_complex<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   const auto inv = reduce_coboundaries<R>(rc, alg, control);
   homology_result<R> res;
   res.reduced = opt.reduced;
   res.level_offset_ = opt.reduced ? -1 : 0;
   const int top = lacuna::top_dimension(c);
   res.top_ = top;
-  res.unit_ = unit;
+  res.ring_one_ = ring_one;
   for (int k = 0; k <= top; ++k) {
     const int L = k - res.level_offset_;
     homology_group<R> g;
@@ -543,9 +543,9 @@ homology_result<R> coboundary_groups(const C& c, const homology_options& opt, co
 /// to sparse_elimination{} (the route keeps no change of basis).
 template <class R, cell_complex C>
 homology_result<R> homology_by_coboundaries(const C& c, const homology_options& opt, const coboundary_reduction& alg,
-                                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
+                                            const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   if (opt.generators || opt.keep_basis.value_or(false))
-    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, unit);
+    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, ring_one);
   if constexpr (std::same_as<R, rational>) {
     // H_k(C; Q) = H_k(C; Z) ⊗ Q (universal coefficients; Q is flat over Z): its dimension is
     // the free rank over Z, and torsion vanishes. The boundary coefficients are integers.
@@ -554,7 +554,7 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
     res.reduced = z.reduced;
     res.level_offset_ = z.level_offset_;
     res.top_ = z.top_;
-    res.unit_ = unit;
+    res.ring_one_ = ring_one;
     for (const auto& g : z.groups) {
       homology_group<R> q;
       q.dimension = g.dimension;
@@ -565,12 +565,12 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
   }
   if constexpr (std::same_as<R, integer>) {
     try {
-      return coboundary_groups<R, checked_int64>(c, opt, alg, excluded, unit);
+      return coboundary_groups<R, checked_int64>(c, opt, alg, excluded, ring_one);
     } catch (const coefficient_overflow&) {
       // Widen: repeat with coefficients that cannot overflow.
     }
   }
-  return coboundary_groups<R, R>(c, opt, alg, excluded, unit);
+  return coboundary_groups<R, R>(c, opt, alg, excluded, ring_one);
 }
 
 }  // namespace detail
