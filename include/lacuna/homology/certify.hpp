@@ -356,26 +356,26 @@ certified_homology_result<R> certified_homology(const C& c, homology_options opt
     const auto& b = basis.levels[L];
     if (!basis.from_original[L].empty()) throw std::logic_error("lacuna::certified_homology: cells were excluded");
     // The coordinate forms on the level, in the order of the generators (coordinates_on_levels).
-    const std::size_t n = b.core.size(), kdim = n - b.r;
+    const std::size_t n = b.core.size(), kdim = n - b.boundary_rank;
     std::vector<level_chain<R>> forms;
     for (std::uint32_t cell : b.isolated) forms.push_back({{cell, one<R>()}});
     auto row = [&](std::size_t i) {  // row i of U_M · V_inv[r.., :], on the core cells
       level_chain<R> f;
       std::vector<R> v(n, zero<R>());
       for (std::size_t t = 0; t < kdim; ++t) {
-        const R& u = b.U_M(i, t);
+        const R& u = b.quotient_u(i, t);
         if (u == zero<R>()) continue;
         for (std::size_t j = 0; j < n; ++j)
-          if (!(b.V_inv(b.r + t, j) == zero<R>())) v[j] += u * b.V_inv(b.r + t, j);
+          if (!(b.boundary_v_inverse(b.boundary_rank + t, j) == zero<R>())) v[j] += u * b.boundary_v_inverse(b.boundary_rank + t, j);
       }
       for (std::size_t j = 0; j < n; ++j)
         if (!(v[j] == zero<R>())) f.push_back({b.core[j], v[j]});
       return f;
     };
     std::vector<R> moduli(b.isolated.size(), zero<R>());
-    for (std::size_t i = b.factors.size(); i < kdim; ++i) forms.push_back(row(i)), moduli.push_back(zero<R>());
-    for (std::size_t i = 0; i < b.factors.size(); ++i)
-      if (!detail::ring_is_unit(b.factors[i])) forms.push_back(row(i)), moduli.push_back(b.factors[i]);
+    for (std::size_t i = b.quotient_factors.size(); i < kdim; ++i) forms.push_back(row(i)), moduli.push_back(zero<R>());
+    for (std::size_t i = 0; i < b.quotient_factors.size(); ++i)
+      if (!detail::ring_is_unit(b.quotient_factors[i])) forms.push_back(row(i)), moduli.push_back(b.quotient_factors[i]);
     auto pulled = pull_cochains(basis.log, static_cast<int>(L), basis.level_sizes[L], forms, &options.control);
     for (std::size_t j = 0; j < pulled.size(); ++j) {
       chain<R> phi{k, {}};

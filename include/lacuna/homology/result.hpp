@@ -46,7 +46,7 @@ struct homology_group {
 namespace detail {
 
 template <class R>
-struct level_basis {
+struct level_coordinates {
   std::vector<std::uint32_t> core;          // surviving cells with incidences (local indices)
   std::vector<std::int64_t> core_position;  // local index -> position in core or -1
   std::vector<std::uint32_t> isolated;      // surviving cells without any incidence
@@ -60,7 +60,7 @@ struct level_basis {
 template <class R>
 struct homology_basis {
   elimination_log<R> log;
-  std::vector<level_basis<R>> levels;
+  std::vector<level_coordinates<R>> levels;
   std::vector<std::vector<std::int64_t>> from_original;  // per level, empty: identity
   std::vector<std::size_t> level_sizes;
 };
@@ -193,18 +193,18 @@ class homology_result {
     std::vector<R> y(n, zero<R>());
     for (std::size_t i = 0; i < n; ++i)
       for (std::size_t j = 0; j < n; ++j)
-        if (!(zc[j] == zero<R>())) y[i] += b.V_inv(i, j) * zc[j];
-    for (std::size_t i = 0; i < b.r; ++i)
+        if (!(zc[j] == zero<R>())) y[i] += b.boundary_v_inverse(i, j) * zc[j];
+    for (std::size_t i = 0; i < b.boundary_rank; ++i)
       if (!(y[i] == zero<R>())) throw std::invalid_argument("lacuna: the chain is not a cycle");
-    const std::size_t kdim = n - b.r;
+    const std::size_t kdim = n - b.boundary_rank;
     std::vector<R> w(kdim, zero<R>());
     for (std::size_t i = 0; i < kdim; ++i)
       for (std::size_t j = 0; j < kdim; ++j)
-        if (!(y[b.r + j] == zero<R>())) w[i] += b.U_M(i, j) * y[b.r + j];
+        if (!(y[b.boundary_rank + j] == zero<R>())) w[i] += b.quotient_u(i, j) * y[b.boundary_rank + j];
     out = iso;
-    for (std::size_t i = b.factors.size(); i < kdim; ++i) out.push_back(w[i]);
-    for (std::size_t i = 0; i < b.factors.size(); ++i)
-      if (!detail::ring_is_unit(b.factors[i])) out.push_back(detail::canonical_residue(w[i], b.factors[i]));
+    for (std::size_t i = b.quotient_factors.size(); i < kdim; ++i) out.push_back(w[i]);
+    for (std::size_t i = 0; i < b.quotient_factors.size(); ++i)
+      if (!detail::ring_is_unit(b.quotient_factors[i])) out.push_back(detail::canonical_residue(w[i], b.quotient_factors[i]));
     return out;
   }
   int level_of(int dim) const { return cohomology ? top_ - dim : dim - level_offset_; }

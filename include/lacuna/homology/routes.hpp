@@ -77,7 +77,7 @@ struct level_result {
 // size, with the two transforms of its Smith form, is checked against control->memory_limit
 // before anything is allocated.
 template <class R, class W>
-dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_basis<R>>& lb, int L,
+dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_coordinates<R>>& lb, int L,
                             const run_control* control = nullptr) {
   const std::uint64_t rows = lb[static_cast<std::size_t>(L - 1)].core.size(),
                       cols = lb[static_cast<std::size_t>(L)].core.size();
@@ -96,8 +96,8 @@ dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<le
 }
 
 template <class R, class W, class Core = smith_core>
-std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool want_generators, bool keep,
-                                         std::vector<level_basis<R>>& lb, const run_control* control = nullptr,
+std::vector<level_result<R>> core_level_homology(const reducible_complex<W>& rc, bool want_generators, bool keep,
+                                         std::vector<level_coordinates<R>>& lb, const run_control* control = nullptr,
                                          bool want_bounding = false, const Core& core_stage = {}) {
   const int nl = rc.levels();
   lb.assign(static_cast<std::size_t>(nl), {});
@@ -149,18 +149,18 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
       s1.rank = 0;
       s1.V = s1.V_inv = dense_matrix<R>::identity(n);
     }
-    b.r = s1.rank;
-    const std::size_t kdim = n - b.r;
+    b.boundary_rank = s1.rank;
+    const std::size_t kdim = n - b.boundary_rank;
     dense_matrix<R> M(kdim, L + 1 < nl ? lb[static_cast<std::size_t>(L + 1)].core.size() : 0);
     if (L + 1 < nl && M.cols() > 0 && kdim > 0) {
       const dense_matrix<R> P = s1.V_inv * core_matrix<R>(rc, lb, L + 1, control);
       for (std::size_t i = 0; i < kdim; ++i)
-        for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.r + i, j);
+        for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.boundary_rank + i, j);
     }
     auto s2 = dense_smith_form(M, {.transforms = true, .control = control});
-    b.factors = s2.diagonal;
-    b.V_inv = s1.V_inv;
-    b.U_M = s2.U;
+    b.quotient_factors = s2.diagonal;
+    b.boundary_v_inverse = s1.V_inv;
+    b.quotient_u = s2.U;
     auto& res = out[static_cast<std::size_t>(L)];
     // Free: isolated cells, then the core columns past the rank of M; torsion: non-unit e_i.
     res.rank = b.isolated.size() + (kdim - s2.rank);
@@ -172,7 +172,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
         for (std::size_t row = 0; row < n; ++row) {
           R v = zero<R>();
           for (std::size_t j = 0; j < kdim; ++j)
-            if (!(s2.U_inv(j, i) == zero<R>())) v += s1.V(row, b.r + j) * s2.U_inv(j, i);
+            if (!(s2.U_inv(j, i) == zero<R>())) v += s1.V(row, b.boundary_rank + j) * s2.U_inv(j, i);
           if (!(v == zero<R>())) ch.push_back({b.core[row], v});
         }
         std::sort(ch.begin(), ch.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
@@ -281,12 +281,12 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     alg.eliminate.reduce(rc, want_log ? &log : nullptr, control);
     control->report("eliminating unit pivots", 1, 1);
   }
-  std::vector<level_basis<R>> lb;
+  std::vector<level_coordinates<R>> lb;
   std::vector<level_result<R>> levels;
   if constexpr (staged_algorithm<Algorithm>)
-    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
+    levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
   else
-    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
+    levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators) {
     control->report("lifting generators", 0, 1);
