@@ -4,7 +4,8 @@
 // The basis kept for coordinates(): the elimination log of the route (a chain map from the
 // complex to its reduced core, algorithm/elimination_maps.hpp) and, per level, the transforms
 // of the core's Smith forms (homology/routes.hpp says how they are made): a cycle is pushed
-// through the log onto the core, multiplied by V^-1, and its coordinates read off through U_M.
+// through the log onto the core, multiplied by V^-1, and its coordinates read off through U_M
+// (detail::level_coordinates).
 #pragma once
 
 #include <lacuna/algorithm/elimination_maps.hpp>
@@ -45,16 +46,21 @@ struct homology_group {
 
 namespace detail {
 
+// What coordinates() needs at one level L of the core. With D_L the boundary out of level L
+// and U D_L V = diag its Smith form, the cycles are the columns of V past D_L's rank, and the
+// quotient matrix M (rows boundary_rank.. of V^-1 D_{L+1}: the next boundary in that cycle
+// basis) has its own Smith form U_M M V_M; a class's coordinates are U_M V^-1 applied to a
+// cycle, read modulo the invariant factors of M.
 template <class R>
 struct level_coordinates {
   std::vector<std::uint32_t> core;          // surviving cells with incidences (local indices)
   std::vector<std::int64_t> core_position;  // local index -> position in core or -1
   std::vector<std::uint32_t> isolated;      // surviving cells without any incidence
   std::vector<std::int64_t> isolated_position;
-  std::size_t r = 0;                        // rank of the boundary out of this level
-  dense_matrix<R> V_inv;                    // of that boundary's Smith form
-  dense_matrix<R> U_M;                      // of M
-  std::vector<R> factors;                   // invariant factors of M
+  std::size_t boundary_rank = 0;            // rank of D_L
+  dense_matrix<R> boundary_v_inverse;       // V^-1 of D_L's Smith form
+  dense_matrix<R> quotient_u;               // U_M of M's Smith form
+  std::vector<R> quotient_factors;          // invariant factors of M
 };
 
 template <class R>
