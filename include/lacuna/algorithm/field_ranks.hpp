@@ -74,14 +74,14 @@ inline constexpr bool has_fast_column_reduction = std::same_as<F, z2> || detail:
 namespace detail::field_ranks {
 
 /// Alive cells of a level, and the position of each local index among them (-1: eliminated).
-struct alive_cells {
+struct indexed_cells {
   std::vector<std::uint32_t> cells;
   std::vector<std::int64_t> position;
 };
 
 template <class F>
-alive_cells alive_at(const reducible_complex<F>& rc, int L, bool reversed) {
-  alive_cells a;
+indexed_cells alive_at(const reducible_complex<F>& rc, int L, bool reversed) {
+  indexed_cells a;
   a.position.assign(rc.size(L), -1);
   for (std::uint32_t i = 0; i < rc.size(L); ++i)
     if (rc.alive(L, i)) {
@@ -100,8 +100,8 @@ alive_cells alive_at(const reducible_complex<F>& rc, int L, bool reversed) {
 /// ∂_L on the alive cells (rows: level L-1, columns: level L), or its transpose. Columns come
 /// out sorted: boundaries are sorted by face and positions keep the order of local indices.
 template <class F>
-sparse_matrix<F> boundary_matrix(const reducible_complex<F>& rc, int L, const alive_cells& lower,
-                                 const alive_cells& upper, bool transpose) {
+sparse_matrix<F> boundary_matrix(const reducible_complex<F>& rc, int L, const indexed_cells& lower,
+                                 const indexed_cells& upper, bool transpose) {
   const std::size_t nr = lower.cells.size(), nc = upper.cells.size();
   if (!transpose) {
     sparse_matrix<F> m(nr, nc);
@@ -147,7 +147,7 @@ std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ra
   field_reduction_options fo{.control = options.control, .phase = "reducing columns over a field"};
   field_reduction_result<F> previous;
   bool have_previous = false;
-  std::vector<detail::field_ranks::alive_cells> alive(static_cast<std::size_t>(nl));
+  std::vector<detail::field_ranks::indexed_cells> alive(static_cast<std::size_t>(nl));
   for (int L = 0; L < nl; ++L) alive[static_cast<std::size_t>(L)] = detail::field_ranks::alive_at(rc, L, options.reversed);
   bool co = options.direction == reduction_direction::coboundary;
   if (options.direction == reduction_direction::automatic) {

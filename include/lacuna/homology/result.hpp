@@ -188,10 +188,10 @@ class homology_result {
     std::vector<R> out;
     std::vector<R> iso(b.isolated.size(), zero<R>());
     for (const auto& e : red) {
-      if (b.core_position[e.index] >= 0)
-        zc[static_cast<std::size_t>(b.core_position[e.index])] += e.value;
-      else if (b.isolated_position[e.index] >= 0)
-        iso[static_cast<std::size_t>(b.isolated_position[e.index])] += e.value;
+      if (b.core.position[e.index] >= 0)
+        zc[static_cast<std::size_t>(b.core.position[e.index])] += e.value;
+      else if (b.isolated.position[e.index] >= 0)
+        iso[static_cast<std::size_t>(b.isolated.position[e.index])] += e.value;
       else
         throw std::logic_error("lacuna: a pushed chain meets an eliminated cell");
     }

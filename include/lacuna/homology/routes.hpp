@@ -89,7 +89,7 @@ dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<le
   dense_matrix<R> D(lb[static_cast<std::size_t>(L - 1)].core.size(), lb[static_cast<std::size_t>(L)].core.size());
   for (std::size_t j = 0; j < lb[static_cast<std::size_t>(L)].core.size(); ++j)
     for (const auto& e : rc.boundary(L, lb[static_cast<std::size_t>(L)].core[j])) {
-      const auto p = lb[static_cast<std::size_t>(L - 1)].core_position[e.index];
+      const auto p = lb[static_cast<std::size_t>(L - 1)].core.position[e.index];
       D(static_cast<std::size_t>(p), j) = to_ring<R>(e.value);
     }
   return D;
@@ -103,16 +103,16 @@ std::vector<level_result<R>> core_level_homology(const reducible_complex<W>& rc,
   lb.assign(static_cast<std::size_t>(nl), {});
   for (int L = 0; L < nl; ++L) {
     auto& b = lb[static_cast<std::size_t>(L)];
-    b.core_position.assign(rc.size(L), -1);
-    b.isolated_position.assign(rc.size(L), -1);
+    b.core.position.assign(rc.size(L), -1);
+    b.isolated.position.assign(rc.size(L), -1);
     for (std::uint32_t i = 0; i < rc.size(L); ++i) {
       if (!rc.alive(L, i)) continue;
       const bool has = !rc.boundary(L, i).empty() || !rc.cofaces(L, i).empty();
       if (has) {
-        b.core_position[i] = static_cast<std::int64_t>(b.core.size());
+        b.core.position[i] = static_cast<std::int64_t>(b.core.size());
         b.core.push_back(i);
       } else {
-        b.isolated_position[i] = static_cast<std::int64_t>(b.isolated.size());
+        b.isolated.position[i] = static_cast<std::int64_t>(b.isolated.size());
         b.isolated.push_back(i);
       }
     }
