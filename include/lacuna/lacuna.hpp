@@ -19,6 +19,7 @@
 #include <lacuna/chain/chain_map.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/indexed_cells.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/chain/reducible_complex.hpp>

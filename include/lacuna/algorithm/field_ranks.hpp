@@ -26,6 +26,7 @@
 
 #include <lacuna/algorithm/field_reduction.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
+#include <lacuna/chain/indexed_cells.hpp>
 #include <lacuna/chain/reducible_complex.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
@@ -74,26 +75,12 @@ inline constexpr bool has_fast_column_reduction = std::same_as<F, z2> || detail:
 namespace detail::field_ranks {
 
 /// Alive cells of a level, and the position of each local index among them (-1: eliminated).
-struct indexed_cells {
-  std::vector<std::uint32_t> cells;
-  std::vector<std::int64_t> position;
-};
-
 template <class F>
 indexed_cells alive_at(const reducible_complex<F>& rc, int L, bool reversed) {
-  indexed_cells a;
-  a.position.assign(rc.size(L), -1);
+  indexed_cells a(rc.size(L));
   for (std::uint32_t i = 0; i < rc.size(L); ++i)
-    if (rc.alive(L, i)) {
-      a.position[i] = static_cast<std::int64_t>(a.cells.size());
-      a.cells.push_back(i);
-    }
-  if (reversed) {
-    std::reverse(a.cells.begin(), a.cells.end());
-    const auto n = static_cast<std::int64_t>(a.cells.size());
-    for (auto& p : a.position)
-      if (p >= 0) p = n - 1 - p;
-  }
+    if (rc.alive(L, i)) a.add(i);
+  if (reversed) a.reverse();
   return a;
 }
 

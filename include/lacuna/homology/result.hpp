@@ -12,6 +12,7 @@
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/indexed_cells.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/homology/options.hpp>
 #include <lacuna/ring/concepts.hpp>
@@ -53,10 +54,8 @@ namespace detail {
 // cycle, read modulo the invariant factors of M.
 template <class R>
 struct level_coordinates {
-  std::vector<std::uint32_t> core;          // surviving cells with incidences (local indices)
-  std::vector<std::int64_t> core_position;  // local index -> position in core or -1
-  std::vector<std::uint32_t> isolated;      // surviving cells without any incidence
-  std::vector<std::int64_t> isolated_position;
+  indexed_cells core;                       // surviving cells with incidences (local indices)
+  indexed_cells isolated;                   // surviving cells without any incidence
   std::size_t boundary_rank = 0;            // rank of D_L
   dense_matrix<R> boundary_v_inverse;       // V^-1 of D_L's Smith form
   dense_matrix<R> quotient_u;               // U_M of M's Smith form

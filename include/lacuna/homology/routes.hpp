@@ -103,18 +103,12 @@ std::vector<level_result<R>> core_level_homology(const reducible_complex<W>& rc,
   lb.assign(static_cast<std::size_t>(nl), {});
   for (int L = 0; L < nl; ++L) {
     auto& b = lb[static_cast<std::size_t>(L)];
-    b.core.position.assign(rc.size(L), -1);
-    b.isolated.position.assign(rc.size(L), -1);
+    b.core = indexed_cells(rc.size(L));
+    b.isolated = indexed_cells(rc.size(L));
     for (std::uint32_t i = 0; i < rc.size(L); ++i) {
       if (!rc.alive(L, i)) continue;
       const bool has = !rc.boundary(L, i).empty() || !rc.cofaces(L, i).empty();
-      if (has) {
-        b.core.position[i] = static_cast<std::int64_t>(b.core.size());
-        b.core.push_back(i);
-      } else {
-        b.isolated.position[i] = static_cast<std::int64_t>(b.isolated.size());
-        b.isolated.push_back(i);
-      }
+      (has ? b.core : b.isolated).add(i);
     }
   }
   std::vector<level_result<R>> out(static_cast<std::size_t>(nl));
