@@ -134,7 +134,7 @@ std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ra
   field_reduction_options fo{.control = options.control, .phase = "reducing columns over a field"};
   field_reduction_result<F> previous;
   bool have_previous = false;
-  std::vector<detail::field_ranks::indexed_cells> alive(static_cast<std::size_t>(nl));
+  std::vector<indexed_cells> alive(static_cast<std::size_t>(nl));
   for (int L = 0; L < nl; ++L) alive[static_cast<std::size_t>(L)] = detail::field_ranks::alive_at(rc, L, options.reversed);
   bool co = options.direction == reduction_direction::coboundary;
   if (options.direction == reduction_direction::automatic) {
