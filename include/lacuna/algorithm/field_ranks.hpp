@@ -136,15 +136,15 @@ std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ra
   bool have_previous = false;
   std::vector<indexed_cells> alive(static_cast<std::size_t>(nl));
   for (int L = 0; L < nl; ++L) alive[static_cast<std::size_t>(L)] = detail::field_ranks::alive_at(rc, L, options.reversed);
-  bool co = options.direction == reduction_direction::coboundary;
+  bool by_coboundary = options.direction == reduction_direction::coboundary;
   if (options.direction == reduction_direction::automatic) {
     const int bottom = rc.dimension_of_level(0) == -1 ? 1 : 0;  // the empty cell of reduced homology
-    co = alive[static_cast<std::size_t>(nl - 1)].cells.size() > alive[static_cast<std::size_t>(bottom)].cells.size();
+    by_coboundary = alive[static_cast<std::size_t>(nl - 1)].cells.size() > alive[static_cast<std::size_t>(bottom)].cells.size();
   }
   for (int t = 0; t < nl - 1; ++t) {
-    const int L = co ? t + 1 : nl - 1 - t;
+    const int L = by_coboundary ? t + 1 : nl - 1 - t;
     const auto A = detail::field_ranks::boundary_matrix(rc, L, alive[static_cast<std::size_t>(L - 1)],
-                                                        alive[static_cast<std::size_t>(L)], co);
+                                                        alive[static_cast<std::size_t>(L)], by_coboundary);
     field_reduction_result<F> r =
         have_previous ? reduce_columns_after(A, previous, fo, algorithm) : reduce_columns(A, fo, algorithm);
     ranks[static_cast<std::size_t>(L)] = r.rank;

@@ -85,9 +85,9 @@ std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std:
   // The direction of field_ranks.hpp's automatic choice: by coboundaries (the transposes, from
   // dimension 1 up) when the top dimension holds more cells than the vertices — the fill-in of
   // a triangulated surface reduced by boundaries is several times larger — else by boundaries.
-  const bool co = top >= 1 && lacuna::cell_count(c, top) > lacuna::cell_count(c, 0);
+  const bool by_coboundary = top >= 1 && lacuna::cell_count(c, top) > lacuna::cell_count(c, 0);
   std::vector<sparse_matrix<mod_p_dynamic>> mats;
-  if (!co) {
+  if (!by_coboundary) {
     for (int k = 1; k <= top; ++k) mats.push_back(boundary_matrix<mod_p_dynamic>(c, k, u));
   } else {
     for (int k = top; k >= 1; --k) {  // ∂_k^T: rows the k-cells, columns the (k-1)-cells
@@ -104,9 +104,9 @@ std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std:
     auto& w = out[static_cast<std::size_t>(k)];
     w.prime = p;
     // A pivot of ∂_k^T at (k-cell, (k-1)-cell) is one of ∂_k at ((k-1)-cell, k-cell).
-    for (const auto& pv : red[static_cast<std::size_t>(co ? top - k : k - 1)].pivots) {
-      w.rows.push_back(co ? pv.column : pv.row);
-      w.columns.push_back(co ? pv.row : pv.column);
+    for (const auto& pv : red[static_cast<std::size_t>(by_coboundary ? top - k : k - 1)].pivots) {
+      w.rows.push_back(by_coboundary ? pv.column : pv.row);
+      w.columns.push_back(by_coboundary ? pv.row : pv.column);
     }
   }
   for (int k = 0; k <= top; ++k) {
