@@ -22,7 +22,7 @@
 #include <lacuna/chain/indexed_cells.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 
 #include <lacuna/algorithm/dense_smith.hpp>

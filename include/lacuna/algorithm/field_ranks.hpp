@@ -27,7 +27,7 @@
 #include <lacuna/algorithm/field_reduction.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/indexed_cells.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/ring/concepts.hpp>
@@ -76,7 +76,7 @@ namespace detail::field_ranks {
 
 /// Alive cells of a level, and the position of each local index among them (-1: eliminated).
 template <class F>
-indexed_cells alive_at(const reducible_complex<F>& rc, int L, bool reversed) {
+indexed_cells alive_at(const elimination_workspace<F>& rc, int L, bool reversed) {
   indexed_cells a(rc.size(L));
   for (std::uint32_t i = 0; i < rc.size(L); ++i)
     if (rc.alive(L, i)) a.add(i);
@@ -87,7 +87,7 @@ indexed_cells alive_at(const reducible_complex<F>& rc, int L, bool reversed) {
 /// ∂_L on the alive cells (rows: level L-1, columns: level L), or its transpose. Columns come
 /// out sorted: boundaries are sorted by face and positions keep the order of local indices.
 template <class F>
-sparse_matrix<F> boundary_matrix(const reducible_complex<F>& rc, int L, const indexed_cells& lower,
+sparse_matrix<F> boundary_matrix(const elimination_workspace<F>& rc, int L, const indexed_cells& lower,
                                  const indexed_cells& upper, bool transpose) {
   const std::size_t nr = lower.cells.size(), nc = upper.cells.size();
   if (!transpose) {
@@ -126,7 +126,7 @@ sparse_matrix<F> boundary_matrix(const reducible_complex<F>& rc, int L, const in
 /// before at a time. Cost: that of reduce_columns on the columns that are not cleared.
 template <field F, class Algorithm = automatic_reduction>
   requires field_reduction_algorithm_for<Algorithm, F>
-std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ranks_options options = {},
+std::vector<std::size_t> boundary_ranks(const elimination_workspace<F>& rc, field_ranks_options options = {},
                                         const Algorithm& algorithm = {}) {
   const int nl = rc.levels();
   std::vector<std::size_t> ranks(static_cast<std::size_t>(nl > 0 ? nl : 0), 0);
@@ -161,7 +161,7 @@ std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ra
 /// Ślusarek 1998), so the numbers are those of the complex rc was built from.
 template <field F, class Algorithm = automatic_reduction>
   requires field_reduction_algorithm_for<Algorithm, F>
-std::vector<std::size_t> field_betti_numbers(reducible_complex<F>& rc, const elimination_options* pre,
+std::vector<std::size_t> field_betti_numbers(elimination_workspace<F>& rc, const elimination_options* pre,
                                              field_ranks_options options = {}, const Algorithm& algorithm = {}) {
   if (pre) {
     elimination_options e = *pre;

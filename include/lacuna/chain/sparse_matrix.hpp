@@ -6,7 +6,7 @@
 
 #include <lacuna/chain/combine_terms.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/ring/concepts.hpp>
 

@@ -10,7 +10,7 @@
 //   * over Z/2 and Z/p: column reductions with clearing (algorithm/field_ranks.hpp).
 // Everything else (generators, coordinates, relative groups of volumes, other variants): the
 // route below.
-// The route below: the complex is indexed into a reducible_complex over working coefficients
+// The route below: the complex is indexed into a elimination_workspace over working coefficients
 // W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot in), and the
 // small core that is left is finished by Smith forms (modular ones where they pay and only
 // groups are asked for, algorithm/modular_smith.hpp; else dense ones with transforms):
@@ -39,7 +39,7 @@
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/complex/concepts.hpp>
@@ -77,7 +77,7 @@ struct level_result {
 // size, with the two transforms of its Smith form, is checked against control->memory_limit
 // before anything is allocated.
 template <class R, class W>
-dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_coordinates<R>>& lb, int L,
+dense_matrix<R> core_matrix(const elimination_workspace<W>& rc, const std::vector<level_coordinates<R>>& lb, int L,
                             const run_control* control = nullptr) {
   const std::uint64_t rows = lb[static_cast<std::size_t>(L - 1)].core.size(),
                       cols = lb[static_cast<std::size_t>(L)].core.size();
@@ -96,7 +96,7 @@ dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<le
 }
 
 template <class R, class W, class Core = smith_core>
-std::vector<level_result<R>> core_level_homology(const reducible_complex<W>& rc, bool want_generators, bool keep,
+std::vector<level_result<R>> core_level_homology(const elimination_workspace<W>& rc, bool want_generators, bool keep,
                                          std::vector<level_coordinates<R>>& lb, const run_control* control = nullptr,
                                          bool want_bounding = false, const Core& core_stage = {}) {
   const int nl = rc.levels();
@@ -216,7 +216,7 @@ elimination_log<R> convert_log(elimination_log<W>&& log) {
 /// invalid_complex naming the first cell whose boundary's boundary (coboundary's coboundary,
 /// on a dual build) is not zero.
 template <class W, cell_complex C>
-void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
+void require_boundary_squared_zero(const elimination_workspace<W>& rc, const C& c) {
   if (const auto bad = first_nonzero_boundary_squared(rc)) {
     const int k = rc.dimension_of_level(bad->first);
     const std::size_t i = rc.original_index(bad->first, bad->second);
@@ -232,13 +232,13 @@ void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
 /// R), with the ∂∂ = 0 precondition checked and the phase "building the chain complex"
 /// reported to build.control (not null).
 template <class R, class W, cell_complex C>
-reducible_complex<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& ring_one) {
+elimination_workspace<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& ring_one) {
   build.control->report("building the chain complex", 0, 1);
-  reducible_complex<W> rc;
+  elimination_workspace<W> rc;
   if constexpr (std::same_as<R, W>)
-    rc = reducible_complex<W>::build(c, build, ring_one);
+    rc = elimination_workspace<W>::build(c, build, ring_one);
   else
-    rc = reducible_complex<W>::build(c, build);
+    rc = elimination_workspace<W>::build(c, build);
   require_boundary_squared_zero(rc, c);  // precondition, checked
   build.control->report("building the chain complex", 1, 1);
   return rc;
@@ -251,7 +251,7 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
                                             const R& ring_one) {
   const run_control* control = &opt.control;
   build.control = control;
-  reducible_complex<W> rc = build_checked_complex<R, W>(c, build, ring_one);
+  elimination_workspace<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
@@ -513,7 +513,7 @@ homology_result<R> coboundary_groups(const C& c, const homology_options& opt, co
   const run_control* control = &opt.control;
   const reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded,
                                       .threads = opt.threads, .control = control};
-  const reducible_complex<W> rc = build_checked_complex<R, W>(c, build, ring_one);
+  const elimination_workspace<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   const auto inv = reduce_coboundaries<R>(rc, alg, control);
   homology_result<R> res;
   res.reduced = opt.reduced;

@@ -1,4 +1,4 @@
-// lacuna/chain/reducible_complex.hpp — a sparse chain complex over R laid out for
+// lacuna/chain/elimination_workspace.hpp — a sparse chain complex over R laid out for
 // elimination, built from any lacuna::cell_complex.
 //
 // Layout, and why: every cell keeps its boundary as a short vector of (face, coefficient)
@@ -43,7 +43,7 @@ struct sparse_entry {
   R value;
 };
 
-/// How to build a reducible_complex from a cell complex.
+/// How to build a elimination_workspace from a cell complex.
 struct reducible_build_options {
   bool augmented = false;  ///< add the empty cell in dimension -1 (reduced homology)
   bool dual = false;       ///< coboundaries as boundaries: level L = dimension top - L
@@ -59,7 +59,7 @@ struct reducible_build_options {
 
 /// A mutable sparse chain complex. R models commutative_ring (the working coefficients).
 template <class R>
-class reducible_complex {
+class elimination_workspace {
  public:
   /// What a reduction did with a cell: still active, eliminated in a pivot pair, or set aside as critical.
   enum class state : std::uint8_t { active, eliminated, critical };
@@ -144,9 +144,9 @@ class reducible_complex {
   /// unit. `ring_one` is the one of R; it matters for rings whose modulus lives in the elements
   /// (mod_p_dynamic: pass a bound one, mod_p_dynamic(1, p)).
   template <cell_complex C>
-  static reducible_complex build(const C& c, reducible_build_options opt = {}, const R& ring_one = one<R>()) {
-    if (opt.dual && opt.augmented) throw std::invalid_argument("reducible_complex: dual and augmented together");
-    reducible_complex rc;
+  static elimination_workspace build(const C& c, reducible_build_options opt = {}, const R& ring_one = one<R>()) {
+    if (opt.dual && opt.augmented) throw std::invalid_argument("elimination_workspace: dual and augmented together");
+    elimination_workspace rc;
     const int top = lacuna::top_dimension(c);
     rc.top_ = top;
     rc.dual_ = opt.dual;
@@ -336,10 +336,10 @@ class reducible_complex {
   /// boundary of column j its entries. `convert` maps an entry to R (and may throw
   /// coefficient_overflow). This is how the elimination of one matrix reuses the engine.
   template <class Matrix, class Convert>
-  static reducible_complex from_matrix(const Matrix& m, Convert convert) {
+  static elimination_workspace from_matrix(const Matrix& m, Convert convert) {
     if (m.rows >= std::numeric_limits<std::uint32_t>::max() || m.cols >= std::numeric_limits<std::uint32_t>::max())
       throw std::length_error("lacuna: a matrix side of 2^32 or more");
-    reducible_complex rc;
+    elimination_workspace rc;
     rc.top_ = 1;
     rc.resize_levels(2);
     rc.state_[0].assign(m.rows, state::active);
