@@ -385,4 +385,10 @@ class elimination_workspace {
   std::vector<std::vector<std::int64_t>> from_original_;
 };
 
+/// The former name of elimination_workspace (renamed because the object is the working state
+/// of an elimination, not a kind of complex); kept so that stages written against it compile.
+template <class R>
+using reducible_complex [[deprecated("lacuna::reducible_complex is now lacuna::elimination_workspace")]] =
+    elimination_workspace<R>;
+
 }  // namespace lacuna
