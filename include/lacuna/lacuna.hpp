@@ -22,6 +22,7 @@
 #include <lacuna/chain/indexed_cells.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
+#include <lacuna/chain/term.hpp>
 #include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 

@@ -18,6 +18,7 @@
 
 #include <lacuna/ring/checked.hpp>
 #include <lacuna/chain/run_control.hpp>
+#include <lacuna/chain/term.hpp>
 #include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/complex/concepts.hpp>
@@ -34,14 +35,10 @@
 
 namespace lacuna {
 
-/// One non-zero entry of a sparse column or row.
+/// One non-zero entry of a sparse column or row: `index` is its row (or column), `value` is
+/// non-zero. The one term type (chain/term.hpp) with 32-bit indices.
 template <class R>
-struct sparse_entry {
-  /// The row (or column) of the entry.
-  std::uint32_t index;
-  /// Its value, non-zero.
-  R value;
-};
+using sparse_entry = term<std::uint32_t, R>;
 
 /// How to build a elimination_workspace from a cell complex.
 struct reducible_build_options {
