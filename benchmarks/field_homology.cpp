@@ -20,7 +20,7 @@
 #include "bench_support.hpp"
 
 #include <lacuna/algorithm/field_ranks.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/complex/construct/graph_complexes.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/homology/homology.hpp>
@@ -89,7 +89,7 @@ void variant(benchmark::State& state, const C& c, bool pre, lacuna::reduction_di
   const long before = lacuna_bench::begin_peak();
   for (auto _ : state) {
     state.PauseTiming();
-    auto rc = lacuna::reducible_complex<F>::build(c);
+    auto rc = lacuna::elimination_workspace<F>::build(c);
     state.ResumeTiming();
     lacuna::elimination_options e;
     e.markowitz = false;
@@ -117,7 +117,7 @@ void order_variant(benchmark::State& state, const C& c, bool reversed, lacuna::r
   const long before = lacuna_bench::begin_peak();
   for (auto _ : state) {
     state.PauseTiming();
-    auto rc = lacuna::reducible_complex<F>::build(c);
+    auto rc = lacuna::elimination_workspace<F>::build(c);
     state.ResumeTiming();
     betti = lacuna::field_betti_numbers(rc, nullptr, {.direction = direction, .reversed = reversed});
     benchmark::DoNotOptimize(betti);

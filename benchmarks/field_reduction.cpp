@@ -21,10 +21,10 @@ using lacuna::sparse_matrix;
 constexpr std::uint64_t m61 = (std::uint64_t{1} << 61U) - 1;
 
 template <class F>
-const sparse_matrix<F>& torus_boundary(int k, int d, const F& unit = lacuna::one<F>()) {
+const sparse_matrix<F>& torus_boundary(int k, int d, const F& ring_one = lacuna::one<F>()) {
   static std::map<std::pair<int, int>, sparse_matrix<F>> cache;
   auto it = cache.find({k, d});
-  if (it == cache.end()) it = cache.emplace(std::pair{k, d}, lacuna::boundary_matrix<F>(lacuna_bench::torus(k), d, unit)).first;
+  if (it == cache.end()) it = cache.emplace(std::pair{k, d}, lacuna::boundary_matrix<F>(lacuna_bench::torus(k), d, ring_one)).first;
   return it->second;
 }
 

@@ -74,7 +74,7 @@ std::string group_text(const lacuna::homology_group<R>& g, const std::string& fi
 // Runs homology under the budget: a timer thread requests the stop unless the computation
 // ends first. nullopt when stopped (lacuna::computation_stopped: nothing partial is returned).
 template <class R, class C>
-std::optional<lacuna::homology_result<R>> under_budget(const C& c, double budget, const R& unit) {
+std::optional<lacuna::homology_result<R>> under_budget(const C& c, double budget, const R& ring_one) {
   std::stop_source stop;
   std::jthread timer([&](std::stop_token done) {
     std::mutex mx;
@@ -84,14 +84,14 @@ std::optional<lacuna::homology_result<R>> under_budget(const C& c, double budget
     if (!done.stop_requested()) stop.request_stop();
   });
   try {
-    return lacuna::homology<R>(c, {.reduced = true, .control = {.stop = stop.get_token()}}, lacuna::sparse_elimination{}, unit);
+    return lacuna::homology<R>(c, {.reduced = true, .control = {.stop = stop.get_token()}}, lacuna::sparse_elimination{}, ring_one);
   } catch (const lacuna::computation_stopped&) {
     return std::nullopt;
   }
 }
 
 template <class R>
-bool hunt(const settings& s, const R& unit) {
+bool hunt(const settings& s, const R& ring_one) {
   const std::string field = s.ring == "Z" ? "Z" : s.ring;
   bool all_ok = true;
   for (int n = s.from; n <= s.to; ++n) {
@@ -113,7 +113,7 @@ bool hunt(const settings& s, const R& unit) {
     std::printf("%-10s %9lld cells  ", name.c_str(), cells);
     std::fflush(stdout);
     const auto t0 = std::chrono::steady_clock::now();
-    const auto h = under_budget(c, s.budget, unit);
+    const auto h = under_budget(c, s.budget, ring_one);
     const double secs = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
     if (!h) return std::printf("stopped at the budget of %g s (after %.2f s)\n", s.budget, secs), all_ok;  // larger ones take longer
     std::string groups, checks = ok ? "faces ok" : "faces FAIL";

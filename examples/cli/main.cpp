@@ -386,19 +386,19 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
     write_result(out);
     return;
   }
-  auto go = [&]<class R>(const R& unit) {
+  auto go = [&]<class R>(const R& ring_one) {
     // Cohomology runs the same elimination on the dual (transposed) chain complex, of the same
     // size: the homology estimate is its estimate too.
     reserve_memory(lacuna::estimate_homology_memory<R>(cx, ho, algorithm_for<C>(o)), ho.control);
     if (o.cohomology) {
-      report(cx, lacuna::cohomology<R>(cx, ho, algorithm_for<C>(o), unit), o, out);
+      report(cx, lacuna::cohomology<R>(cx, ho, algorithm_for<C>(o), ring_one), o, out);
       return;
     }
     auto compute = [&]<class S>(const S& u, const lacuna::homology_options& opt) {
       return marks ? lacuna::relative_homology<S>(cx, *marks, opt, algorithm_for<C>(o), u)
                    : lacuna::homology<S>(cx, opt, algorithm_for<C>(o), u);
     };
-    const auto h = compute(unit, ho);
+    const auto h = compute(ring_one, ho);
     if (!o.picture.empty()) svg = picture_of(cx, h, o);
     if (!o.check) return report(cx, h, o, out, marks);
     // --check: over a field, the integral groups too (ranks and torsion, no generators)
@@ -776,14 +776,14 @@ void run_sequence(const run_options& o) {
   with_input(o, [&](const auto& cx, const marks_t* marks) {
     progress.phase("computing the long exact sequence");
     std::string out;
-    auto go = [&]<class R>(const R& unit) {
+    auto go = [&]<class R>(const R& ring_one) {
       // the sequence computes the homology of X, A and (X, A) with generators: X's estimate
       // with generators, three times
       lacuna::run_control unused;
       auto e = lacuna::estimate_homology_memory<R>(cx, {.generators = true});
       e.bytes = e.bytes > ~std::uint64_t{0} / 3 ? ~std::uint64_t{0} : 3 * e.bytes;
       reserve_memory(e, unused);
-      report_sequence(cx, lacuna::long_exact_sequence<R>(cx, *marks, unit), o, out);
+      report_sequence(cx, lacuna::long_exact_sequence<R>(cx, *marks, ring_one), o, out);
     };
     switch (o.co.k) {
       case coefficients::integers: go(lacuna::one<lacuna::integer>()); break;

@@ -182,14 +182,14 @@ void collect(const Result& r, long long top, outcome& out) {
   }
 }
 
-/// The persistence of f over the field of `unit`, diagrams 0..top, pairs of persistence zero
+/// The persistence of f over the field of `ring_one`, diagrams 0..top, pairs of persistence zero
 /// dropped, cut after `last` when given.
 template <class F, class R, class V = lacuna::filtration_value_t<F>>
-void compute(const F& f, long long top, const std::optional<V>& last, const run_context& context, const R& unit,
+void compute(const F& f, long long top, const std::optional<V>& last, const run_context& context, const R& ring_one,
              outcome& out) {
   lacuna::persistence_options o{.max_dimension = static_cast<int>(top)};
   o.control.stop = context.stop;
-  auto r = lacuna::persistence<R>(f, o, lacuna::automatic_persistence{}, unit);
+  auto r = lacuna::persistence<R>(f, o, lacuna::automatic_persistence{}, ring_one);
   if (last) r = lacuna::up_to(std::move(r), *last);
   collect(lacuna::without_zero_persistence(std::move(r)), top, out);
 }
@@ -268,8 +268,8 @@ void run_rips_explicit(const persistence_command::settings& s, const field_choic
     const auto c = lacuna::io::read_points(std::filesystem::path(s.file));
     if (!c.empty()) f = lacuna::rips_filtration::from_points(c.coordinates, c.dimension, ro);
   }
-  with_field(field, [&](const auto& unit) {
-    compute(f, top, std::optional<double>{}, context, unit, out);
+  with_field(field, [&](const auto& ring_one) {
+    compute(f, top, std::optional<double>{}, context, ring_one, out);
   });
 }
 
@@ -296,10 +296,10 @@ void run_rips(const persistence_command::settings& s, const field_choice& field,
     const auto c = lacuna::io::read_points(std::filesystem::path(s.file));
     if (!c.empty()) m = lacuna::rips_metric::from_points(c.coordinates, c.dimension);
   }
-  with_field(field, [&](const auto& unit) {
-    using R = std::remove_cvref_t<decltype(unit)>;
-    if (!s.cycles) return collect(lacuna::implicit_rips_persistence<R>(m, o, unit), top, out);
-    const auto r = lacuna::implicit_rips_persistence_with_cocycles<R>(m, o, unit);
+  with_field(field, [&](const auto& ring_one) {
+    using R = std::remove_cvref_t<decltype(ring_one)>;
+    if (!s.cycles) return collect(lacuna::implicit_rips_persistence<R>(m, o, ring_one), top, out);
+    const auto r = lacuna::implicit_rips_persistence_with_cocycles<R>(m, o, ring_one);
     collect(r.persistence, top, out);
     out.has_cocycles = true;
     out.cocycles.assign(out.text.size(), {});
@@ -362,7 +362,7 @@ void run_values(const C& complex, lacuna::io::value_names kind, const persistenc
   std::optional<double> last;
   if (s.up_to) last = parse_up_to(*s.up_to);
   out.filtration = "values";
-  with_field(field, [&](const auto& unit) { compute(*f, top, last, context, unit, out); });
+  with_field(field, [&](const auto& ring_one) { compute(*f, top, last, context, ring_one, out); });
 }
 
 /// The sublevel (or superlevel) filtration of an image's or a volume's samples. --up-to V keeps
@@ -393,7 +393,7 @@ void run_samples(const std::array<std::size_t, D>& extents, std::vector<std::int
     out.values.assign(out.text.size(), {});
     return;
   }
-  with_field(field, [&](const auto& unit) { compute(f, top, last, context, unit, out); });
+  with_field(field, [&](const auto& ring_one) { compute(f, top, last, context, ring_one, out); });
 }
 
 // ---- output -------------------------------------------------------------------------------

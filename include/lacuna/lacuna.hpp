@@ -19,9 +19,11 @@
 #include <lacuna/chain/chain_map.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/indexed_cells.hpp>
 #include <lacuna/chain/slotted_lists.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/term.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 
 #include <lacuna/algorithm/dense_smith.hpp>

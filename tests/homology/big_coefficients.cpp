@@ -1,7 +1,7 @@
 // Incidence numbers beyond int64, end to end: a .cells file with the coefficient 2^70, read
 // exactly, through the engine over Z (int64 fast path, then the widening to lacuna::integer),
 // Q, Z/2, Z/3, Z/65521, cohomology, every elimination variant, boundary matrices and
-// reducible_complex over the rings directly. Expected values, each from:
+// elimination_workspace over the rings directly. Expected values, each from:
 //   * the Moore space M(Z/n, 1) = S^1 ∪_n e^2 has H_0 = Z, H_1 = Z/n, H_2 = 0 (cellular
 //     homology: ∂_2 = n, ∂_1 = 0; Hatcher, Algebraic Topology, 2002, Example 2.40 for the
 //     idea — from memory);
@@ -12,7 +12,7 @@
 #include "support.hpp"
 
 #include <lacuna/chain/checked_coefficient.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/complex/validate.hpp>
 #include <lacuna/homology/universal_coefficients.hpp>
@@ -113,7 +113,7 @@ TEST_CASE("big coefficients that cancel, that meet small ones, and -2^63 - 1") {
   REQUIRE(cpp_int("9223372036854775809") == cpp_int(3) * cpp_int("3074457345618258603"));
 }
 
-TEST_CASE("boundary_matrix and reducible_complex map big incidences into R exactly") {
+TEST_CASE("boundary_matrix and elimination_workspace map big incidences into R exactly") {
   const auto c = moore(two70);
   const auto z = lacuna::boundary_matrix<integer>(c, 2);
   REQUIRE(z.columns[0].size() == 1);
@@ -128,14 +128,14 @@ TEST_CASE("boundary_matrix and reducible_complex map big incidences into R exact
         lacuna::rational(cpp_int(two70), cpp_int(1)));
   // the fast path refuses to hold it: coefficient_overflow, which makes the engine widen
   CHECK_THROWS_AS(lacuna::boundary_matrix<lacuna::checked_int64>(c, 2), lacuna::coefficient_overflow);
-  CHECK_THROWS_AS(lacuna::reducible_complex<lacuna::checked_int64>::build(c), lacuna::coefficient_overflow);
-  const auto rc = lacuna::reducible_complex<integer>::build(c);
+  CHECK_THROWS_AS(lacuna::elimination_workspace<lacuna::checked_int64>::build(c), lacuna::coefficient_overflow);
+  const auto rc = lacuna::elimination_workspace<integer>::build(c);
   REQUIRE(rc.boundary(2, 0).size() == 1);
   CHECK(rc.boundary(2, 0)[0].value == integer(integer::big_type(two70)));
-  const auto r3 = lacuna::reducible_complex<lacuna::mod_p<3>>::build(c);
+  const auto r3 = lacuna::elimination_workspace<lacuna::mod_p<3>>::build(c);
   CHECK(r3.boundary(2, 0)[0].value == lacuna::mod_p<3>(1));
   // the dual (cohomology) layout carries the same value
-  const auto dual = lacuna::reducible_complex<integer>::build(c, {.dual = true});
+  const auto dual = lacuna::elimination_workspace<integer>::build(c, {.dual = true});
   CHECK(dual.boundary(0, 0).empty());        // level 0 = dimension 2: r has no coboundary
   REQUIRE(dual.boundary(1, 0).size() == 1);  // level 1 = dimension 1: the coboundary of q is 2^70 r
   CHECK(dual.boundary(1, 0)[0].value == integer(integer::big_type(two70)));

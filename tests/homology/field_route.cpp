@@ -17,7 +17,7 @@
 #include "random_properties.hpp"
 
 #include <lacuna/algorithm/field_ranks.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 
 #include <doctest/doctest.h>
@@ -65,7 +65,7 @@ void same_as_old(const C& c, const F& unit = lacuna::one<F>()) {
         const bool pre = setting == 1, reversed = setting == 2;
         CAPTURE(static_cast<int>(dir));
         CAPTURE(setting);
-        auto rc = lacuna::reducible_complex<F>::build(c, {.augmented = reduced, .dual = co}, unit);
+        auto rc = lacuna::elimination_workspace<F>::build(c, {.augmented = reduced, .dual = co}, unit);
         lacuna::elimination_options e;
         e.markowitz = false;
         const auto levels =

@@ -7,7 +7,7 @@
 #include "homology/support.hpp"
 
 #include <lacuna/algorithm/elimination_maps.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/complex/construct/product.hpp>
 
 #include <random>
@@ -29,7 +29,7 @@ integer pairing(const lacuna::level_chain<integer>& phi, const lacuna::level_cha
 
 TEST_CASE("pull_cochains is the transpose of push_chain") {
   const auto c = lacuna::product(lacuna_test::six_vertex_rp2(), lacuna::cell_list::klein_bottle());
-  auto rc = lacuna::reducible_complex<integer>::build(c);
+  auto rc = lacuna::elimination_workspace<integer>::build(c);
   lacuna::elimination_log<integer> log;
   lacuna::eliminate_unit_pivots(rc, {.record = true, .record_pivots = true}, &log);
   std::mt19937_64 rng(11);

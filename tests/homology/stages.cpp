@@ -35,7 +35,7 @@ group Z(std::size_t r, std::vector<std::string> t = {}) { return {r, std::move(t
 struct counting_pre_reduction {
   std::shared_ptr<std::size_t> seen = std::make_shared<std::size_t>(0);
   template <class W>
-  void reduce(lacuna::reducible_complex<W>& rc, lacuna::elimination_log<W>*, const lacuna::run_control*) const {
+  void reduce(lacuna::elimination_workspace<W>& rc, lacuna::elimination_log<W>*, const lacuna::run_control*) const {
     for (int L = 0; L < rc.levels(); ++L)
       for (std::uint32_t i = 0; i < rc.size(L); ++i)
         if (rc.alive(L, i)) ++*seen;
@@ -46,7 +46,7 @@ struct counting_pre_reduction {
 /// route must then run at lacuna::integer from the start.
 struct integer_only_pre_reduction {
   std::shared_ptr<int> calls = std::make_shared<int>(0);
-  void reduce(lacuna::reducible_complex<integer>&, lacuna::elimination_log<integer>*, const lacuna::run_control*) const {
+  void reduce(lacuna::elimination_workspace<integer>&, lacuna::elimination_log<integer>*, const lacuna::run_control*) const {
     ++*calls;
   }
 };

@@ -23,7 +23,7 @@ using lacuna::integer;
 /// (rank − #torsion of them, the units come first) then the non-unit factors.
 template <class W, class C>
 std::vector<std::vector<std::string>> route_invariants(const C& c, const lacuna::coboundary_reduction& options = {}) {
-  const auto rc = lacuna::reducible_complex<W>::build(c);
+  const auto rc = lacuna::elimination_workspace<W>::build(c);
   const auto inv = lacuna::reduce_coboundaries<integer>(rc, options);
   std::vector<std::vector<std::string>> out;
   for (std::size_t L = 0; L + 1 < inv.size(); ++L) {
@@ -89,7 +89,7 @@ TEST_CASE("a reduction beyond 64 bits: checked_int64 throws, lacuna::integer giv
   const std::int64_t big = std::int64_t{1} << 40;
   c.add_cell(2, "c0", {{a, big}, {b, 3}});
   c.add_cell(2, "c1", {{a, 1}, {b, big}});
-  const auto rc = lacuna::reducible_complex<lacuna::checked_int64>::build(c);
+  const auto rc = lacuna::elimination_workspace<lacuna::checked_int64>::build(c);
   CHECK_THROWS_AS(lacuna::reduce_coboundaries<integer>(rc), lacuna::coefficient_overflow);
   CHECK(route_invariants<integer>(c) == flint_all(c));
   // and the homology front widens by itself

@@ -238,17 +238,17 @@ class cubical_morse_complex {
   /// g: a chain of the Morse complex -> the chain of the original complex it stands for
   /// (original cell indices). `original` must be the complex this was computed from.
   template <euclidean_domain R>
-  chain<R> lift(const cubical_complex<D>& original, const chain<R>& z, const R& unit = one<R>()) const {
+  chain<R> lift(const cubical_complex<D>& original, const chain<R>& z, const R& ring_one = one<R>()) const {
     const int k = z.dimension;
     chain<R> out{k, {}};
     std::unordered_map<std::uint64_t, R> result;
     flow<R>(
-        unit,
+        ring_one,
         [&](auto&& add) {
           for (const auto& t : z.terms) {
             const std::uint64_t key = keys_.at(static_cast<std::size_t>(k)).at(t.cell);
             result[key] += t.coefficient;
-            if (k >= 1) for_each_face(key, [&](std::uint64_t f, std::int64_t w) { add(f, from_integer<R>(w) * unit * t.coefficient); });
+            if (k >= 1) for_each_face(key, [&](std::uint64_t f, std::int64_t w) { add(f, from_integer<R>(w) * ring_one * t.coefficient); });
           }
         },
         [](std::uint64_t, const R&) {},  // g(σ) = σ + the cofaces the flow goes through
@@ -261,13 +261,13 @@ class cubical_morse_complex {
 
   /// f: a chain of the original complex (original cell indices) -> a chain of the Morse complex.
   template <euclidean_domain R>
-  chain<R> project(const cubical_complex<D>& original, const chain<R>& x, const R& unit = one<R>()) const {
+  chain<R> project(const cubical_complex<D>& original, const chain<R>& x, const R& ring_one = one<R>()) const {
     const int k = x.dimension;
     chain<R> out{k, {}};
     if (k < 0 || k > top_) return out;
     const auto& crit = keys_[static_cast<std::size_t>(k)];
     flow<R>(
-        unit,
+        ring_one,
         [&](auto&& add) {
           for (const auto& t : x.terms) add(key_of_position(original.position(k, t.cell)), t.coefficient);
         },
@@ -364,8 +364,8 @@ class cubical_morse_complex {
   };
   /// lift and project: the shared gradient flow on this complex's gradient.
   template <class R, class Seed, class Reached, class Through>
-  void flow(const R& unit, Seed&& seed, Reached&& reached, Through&& through) const {
-    gradient_flow<R>(gradient_view{this}, unit, std::forward<Seed>(seed), std::forward<Reached>(reached),
+  void flow(const R& ring_one, Seed&& seed, Reached&& reached, Through&& through) const {
+    gradient_flow<R>(gradient_view{this}, ring_one, std::forward<Seed>(seed), std::forward<Reached>(reached),
                      std::forward<Through>(through));
   }
   std::int64_t incidence_of(std::uint64_t up, std::uint64_t face) const {

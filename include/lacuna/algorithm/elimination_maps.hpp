@@ -21,7 +21,7 @@
 
 namespace lacuna {
 
-/// A chain at one level of a reducible_complex: (local index, coefficient) pairs.
+/// A chain at one level of a elimination_workspace: (local index, coefficient) pairs.
 template <class R>
 using level_chain = std::vector<sparse_entry<R>>;
 

@@ -26,7 +26,8 @@
 
 #include <lacuna/algorithm/field_reduction.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/indexed_cells.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/ring/concepts.hpp>
@@ -74,34 +75,20 @@ inline constexpr bool has_fast_column_reduction = std::same_as<F, z2> || detail:
 namespace detail::field_ranks {
 
 /// Alive cells of a level, and the position of each local index among them (-1: eliminated).
-struct alive_cells {
-  std::vector<std::uint32_t> cells;
-  std::vector<std::int64_t> position;
-};
-
 template <class F>
-alive_cells alive_at(const reducible_complex<F>& rc, int L, bool reversed) {
-  alive_cells a;
-  a.position.assign(rc.size(L), -1);
+indexed_cells alive_at(const elimination_workspace<F>& rc, int L, bool reversed) {
+  indexed_cells a(rc.size(L));
   for (std::uint32_t i = 0; i < rc.size(L); ++i)
-    if (rc.alive(L, i)) {
-      a.position[i] = static_cast<std::int64_t>(a.cells.size());
-      a.cells.push_back(i);
-    }
-  if (reversed) {
-    std::reverse(a.cells.begin(), a.cells.end());
-    const auto n = static_cast<std::int64_t>(a.cells.size());
-    for (auto& p : a.position)
-      if (p >= 0) p = n - 1 - p;
-  }
+    if (rc.alive(L, i)) a.add(i);
+  if (reversed) a.reverse();
   return a;
 }
 
 /// ∂_L on the alive cells (rows: level L-1, columns: level L), or its transpose. Columns come
 /// out sorted: boundaries are sorted by face and positions keep the order of local indices.
 template <class F>
-sparse_matrix<F> boundary_matrix(const reducible_complex<F>& rc, int L, const alive_cells& lower,
-                                 const alive_cells& upper, bool transpose) {
+sparse_matrix<F> boundary_matrix(const elimination_workspace<F>& rc, int L, const indexed_cells& lower,
+                                 const indexed_cells& upper, bool transpose) {
   const std::size_t nr = lower.cells.size(), nc = upper.cells.size();
   if (!transpose) {
     sparse_matrix<F> m(nr, nc);
@@ -139,7 +126,7 @@ sparse_matrix<F> boundary_matrix(const reducible_complex<F>& rc, int L, const al
 /// before at a time. Cost: that of reduce_columns on the columns that are not cleared.
 template <field F, class Algorithm = automatic_reduction>
   requires field_reduction_algorithm_for<Algorithm, F>
-std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ranks_options options = {},
+std::vector<std::size_t> boundary_ranks(const elimination_workspace<F>& rc, field_ranks_options options = {},
                                         const Algorithm& algorithm = {}) {
   const int nl = rc.levels();
   std::vector<std::size_t> ranks(static_cast<std::size_t>(nl > 0 ? nl : 0), 0);
@@ -147,17 +134,17 @@ std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ra
   field_reduction_options fo{.control = options.control, .phase = "reducing columns over a field"};
   field_reduction_result<F> previous;
   bool have_previous = false;
-  std::vector<detail::field_ranks::alive_cells> alive(static_cast<std::size_t>(nl));
+  std::vector<indexed_cells> alive(static_cast<std::size_t>(nl));
   for (int L = 0; L < nl; ++L) alive[static_cast<std::size_t>(L)] = detail::field_ranks::alive_at(rc, L, options.reversed);
-  bool co = options.direction == reduction_direction::coboundary;
+  bool by_coboundary = options.direction == reduction_direction::coboundary;
   if (options.direction == reduction_direction::automatic) {
     const int bottom = rc.dimension_of_level(0) == -1 ? 1 : 0;  // the empty cell of reduced homology
-    co = alive[static_cast<std::size_t>(nl - 1)].cells.size() > alive[static_cast<std::size_t>(bottom)].cells.size();
+    by_coboundary = alive[static_cast<std::size_t>(nl - 1)].cells.size() > alive[static_cast<std::size_t>(bottom)].cells.size();
   }
   for (int t = 0; t < nl - 1; ++t) {
-    const int L = co ? t + 1 : nl - 1 - t;
+    const int L = by_coboundary ? t + 1 : nl - 1 - t;
     const auto A = detail::field_ranks::boundary_matrix(rc, L, alive[static_cast<std::size_t>(L - 1)],
-                                                        alive[static_cast<std::size_t>(L)], co);
+                                                        alive[static_cast<std::size_t>(L)], by_coboundary);
     field_reduction_result<F> r =
         have_previous ? reduce_columns_after(A, previous, fo, algorithm) : reduce_columns(A, fo, algorithm);
     ranks[static_cast<std::size_t>(L)] = r.rank;
@@ -174,7 +161,7 @@ std::vector<std::size_t> boundary_ranks(const reducible_complex<F>& rc, field_ra
 /// Ślusarek 1998), so the numbers are those of the complex rc was built from.
 template <field F, class Algorithm = automatic_reduction>
   requires field_reduction_algorithm_for<Algorithm, F>
-std::vector<std::size_t> field_betti_numbers(reducible_complex<F>& rc, const elimination_options* pre,
+std::vector<std::size_t> field_betti_numbers(elimination_workspace<F>& rc, const elimination_options* pre,
                                              field_ranks_options options = {}, const Algorithm& algorithm = {}) {
   if (pre) {
     elimination_options e = *pre;

@@ -29,6 +29,7 @@
 
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
+#include <lacuna/chain/term.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/mod_p.hpp>
 #include <lacuna/ring/primality.hpp>
@@ -127,10 +128,7 @@ struct field_reduction_result {
 namespace detail::field_red {
 
 template <class V>
-struct term {
-  std::uint32_t index;
-  V value;
-};
+using term = lacuna::term<std::uint32_t, V>;
 template <class V>
 using column = std::vector<term<V>>;
 

@@ -41,20 +41,20 @@ concept discrete_gradient = requires(const G& g, typename G::cell_type x, typena
 };
 
 /// Flows the chain that `seed(add)` puts in — add(cell, coefficient) — along the gradient g,
-/// as described at the top of this header. R models commutative_ring; `unit` is its one
+/// as described at the top of this header. R models commutative_ring; `ring_one` is its one
 /// (rings with a run-time modulus). The stop request of `control` (may be null) is looked at
 /// every 4096 steps. Throws std::logic_error when a face of a partner does not have a lower
 /// priority than the cell it came from (the matching is not acyclic).
 /// Cost: O(m log m) ring operations, m the cells of the paths met.
 template <class R, discrete_gradient G, class Seed, class Reached, class Through>
-void gradient_flow(const G& g, const R& unit, Seed&& seed, Reached&& reached, Through&& through,
+void gradient_flow(const G& g, const R& ring_one, Seed&& seed, Reached&& reached, Through&& through,
                    const run_control* control = nullptr) {
   using cell = typename G::cell_type;
   // A cell that is its own priority (G::priority_is_cell) goes on the heap as it is; else
   // (priority, cell), ordered by priority first.
   constexpr bool bare = requires { requires G::priority_is_cell; };
   using heap_entry = std::conditional_t<bare, cell, std::pair<std::uint64_t, cell>>;
-  const R zero_r = zero<R>() * unit;
+  const R zero_r = zero<R>() * ring_one;
   std::unordered_map<cell, R> pending;
   std::vector<heap_entry> heap;  // the largest priority on top
   auto add = [&](cell f, const R& v) {
@@ -94,7 +94,7 @@ void gradient_flow(const G& g, const R& unit, Seed&& seed, Reached&& reached, Th
       if (f == x) return;
       if (static_cast<std::uint64_t>(g.priority(f)) >= from)
         throw std::logic_error("lacuna: gradient_flow: the matching is not acyclic");
-      add(f, w * (from_integer<R>(incidence) * unit));
+      add(f, w * (from_integer<R>(incidence) * ring_one));
     });
   }
 }

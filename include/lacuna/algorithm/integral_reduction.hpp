@@ -36,7 +36,7 @@
 #include <lacuna/algorithm/smith_normal_form.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/sparse_matrix.hpp>
 #include <lacuna/ring/concepts.hpp>
@@ -329,7 +329,7 @@ smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dens
 /// large remainder found few units and left a denser matrix (matching complex of K_12: the
 /// 17 007 x 137 remainder became 113 x 16 952 and its Smith form slower), so none is made.
 template <euclidean_domain R, class W>
-std::vector<coboundary_invariants<R>> reduce_coboundaries(const reducible_complex<W>& rc,
+std::vector<coboundary_invariants<R>> reduce_coboundaries(const elimination_workspace<W>& rc,
                                                           const coboundary_reduction& options = {},
                                                           const run_control* control = nullptr) {
   using entry = sparse_entry<W>;

@@ -106,31 +106,31 @@ class morse_complex {
 
   /// g: a chain of the Morse complex to a chain of the original, g(σ) = σ plus the cells of
   /// the gradient paths from σ. A chain map with project(lift(z)) == z. R models
-  /// euclidean_domain; `unit` is the one of R (rings with a run-time modulus). The stop
+  /// euclidean_domain; `ring_one` is the one of R (rings with a run-time modulus). The stop
   /// request of `control` (may be null) is looked at every few thousand steps. Throws
   /// std::invalid_argument for a cell or dimension that does not exist.
   /// Cost: O(m log m) ring operations, m the number of cells on the gradient paths met.
   template <euclidean_domain R>
-  chain<R> lift(const chain<R>& on_morse, const R& unit = one<R>(), const run_control* control = nullptr) const {
+  chain<R> lift(const chain<R>& on_morse, const R& ring_one = one<R>(), const run_control* control = nullptr) const {
     if (control) control->check();
     const int k = on_morse.dimension;
     chain<R> out{k, {}};
     if (on_morse.terms.empty()) return out;
     const auto& d = checked_dim(k);
-    const R zero_r = zero<R>() * unit;
+    const R zero_r = zero<R>() * ring_one;
     for (const auto& t : on_morse.terms) {
       if (t.cell >= d.critical.size()) throw std::invalid_argument("lacuna: a chain names a critical cell that does not exist");
       if (!(t.coefficient == zero_r)) out.terms.push_back({d.critical[t.cell], t.coefficient});
     }
     if (k > 0)  // g(σ) = σ + the cofaces the flow goes through
       gradient_flow<R>(
-          gradient(k - 1), unit,
+          gradient(k - 1), ring_one,
           [&](auto&& add) {
             for (const auto& t : on_morse.terms) {
               if (t.coefficient == zero_r) continue;
               const std::uint32_t s = d.critical[t.cell];
               for (std::size_t p = d.offsets[s]; p < d.offsets[s + 1]; ++p)
-                add(d.faces[p], from_integer<R>(d.coefficients[p]) * unit * t.coefficient);
+                add(d.faces[p], from_integer<R>(d.coefficients[p]) * ring_one * t.coefficient);
             }
           },
           [](std::uint32_t, const R&) {}, [&](std::uint32_t u, const R& w) { out.terms.push_back({u, w}); }, control);
@@ -141,7 +141,7 @@ class morse_complex {
   /// f: a chain of the original complex to a chain of the Morse complex. A chain map with
   /// f∘g = id; R, unit, control and errors as for lift.
   template <euclidean_domain R>
-  chain<R> project(const chain<R>& on_original, const R& unit = one<R>(), const run_control* control = nullptr) const {
+  chain<R> project(const chain<R>& on_original, const R& ring_one = one<R>(), const run_control* control = nullptr) const {
     if (control) control->check();
     const int k = on_original.dimension;
     chain<R> out{k, {}};
@@ -150,7 +150,7 @@ class morse_complex {
     for (const auto& t : on_original.terms)
       if (t.cell >= d.kind.size()) throw std::invalid_argument("lacuna: a chain names a cell that does not exist");
     gradient_flow<R>(
-        gradient(k), unit,
+        gradient(k), ring_one,
         [&](auto&& add) {
           for (const auto& t : on_original.terms) add(static_cast<std::uint32_t>(t.cell), t.coefficient);
         },

@@ -106,7 +106,7 @@ namespace detail {
 template <euclidean_domain R, class W, class Convert>
 smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimination& alg, Convert convert,
                                  const run_control* control) {
-  auto rc = reducible_complex<W>::from_matrix(A, convert);
+  auto rc = elimination_workspace<W>::from_matrix(A, convert);
   auto opt = alg.effective_elimination();
   opt.set_aside = false;
   opt.record = false;

@@ -2,7 +2,7 @@
 // the concepts a stage models, the built-in stages, and the policy value that chains them.
 //
 // The elimination route (homology/homology.hpp) builds the chain complex of a cell complex as
-// a reducible_complex over working coefficients W, reduces it, and finishes the small core
+// a elimination_workspace over working coefficients W, reduces it, and finishes the small core
 // that is left with Smith forms. Three stages, each open:
 //   1. a pre-reduction (reduction_stage): zero-fill pivots, e.g. coreductions and collapses;
 //   2. an elimination (reduction_stage) with its pivot rule (pivot_rule,
@@ -33,7 +33,7 @@
 #include <lacuna/algorithm/smith_invariants.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/integer.hpp>
@@ -45,12 +45,12 @@
 namespace lacuna {
 
 /// The open stage "reduction of the chain complex" at working coefficients W: a type with
-/// `reduce(reducible_complex<W>&, elimination_log<W>* log, const run_control* control)`
+/// `reduce(elimination_workspace<W>&, elimination_log<W>* log, const run_control* control)`
 /// (log and control may be null). Contract at the top of this header.
 template <class S, class W>
 concept reduction_stage =
     std::copy_constructible<S> &&
-    requires(const S& s, reducible_complex<W>& rc, elimination_log<W>* log, const run_control* control) {
+    requires(const S& s, elimination_workspace<W>& rc, elimination_log<W>* log, const run_control* control) {
       s.reduce(rc, log, control);
     };
 
@@ -66,7 +66,7 @@ concept core_stage = std::copy_constructible<S> && requires(const S& s, dense_ma
 struct no_reduction {
   /// Does nothing.
   template <class W>
-  void reduce(reducible_complex<W>&, elimination_log<W>*, const run_control*) const {}
+  void reduce(elimination_workspace<W>&, elimination_log<W>*, const run_control*) const {}
 };
 
 /// The built-in pre-reduction: zero-fill pivots only — coreductions (Mrozek & Batko 2009) and
@@ -77,7 +77,7 @@ struct zero_fill_reduction {
   bool collapses = true;     ///< pivots from a face with a single coface
   /// Runs eliminate_unit_pivots without Markowitz pivots.
   template <class W>
-  void reduce(reducible_complex<W>& rc, elimination_log<W>* log, const run_control* control) const {
+  void reduce(elimination_workspace<W>& rc, elimination_log<W>* log, const run_control* control) const {
     eliminate_unit_pivots(rc,
                           {.coreductions = coreductions, .collapses = collapses, .set_aside = true,
                            .markowitz = false, .record = log != nullptr, .second_pass = false, .control = control},
@@ -93,7 +93,7 @@ struct unit_pivot_elimination {
   Rule rule{};  ///< the order of the pivots
   /// Runs eliminate_unit_pivots with `rule`.
   template <class W>
-  void reduce(reducible_complex<W>& rc, elimination_log<W>* log, const run_control* control) const {
+  void reduce(elimination_workspace<W>& rc, elimination_log<W>* log, const run_control* control) const {
     eliminate_unit_pivots(rc,
                           {.coreductions = true, .collapses = true, .set_aside = false, .markowitz = true,
                            .record = log != nullptr, .second_pass = false, .revive_critical = true, .control = control},

@@ -23,7 +23,7 @@
 #pragma once
 
 #include <lacuna/chain/checked_coefficient.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/ring/concepts.hpp>
 #include <lacuna/ring/euclid.hpp>
@@ -160,10 +160,10 @@ bool unit_inverse(const R& c, R& inv) {
 
 template <class R, class Rule = markowitz_rule>
 class unit_eliminator {
-  using st = typename reducible_complex<R>::state;
+  using st = typename elimination_workspace<R>::state;
 
  public:
-  unit_eliminator(reducible_complex<R>& rc, const elimination_options& opt, elimination_log<R>* log,
+  unit_eliminator(elimination_workspace<R>& rc, const elimination_options& opt, elimination_log<R>* log,
                   const Rule& rule = {})
       : rc_(rc), opt_(opt), log_(log), rule_(rule), ticker_(opt.control, "eliminating unit pivots", total_cells(rc)) {}
 
@@ -210,7 +210,7 @@ class unit_eliminator {
           for (const auto& e : rc_.boundary(L, i)) rc_.add_coface(L - 1, e.index, i);
   }
   bool critical(int L, std::uint32_t i) const { return rc_.cell_state(L, i) == st::critical; }
-  static std::uint64_t total_cells(const reducible_complex<R>& rc) {
+  static std::uint64_t total_cells(const elimination_workspace<R>& rc) {
     std::uint64_t n = 0;
     for (int L = 0; L < rc.levels(); ++L) n += rc.size(L);
     return n;
@@ -466,7 +466,7 @@ class unit_eliminator {
     rc_.set_boundary(L, y, scratch_);
   }
 
-  reducible_complex<R>& rc_;
+  elimination_workspace<R>& rc_;
   elimination_options opt_;
   elimination_log<R>* log_;
   Rule rule_;
@@ -494,13 +494,13 @@ class unit_eliminator {
 /// the Markowitz count). Cells set aside as critical by an earlier elimination are given back
 /// to the pivot search when options.revive_critical is set.
 template <class R, pivot_rule Rule = markowitz_rule>
-elimination_statistics eliminate_unit_pivots(reducible_complex<R>& rc, elimination_options options = {},
+elimination_statistics eliminate_unit_pivots(elimination_workspace<R>& rc, elimination_options options = {},
                                              elimination_log<R>* log = nullptr, const Rule& rule = {}) {
   if (options.revive_critical)
     for (int L = 0; L < rc.levels(); ++L)
       for (std::uint32_t i = 0; i < rc.size(L); ++i)
-        if (rc.cell_state(L, i) == reducible_complex<R>::state::critical)
-          rc.cell_state(L, i) = reducible_complex<R>::state::active;
+        if (rc.cell_state(L, i) == elimination_workspace<R>::state::critical)
+          rc.cell_state(L, i) = elimination_workspace<R>::state::active;
   detail::unit_eliminator<R, Rule> e(rc, options, log, rule);
   return e.run();
 }

@@ -1,4 +1,4 @@
-// lacuna/chain/boundary_squared.hpp — the check ∂∂ = 0 on a reducible_complex, right after it
+// lacuna/chain/boundary_squared.hpp — the check ∂∂ = 0 on a elimination_workspace, right after it
 // is built: the engine refuses a "complex" whose boundary of a boundary is not zero, whose
 // homology would be no homology at all.
 //
@@ -9,7 +9,7 @@
 // docs/reliability.md has its cost: a few percent of homology().
 #pragma once
 
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/ring/concepts.hpp>
 
 #include <cstdint>
@@ -23,7 +23,7 @@ namespace lacuna::detail {
 /// bottom; none when rc is a chain complex. With the augmentation (reduced homology) the empty
 /// cell is left out: ε∂ = 0 is not asked of a complex.
 template <class W>
-std::optional<std::pair<int, std::uint32_t>> first_nonzero_boundary_squared(const reducible_complex<W>& rc) {
+std::optional<std::pair<int, std::uint32_t>> first_nonzero_boundary_squared(const elimination_workspace<W>& rc) {
   std::vector<W> acc;  // over the cells two levels down, zero between cells
   for (int L = 2; L < rc.levels(); ++L) {
     if (rc.dimension_of_level(L - 2) < 0) continue;  // the empty cell of the augmentation

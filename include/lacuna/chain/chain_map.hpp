@@ -65,13 +65,13 @@ using chain_map_coefficient_t = std::remove_cvref_t<
 
 /// The image in R of a coefficient of a chain map (integral: through from_integer, times unit).
 template <class R, class T>
-R map_coefficient_in(const T& c, const R& unit = one<R>()) {
+R map_coefficient_in(const T& c, const R& ring_one = one<R>()) {
   if constexpr (std::same_as<std::remove_cvref_t<T>, R>)
     return c;
   else if constexpr (std::integral<T>)
-    return from_integer<R>(static_cast<std::int64_t>(c)) * unit;
+    return from_integer<R>(static_cast<std::int64_t>(c)) * ring_one;
   else if constexpr (std::same_as<std::remove_cvref_t<T>, integer>)
-    return coefficient_in<R>(c, unit);
+    return coefficient_in<R>(c, ring_one);
   else
     return static_cast<R>(c);
 }
@@ -79,11 +79,11 @@ R map_coefficient_in(const T& c, const R& unit = one<R>()) {
 /// f applied to a chain over R (terms naming cells of the source; the result names cells of
 /// the target, normalized).
 template <commutative_ring R, chain_map F>
-chain<R> apply_map(const F& f, const chain<R>& c, const R& unit = one<R>()) {
+chain<R> apply_map(const F& f, const chain<R>& c, const R& ring_one = one<R>()) {
   chain<R> out{c.dimension, {}};
   for (const auto& t : c.terms)
     for (auto&& im : f.image(c.dimension, t.cell))
-      out.terms.push_back({static_cast<std::size_t>(im.cell), map_coefficient_in<R>(im.coefficient, unit) * t.coefficient});
+      out.terms.push_back({static_cast<std::size_t>(im.cell), map_coefficient_in<R>(im.coefficient, ring_one) * t.coefficient});
   out.normalize_terms();
   return out;
 }
@@ -468,7 +468,7 @@ struct chain_map_report {
 /// of Y and that ∂f = f∂ on every cell; stops at the first failure (lowest dimension, then
 /// index) and names it.
 template <commutative_ring R = integer, chain_map F, cell_complex X_t, cell_complex Y_t>
-chain_map_report check_chain_map(const F& f, const X_t& X, const Y_t& Y, const R& unit = one<R>()) {
+chain_map_report check_chain_map(const F& f, const X_t& X, const Y_t& Y, const R& ring_one = one<R>()) {
   auto fail = [&](int k, std::size_t i, const std::string& why) {
     return chain_map_report{false, k, i,
                             "the " + std::to_string(k) + "-cell " + std::to_string(i) + " ('" + lacuna::cell_name(X, k, i) +
@@ -482,7 +482,7 @@ chain_map_report check_chain_map(const F& f, const X_t& X, const Y_t& Y, const R
         if (k > lacuna::top_dimension(Y) || c >= lacuna::cell_count(Y, k))
           return fail(k, i, "its image names the " + std::to_string(k) + "-cell " + std::to_string(c) +
                                 ", which the target does not have");
-        fi.terms.push_back({c, map_coefficient_in<R>(t.coefficient, unit)});
+        fi.terms.push_back({c, map_coefficient_in<R>(t.coefficient, ring_one)});
       }
       fi.normalize_terms();
       if (k == 0) continue;
@@ -491,20 +491,20 @@ chain_map_report check_chain_map(const F& f, const X_t& X, const Y_t& Y, const R
       for (const auto& t : fi.terms)
         for (auto&& v : lacuna::boundary(Y, k, t.cell)) {
           const exact_incidence e = as_exact_incidence(v);
-          lhs.terms.push_back({e.face, coefficient_in<R>(e.coefficient, unit) * t.coefficient});
+          lhs.terms.push_back({e.face, coefficient_in<R>(e.coefficient, ring_one) * t.coefficient});
         }
       lhs.normalize_terms();
       // f(∂e).
       chain<R> de{k - 1, {}};
       for (auto&& v : lacuna::boundary(X, k, i)) {
         const exact_incidence e = as_exact_incidence(v);
-        de.terms.push_back({e.face, coefficient_in<R>(e.coefficient, unit)});
+        de.terms.push_back({e.face, coefficient_in<R>(e.coefficient, ring_one)});
       }
       de.normalize_terms();
       chain<R> rhs{k - 1, {}};
       for (const auto& t : de.terms)
         for (auto&& u : f.image(k - 1, t.cell))
-          rhs.terms.push_back({static_cast<std::size_t>(u.cell), map_coefficient_in<R>(u.coefficient, unit) * t.coefficient});
+          rhs.terms.push_back({static_cast<std::size_t>(u.cell), map_coefficient_in<R>(u.coefficient, ring_one) * t.coefficient});
       rhs.normalize_terms();
       if (!(lhs == rhs)) {
         // Name the first face where the two sides differ.

@@ -6,7 +6,7 @@
 
 #include <lacuna/chain/combine_terms.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/ring/concepts.hpp>
 
@@ -59,7 +59,7 @@ struct sparse_matrix {
 /// from_integer<R>(n) * unit, and those beyond int64 coefficient_in<R>(n, unit) (exact; for
 /// checked_int64 they throw coefficient_overflow). Repeated faces add up in R.
 template <commutative_ring R, cell_complex C>
-sparse_matrix<R> boundary_matrix(const C& c, int k, const R& unit = one<R>()) {
+sparse_matrix<R> boundary_matrix(const C& c, int k, const R& ring_one = one<R>()) {
   const std::size_t cols = k >= 0 && k <= lacuna::top_dimension(c) ? lacuna::cell_count(c, k) : 0;
   const std::size_t rows = k >= 1 && k - 1 <= lacuna::top_dimension(c) ? lacuna::cell_count(c, k - 1) : 0;
   sparse_matrix<R> m(rows, cols);
@@ -68,9 +68,9 @@ sparse_matrix<R> boundary_matrix(const C& c, int k, const R& unit = one<R>()) {
     for (auto&& v : lacuna::boundary(c, k, j)) {
       if constexpr (small_incidence_like<std::remove_cvref_t<decltype(v)>>) {
         const incidence inc = as_incidence(v);
-        m.add(inc.face, j, from_integer<R>(inc.coefficient) * unit);
+        m.add(inc.face, j, from_integer<R>(inc.coefficient) * ring_one);
       } else {
-        m.add(incidence_face(v), j, coefficient_in<R>(coefficient_as_integer(v), unit));
+        m.add(incidence_face(v), j, coefficient_in<R>(coefficient_as_integer(v), ring_one));
       }
     }
   m.normalize();

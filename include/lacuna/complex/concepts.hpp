@@ -194,12 +194,12 @@ incidence as_incidence(const V& v) {
 /// The image of the integer n in R: from_integer<R>(n) * unit for a 64-bit value; beyond, by
 /// Horner's rule in base 2^62 on |n| with from_integer on every digit, so it holds for Z, Q,
 /// Z/p and every ring that maps machine integers. For lacuna::checked_int64 a value beyond
-/// 64 bits overflows in the ring's own arithmetic (coefficient_overflow). `unit` is the one of
+/// 64 bits overflows in the ring's own arithmetic (coefficient_overflow). `ring_one` is the one of
 /// R (it matters for rings whose modulus lives in the elements).
 template <class R>
-R coefficient_in(const integer& n, const R& unit = one<R>()) {
+R coefficient_in(const integer& n, const R& ring_one = one<R>()) {
   if (n.is_small()) [[likely]]
-    return from_integer<R>(n.small_value()) * unit;
+    return from_integer<R>(n.small_value()) * ring_one;
   constexpr unsigned bits = 62;
   const integer::big_type mask = (integer::big_type(1) << bits) - 1;
   integer::big_type m = n.to_big();
@@ -210,9 +210,9 @@ R coefficient_in(const integer& n, const R& unit = one<R>()) {
     digits.push_back(static_cast<std::int64_t>(m & mask));
     m >>= bits;
   }
-  const R base = from_integer<R>(std::int64_t{1} << bits) * unit;
-  R acc = zero<R>() * unit;
-  for (std::size_t d = digits.size(); d-- > 0;) acc = acc * base + from_integer<R>(digits[d]) * unit;
+  const R base = from_integer<R>(std::int64_t{1} << bits) * ring_one;
+  R acc = zero<R>() * ring_one;
+  for (std::size_t d = digits.size(); d-- > 0;) acc = acc * base + from_integer<R>(digits[d]) * ring_one;
   return negative ? -acc : acc;
 }
 

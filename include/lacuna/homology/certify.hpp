@@ -85,9 +85,9 @@ std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std:
   // The direction of field_ranks.hpp's automatic choice: by coboundaries (the transposes, from
   // dimension 1 up) when the top dimension holds more cells than the vertices — the fill-in of
   // a triangulated surface reduced by boundaries is several times larger — else by boundaries.
-  const bool co = top >= 1 && lacuna::cell_count(c, top) > lacuna::cell_count(c, 0);
+  const bool by_coboundary = top >= 1 && lacuna::cell_count(c, top) > lacuna::cell_count(c, 0);
   std::vector<sparse_matrix<mod_p_dynamic>> mats;
-  if (!co) {
+  if (!by_coboundary) {
     for (int k = 1; k <= top; ++k) mats.push_back(boundary_matrix<mod_p_dynamic>(c, k, u));
   } else {
     for (int k = top; k >= 1; --k) {  // ∂_k^T: rows the k-cells, columns the (k-1)-cells
@@ -104,9 +104,9 @@ std::vector<rank_witness> rank_witnesses(const C& c, std::uint64_t p, const std:
     auto& w = out[static_cast<std::size_t>(k)];
     w.prime = p;
     // A pivot of ∂_k^T at (k-cell, (k-1)-cell) is one of ∂_k at ((k-1)-cell, k-cell).
-    for (const auto& pv : red[static_cast<std::size_t>(co ? top - k : k - 1)].pivots) {
-      w.rows.push_back(co ? pv.column : pv.row);
-      w.columns.push_back(co ? pv.row : pv.column);
+    for (const auto& pv : red[static_cast<std::size_t>(by_coboundary ? top - k : k - 1)].pivots) {
+      w.rows.push_back(by_coboundary ? pv.column : pv.row);
+      w.columns.push_back(by_coboundary ? pv.row : pv.column);
     }
   }
   for (int k = 0; k <= top; ++k) {
@@ -356,26 +356,26 @@ certified_homology_result<R> certified_homology(const C& c, homology_options opt
     const auto& b = basis.levels[L];
     if (!basis.from_original[L].empty()) throw std::logic_error("lacuna::certified_homology: cells were excluded");
     // The coordinate forms on the level, in the order of the generators (coordinates_on_levels).
-    const std::size_t n = b.core.size(), kdim = n - b.r;
+    const std::size_t n = b.core.size(), kdim = n - b.boundary_rank;
     std::vector<level_chain<R>> forms;
     for (std::uint32_t cell : b.isolated) forms.push_back({{cell, one<R>()}});
     auto row = [&](std::size_t i) {  // row i of U_M · V_inv[r.., :], on the core cells
       level_chain<R> f;
       std::vector<R> v(n, zero<R>());
       for (std::size_t t = 0; t < kdim; ++t) {
-        const R& u = b.U_M(i, t);
+        const R& u = b.quotient_u(i, t);
         if (u == zero<R>()) continue;
         for (std::size_t j = 0; j < n; ++j)
-          if (!(b.V_inv(b.r + t, j) == zero<R>())) v[j] += u * b.V_inv(b.r + t, j);
+          if (!(b.boundary_v_inverse(b.boundary_rank + t, j) == zero<R>())) v[j] += u * b.boundary_v_inverse(b.boundary_rank + t, j);
       }
       for (std::size_t j = 0; j < n; ++j)
         if (!(v[j] == zero<R>())) f.push_back({b.core[j], v[j]});
       return f;
     };
     std::vector<R> moduli(b.isolated.size(), zero<R>());
-    for (std::size_t i = b.factors.size(); i < kdim; ++i) forms.push_back(row(i)), moduli.push_back(zero<R>());
-    for (std::size_t i = 0; i < b.factors.size(); ++i)
-      if (!detail::ring_is_unit(b.factors[i])) forms.push_back(row(i)), moduli.push_back(b.factors[i]);
+    for (std::size_t i = b.quotient_factors.size(); i < kdim; ++i) forms.push_back(row(i)), moduli.push_back(zero<R>());
+    for (std::size_t i = 0; i < b.quotient_factors.size(); ++i)
+      if (!detail::ring_is_unit(b.quotient_factors[i])) forms.push_back(row(i)), moduli.push_back(b.quotient_factors[i]);
     auto pulled = pull_cochains(basis.log, static_cast<int>(L), basis.level_sizes[L], forms, &options.control);
     for (std::size_t j = 0; j < pulled.size(); ++j) {
       chain<R> phi{k, {}};

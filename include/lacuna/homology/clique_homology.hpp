@@ -179,7 +179,7 @@ struct clique_homology_result {
 template <euclidean_domain R, simplex_label Label, std::ranges::input_range Edges>
 clique_homology_result<R, Label> clique_homology(const std::vector<Label>& vertices, const Edges& edges,
                                                  int max_dimension, const clique_homology_options& options = {},
-                                                 const R& unit = one<R>()) {
+                                                 const R& ring_one = one<R>()) {
   if (max_dimension < 0) throw std::invalid_argument("clique_homology: negative dimension bound");
   const run_control* control = &options.homology.control;
   clique_homology_result<R, Label> out;
@@ -268,7 +268,7 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
     detail::add_clique_facets(core_higher, max_size, cb);
     out.core = std::move(cb).finalize();
   }
-  out.core_homology = homology<R>(out.core, options.homology, options.algorithm, unit);
+  out.core_homology = homology<R>(out.core, options.homology, options.algorithm, ring_one);
 
   // Assemble: the groups of the core, zero up to the complex's top, the top from counts
   // when the bound bites.
@@ -308,8 +308,8 @@ clique_homology_result<R, Label> clique_homology(const std::vector<Label>& verti
 template <euclidean_domain R, simplex_label Label>
 clique_homology_result<R, Label> clique_homology(const std::vector<std::pair<Label, Label>>& edges, int max_dimension,
                                                  const clique_homology_options& options = {},
-                                                 const R& unit = one<R>()) {
-  return clique_homology<R>(std::vector<Label>{}, edges, max_dimension, options, unit);
+                                                 const R& ring_one = one<R>()) {
+  return clique_homology<R>(std::vector<Label>{}, edges, max_dimension, options, ring_one);
 }
 
 }  // namespace lacuna

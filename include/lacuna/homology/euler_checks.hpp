@@ -87,9 +87,9 @@ euler_report euler_checks(const C& X, const euler_check_options& options = {}) {
   const std::int64_t chiQ = detail::chi_of(homology<rational>(X));
   add("χ(X) from cell counts = Σ(-1)^n dim H_n(X; Q)", cells, chiQ);
   for (auto p : options.primes) {
-    const mod_p_dynamic unit(1, p);
+    const mod_p_dynamic ring_one(1, p);
     add("χ(X) from cell counts = Σ(-1)^n dim H_n(X; Z/" + std::to_string(p) + ")", cells,
-        detail::chi_of(homology<mod_p_dynamic>(X, {}, sparse_elimination{}, unit)));
+        detail::chi_of(homology<mod_p_dynamic>(X, {}, sparse_elimination{}, ring_one)));
   }
   if (options.subcomplex) {
     const auto& m = *options.subcomplex;

@@ -252,7 +252,7 @@ struct pair_sequence {
 /// in_subcomplex[k][i] (closed under faces: else lacuna::invalid_complex naming the cell).
 template <euclidean_domain R, cell_complex C>
 pair_sequence<R> long_exact_sequence(const C& X, const std::vector<std::vector<bool>>& in_subcomplex,
-                                     const R& unit = one<R>()) {
+                                     const R& ring_one = one<R>()) {
   pair_sequence<R> p;
   p.A = make_included_subcomplex(X, in_subcomplex);
   p.top = lacuna::top_dimension(X);
@@ -262,9 +262,9 @@ pair_sequence<R> long_exact_sequence(const C& X, const std::vector<std::vector<b
     for (std::size_t i = 0; i < lacuna::cell_count(X, k); ++i) marks[static_cast<std::size_t>(k)][i] = p.A.selection.contains(k, i);
   }
   const homology_options opt{.generators = true};
-  p.hA = homology<R>(p.A.complex, opt, sparse_elimination{}, unit);
-  p.hX = homology<R>(X, opt, sparse_elimination{}, unit);
-  p.hXA = relative_homology<R>(X, marks, opt, sparse_elimination{}, unit);
+  p.hA = homology<R>(p.A.complex, opt, sparse_elimination{}, ring_one);
+  p.hX = homology<R>(X, opt, sparse_elimination{}, ring_one);
+  p.hXA = relative_homology<R>(X, marks, opt, sparse_elimination{}, ring_one);
   for (int n = 0; n <= p.top; ++n) {
     p.i_star.push_back(induced_map(p.A.inclusion, p.hA, p.hX, n));
     p.j_star.push_back(induced_map(identity_map{}, p.hX, p.hXA, n));
@@ -273,7 +273,7 @@ pair_sequence<R> long_exact_sequence(const C& X, const std::vector<std::vector<b
       for (const auto& t : z.terms)
         for (auto&& v : lacuna::boundary(X, n, t.cell)) {
           const exact_incidence e = as_exact_incidence(v);
-          b.terms.push_back({e.face, coefficient_in<R>(e.coefficient, unit) * t.coefficient});
+          b.terms.push_back({e.face, coefficient_in<R>(e.coefficient, ring_one) * t.coefficient});
         }
       b.normalize_terms();
       chain<R> in_a{n - 1, {}};

@@ -38,7 +38,7 @@ concept homology_algorithm = smith_algorithm<P> || std::same_as<P, coboundary_re
 
 /// The homology of c over R (R models euclidean_domain; fields give dimensions, the
 /// integers give ranks and torsion). Algorithm: sparse_elimination{} (default) or
-/// dense_elimination{} (the small-matrix reference). See homology_options. `unit` is the one
+/// dense_elimination{} (the small-matrix reference). See homology_options. `ring_one` is the one
 /// of R, for rings whose elements carry a run-time modulus (mod_p_dynamic(1, p)).
 /// Precondition, checked when the chain complex is built (as are cohomology's and
 /// relative_homology's; chain/boundary_squared.hpp, about a tenth of the build's cost): ∂∂ = 0
@@ -48,18 +48,18 @@ concept homology_algorithm = smith_algorithm<P> || std::same_as<P, coboundary_re
 /// dense core passes options.control.memory_limit (homology/memory_estimate.hpp).
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> homology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
-                            const R& unit = one<R>()) {
+                            const R& ring_one = one<R>()) {
   if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
-    return detail::homology_by_coboundaries<R>(c, options, algorithm, nullptr, unit);
+    return detail::homology_by_coboundaries<R>(c, options, algorithm, nullptr, ring_one);
   } else {
     if constexpr (std::same_as<Algorithm, sparse_elimination>) {
-      if (auto r = detail::duality_homology<R>(c, options, algorithm, false, unit)) return std::move(*r);
+      if (auto r = detail::duality_homology<R>(c, options, algorithm, false, ring_one)) return std::move(*r);
       if (detail::coboundary_route_by_default<R, C>(options, algorithm))
-        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, nullptr, unit);
+        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, nullptr, ring_one);
       if (algorithm.reduction == pre_reduction::morse)
-        if (auto r = detail::morse_homology<R>(c, options, algorithm, false, unit)) return std::move(*r);
+        if (auto r = detail::morse_homology<R>(c, options, algorithm, false, ring_one)) return std::move(*r);
     }
-    return detail::assemble<R>(c, options, algorithm, false, nullptr, unit);
+    return detail::assemble<R>(c, options, algorithm, false, nullptr, ring_one);
   }
 }
 
@@ -69,15 +69,15 @@ homology_result<R> homology(const C& c, homology_options options = {}, const Alg
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> relative_homology(const C& c, const std::vector<std::vector<bool>>& in_subcomplex,
                                      homology_options options = {}, const Algorithm& algorithm = {},
-                                     const R& unit = one<R>()) {
+                                     const R& ring_one = one<R>()) {
   if (options.reduced) throw std::invalid_argument("lacuna: relative homology is not augmented");
   if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
-    return detail::homology_by_coboundaries<R>(c, options, algorithm, &in_subcomplex, unit);
+    return detail::homology_by_coboundaries<R>(c, options, algorithm, &in_subcomplex, ring_one);
   } else {
     if constexpr (std::same_as<Algorithm, sparse_elimination>)
       if (detail::coboundary_route_by_default<R, C>(options, algorithm))
-        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, &in_subcomplex, unit);
-    return detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, unit);
+        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, &in_subcomplex, ring_one);
+    return detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, ring_one);
   }
 }
 
@@ -85,16 +85,16 @@ homology_result<R> relative_homology(const C& c, const std::vector<std::vector<b
 /// the cells they take the value 1 on, with coefficients).
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> cohomology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
-                              const R& unit = one<R>()) {
+                              const R& ring_one = one<R>()) {
   if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
-    return detail::assemble<R>(c, options, sparse_elimination{}, true, nullptr, unit);  // not on this route
+    return detail::assemble<R>(c, options, sparse_elimination{}, true, nullptr, ring_one);  // not on this route
   } else {
     if constexpr (std::same_as<Algorithm, sparse_elimination>) {
-      if (auto r = detail::duality_homology<R>(c, options, algorithm, true, unit)) return std::move(*r);
+      if (auto r = detail::duality_homology<R>(c, options, algorithm, true, ring_one)) return std::move(*r);
       if (algorithm.reduction == pre_reduction::morse)
-        if (auto r = detail::morse_homology<R>(c, options, algorithm, true, unit)) return std::move(*r);
+        if (auto r = detail::morse_homology<R>(c, options, algorithm, true, ring_one)) return std::move(*r);
     }
-    return detail::assemble<R>(c, options, algorithm, true, nullptr, unit);
+    return detail::assemble<R>(c, options, algorithm, true, nullptr, ring_one);
   }
 }
 

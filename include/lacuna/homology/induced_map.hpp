@@ -103,15 +103,15 @@ induced_homomorphism<R> homomorphism_from_generators(const homology_result<R>& s
 /// generators) of f: X -> Y.
 template <euclidean_domain R, chain_map F>
 induced_homomorphism<R> induced_map(const F& f, const homology_result<R>& hX, const homology_result<R>& hY, int n) {
-  const R unit = hY.unit_;
-  return detail::homomorphism_from_generators(hX, n, hY, n, [&](const chain<R>& z) { return apply_map(f, z, unit); });
+  const R ring_one = hY.ring_one_;
+  return detail::homomorphism_from_generators(hX, n, hY, n, [&](const chain<R>& z) { return apply_map(f, z, ring_one); });
 }
 
 /// H_n(f) for every n in 0..top(X), computing the homology of X and Y over R.
 template <euclidean_domain R, chain_map F, cell_complex X_t, cell_complex Y_t>
-std::vector<induced_homomorphism<R>> induced_maps(const F& f, const X_t& X, const Y_t& Y, const R& unit = one<R>()) {
-  const auto hX = homology<R>(X, {.generators = true}, sparse_elimination{}, unit);
-  const auto hY = homology<R>(Y, {.keep_basis = true}, sparse_elimination{}, unit);
+std::vector<induced_homomorphism<R>> induced_maps(const F& f, const X_t& X, const Y_t& Y, const R& ring_one = one<R>()) {
+  const auto hX = homology<R>(X, {.generators = true}, sparse_elimination{}, ring_one);
+  const auto hY = homology<R>(Y, {.keep_basis = true}, sparse_elimination{}, ring_one);
   std::vector<induced_homomorphism<R>> out;
   for (int n = 0; n <= lacuna::top_dimension(X); ++n) out.push_back(induced_map(f, hX, hY, n));
   return out;

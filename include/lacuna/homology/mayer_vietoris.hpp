@@ -115,7 +115,7 @@ chain<R> restrict_to(const included_subcomplex& s, const chain<R>& z) {
 /// cell). Throws std::invalid_argument naming a cell of X in neither A nor B.
 template <euclidean_domain R, cell_complex Cx>
 mayer_vietoris_sequence<R> mayer_vietoris(const Cx& X, const std::vector<std::vector<bool>>& in_a,
-                                          const std::vector<std::vector<bool>>& in_b, const R& unit = one<R>()) {
+                                          const std::vector<std::vector<bool>>& in_b, const R& ring_one = one<R>()) {
   auto marked = [](const std::vector<std::vector<bool>>& m, int k, std::size_t i) {
     return static_cast<std::size_t>(k) < m.size() && i < m[static_cast<std::size_t>(k)].size() &&
            m[static_cast<std::size_t>(k)][i];
@@ -131,10 +131,10 @@ mayer_vietoris_sequence<R> mayer_vietoris(const Cx& X, const std::vector<std::ve
   mv.B = make_included_subcomplex(X, in_b);
   mv.C = make_included_subcomplex(X, [&](int k, std::size_t i) { return marked(in_a, k, i) && marked(in_b, k, i); });
   const homology_options opt{.generators = true};
-  mv.hA = homology<R>(mv.A.complex, opt, sparse_elimination{}, unit);
-  mv.hB = homology<R>(mv.B.complex, opt, sparse_elimination{}, unit);
-  mv.hC = homology<R>(mv.C.complex, opt, sparse_elimination{}, unit);
-  mv.hX = homology<R>(X, opt, sparse_elimination{}, unit);
+  mv.hA = homology<R>(mv.A.complex, opt, sparse_elimination{}, ring_one);
+  mv.hB = homology<R>(mv.B.complex, opt, sparse_elimination{}, ring_one);
+  mv.hC = homology<R>(mv.C.complex, opt, sparse_elimination{}, ring_one);
+  mv.hX = homology<R>(X, opt, sparse_elimination{}, ring_one);
   auto coords = [](const homology_result<R>& h, int n) { return detail::coordinate_count(h, n); };
   auto free_of = [](const homology_result<R>& h, int n) { return detail::has_group(h, n) ? h[n].rank : std::size_t{0}; };
   for (int n = 0; n <= mv.top; ++n) {
@@ -148,7 +148,7 @@ mayer_vietoris_sequence<R> mayer_vietoris(const Cx& X, const std::vector<std::ve
     const std::size_t nC = coords(mv.hC, n);
     dense_matrix<R> phi(nA + nB, nC);
     for (std::size_t j = 0; j < nC; ++j) {
-      const chain<R> x = apply_map(mv.C.inclusion, mv.hC[n].generators[j], unit);
+      const chain<R> x = apply_map(mv.C.inclusion, mv.hC[n].generators[j], ring_one);
       if (nA) {
         const auto a = mv.hA.coordinates(detail::restrict_to(mv.A, x));
         for (std::size_t i = 0; i < nA; ++i) phi(posA(i), j) = a[i];
@@ -164,11 +164,11 @@ mayer_vietoris_sequence<R> mayer_vietoris(const Cx& X, const std::vector<std::ve
     dense_matrix<R> psi(nX, nA + nB);
     if (nX) {
       for (std::size_t j = 0; j < nA; ++j) {
-        const auto y = mv.hX.coordinates(apply_map(mv.A.inclusion, mv.hA[n].generators[j], unit));
+        const auto y = mv.hX.coordinates(apply_map(mv.A.inclusion, mv.hA[n].generators[j], ring_one));
         for (std::size_t i = 0; i < nX; ++i) psi(i, posA(j)) = y[i];
       }
       for (std::size_t j = 0; j < nB; ++j) {
-        const auto y = mv.hX.coordinates(apply_map(mv.B.inclusion, mv.hB[n].generators[j], unit));
+        const auto y = mv.hX.coordinates(apply_map(mv.B.inclusion, mv.hB[n].generators[j], ring_one));
         for (std::size_t i = 0; i < nX; ++i) psi(i, posB(j)) = y[i];
       }
     }
@@ -180,7 +180,7 @@ mayer_vietoris_sequence<R> mayer_vietoris(const Cx& X, const std::vector<std::ve
         if (!mv.A.selection.contains(n, t.cell)) continue;
         for (auto&& v : lacuna::boundary(X, n, t.cell)) {
           const exact_incidence e = as_exact_incidence(v);
-          b.terms.push_back({e.face, coefficient_in<R>(e.coefficient, unit) * t.coefficient});
+          b.terms.push_back({e.face, coefficient_in<R>(e.coefficient, ring_one) * t.coefficient});
         }
       }
       b.normalize_terms();

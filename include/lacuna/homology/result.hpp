@@ -4,13 +4,15 @@
 // The basis kept for coordinates(): the elimination log of the route (a chain map from the
 // complex to its reduced core, algorithm/elimination_maps.hpp) and, per level, the transforms
 // of the core's Smith forms (homology/routes.hpp says how they are made): a cycle is pushed
-// through the log onto the core, multiplied by V^-1, and its coordinates read off through U_M.
+// through the log onto the core, multiplied by V^-1, and its coordinates read off through U_M
+// (detail::level_coordinates).
 #pragma once
 
 #include <lacuna/algorithm/elimination_maps.hpp>
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
+#include <lacuna/chain/indexed_cells.hpp>
 #include <lacuna/complex/concepts.hpp>
 #include <lacuna/homology/options.hpp>
 #include <lacuna/ring/concepts.hpp>
@@ -45,22 +47,25 @@ struct homology_group {
 
 namespace detail {
 
+// What coordinates() needs at one level L of the core. With D_L the boundary out of level L
+// and U D_L V = diag its Smith form, the cycles are the columns of V past D_L's rank, and the
+// quotient matrix M (rows boundary_rank.. of V^-1 D_{L+1}: the next boundary in that cycle
+// basis) has its own Smith form U_M M V_M; a class's coordinates are U_M V^-1 applied to a
+// cycle, read modulo the invariant factors of M.
 template <class R>
-struct level_basis {
-  std::vector<std::uint32_t> core;          // surviving cells with incidences (local indices)
-  std::vector<std::int64_t> core_position;  // local index -> position in core or -1
-  std::vector<std::uint32_t> isolated;      // surviving cells without any incidence
-  std::vector<std::int64_t> isolated_position;
-  std::size_t r = 0;                        // rank of the boundary out of this level
-  dense_matrix<R> V_inv;                    // of that boundary's Smith form
-  dense_matrix<R> U_M;                      // of M
-  std::vector<R> factors;                   // invariant factors of M
+struct level_coordinates {
+  indexed_cells core;                       // surviving cells with incidences (local indices)
+  indexed_cells isolated;                   // surviving cells without any incidence
+  std::size_t boundary_rank = 0;            // rank of D_L
+  dense_matrix<R> boundary_v_inverse;       // V^-1 of D_L's Smith form
+  dense_matrix<R> quotient_u;               // U_M of M's Smith form
+  std::vector<R> quotient_factors;          // invariant factors of M
 };
 
 template <class R>
 struct homology_basis {
   elimination_log<R> log;
-  std::vector<level_basis<R>> levels;
+  std::vector<level_coordinates<R>> levels;
   std::vector<std::vector<std::int64_t>> from_original;  // per level, empty: identity
   std::vector<std::size_t> level_sizes;
 };
@@ -182,10 +187,10 @@ class homology_result {
     std::vector<R> out;
     std::vector<R> iso(b.isolated.size(), zero<R>());
     for (const auto& e : red) {
-      if (b.core_position[e.index] >= 0)
-        zc[static_cast<std::size_t>(b.core_position[e.index])] += e.value;
-      else if (b.isolated_position[e.index] >= 0)
-        iso[static_cast<std::size_t>(b.isolated_position[e.index])] += e.value;
+      if (b.core.position[e.index] >= 0)
+        zc[static_cast<std::size_t>(b.core.position[e.index])] += e.value;
+      else if (b.isolated.position[e.index] >= 0)
+        iso[static_cast<std::size_t>(b.isolated.position[e.index])] += e.value;
       else
         throw std::logic_error("lacuna: a pushed chain meets an eliminated cell");
     }
@@ -193,18 +198,18 @@ class homology_result {
     std::vector<R> y(n, zero<R>());
     for (std::size_t i = 0; i < n; ++i)
       for (std::size_t j = 0; j < n; ++j)
-        if (!(zc[j] == zero<R>())) y[i] += b.V_inv(i, j) * zc[j];
-    for (std::size_t i = 0; i < b.r; ++i)
+        if (!(zc[j] == zero<R>())) y[i] += b.boundary_v_inverse(i, j) * zc[j];
+    for (std::size_t i = 0; i < b.boundary_rank; ++i)
       if (!(y[i] == zero<R>())) throw std::invalid_argument("lacuna: the chain is not a cycle");
-    const std::size_t kdim = n - b.r;
+    const std::size_t kdim = n - b.boundary_rank;
     std::vector<R> w(kdim, zero<R>());
     for (std::size_t i = 0; i < kdim; ++i)
       for (std::size_t j = 0; j < kdim; ++j)
-        if (!(y[b.r + j] == zero<R>())) w[i] += b.U_M(i, j) * y[b.r + j];
+        if (!(y[b.boundary_rank + j] == zero<R>())) w[i] += b.quotient_u(i, j) * y[b.boundary_rank + j];
     out = iso;
-    for (std::size_t i = b.factors.size(); i < kdim; ++i) out.push_back(w[i]);
-    for (std::size_t i = 0; i < b.factors.size(); ++i)
-      if (!detail::ring_is_unit(b.factors[i])) out.push_back(detail::canonical_residue(w[i], b.factors[i]));
+    for (std::size_t i = b.quotient_factors.size(); i < kdim; ++i) out.push_back(w[i]);
+    for (std::size_t i = 0; i < b.quotient_factors.size(); ++i)
+      if (!detail::ring_is_unit(b.quotient_factors[i])) out.push_back(detail::canonical_residue(w[i], b.quotient_factors[i]));
     return out;
   }
   int level_of(int dim) const { return cohomology ? top_ - dim : dim - level_offset_; }
@@ -219,7 +224,7 @@ class homology_result {
     const int k = z.dimension;
     const int top = lacuna::top_dimension(c);
     if (k < 0 || k > top) throw std::invalid_argument("lacuna: no cells of dimension " + std::to_string(k));
-    const R unit = unit_;
+    const R ring_one = ring_one_;
     std::unordered_map<std::size_t, R> acc;
     if (!cohomology) {
       if (k == 0 && !reduced) return;  // every 0-chain is a cycle
@@ -233,7 +238,7 @@ class homology_result {
         for (auto&& v : lacuna::boundary(c, k, t.cell)) {
           const incidence inc = as_incidence(v);
           if (excluded(k - 1, inc.face)) continue;
-          acc[inc.face] += from_integer<R>(inc.coefficient) * unit * t.coefficient;
+          acc[inc.face] += from_integer<R>(inc.coefficient) * ring_one * t.coefficient;
         }
       }
     } else {
@@ -247,7 +252,7 @@ class homology_result {
         for (auto&& v : lacuna::boundary(c, k + 1, s)) {
           const incidence inc = as_incidence(v);
           auto it = phi.find(inc.face);
-          if (it != phi.end()) acc[s] += from_integer<R>(inc.coefficient) * unit * it->second;
+          if (it != phi.end()) acc[s] += from_integer<R>(inc.coefficient) * ring_one * it->second;
         }
     }
     for (const auto& [cell, v] : acc)
@@ -256,7 +261,7 @@ class homology_result {
   }
 
  public:
-  R unit_ = one<R>();  ///< internal: the one of R the result was computed with
+  R ring_one_ = one<R>();  ///< internal: the one of R the result was computed with
 };
 
 }  // namespace lacuna

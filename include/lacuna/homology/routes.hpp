@@ -10,7 +10,7 @@
 //   * over Z/2 and Z/p: column reductions with clearing (algorithm/field_ranks.hpp).
 // Everything else (generators, coordinates, relative groups of volumes, other variants): the
 // route below.
-// The route below: the complex is indexed into a reducible_complex over working coefficients
+// The route below: the complex is indexed into a elimination_workspace over working coefficients
 // W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot in), and the
 // small core that is left is finished by Smith forms (modular ones where they pay and only
 // groups are asked for, algorithm/modular_smith.hpp; else dense ones with transforms):
@@ -39,7 +39,7 @@
 #include <lacuna/chain/chain.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/dense_matrix.hpp>
-#include <lacuna/chain/reducible_complex.hpp>
+#include <lacuna/chain/elimination_workspace.hpp>
 #include <lacuna/chain/run_control.hpp>
 #include <lacuna/chain/side_by_side.hpp>
 #include <lacuna/complex/concepts.hpp>
@@ -77,7 +77,7 @@ struct level_result {
 // size, with the two transforms of its Smith form, is checked against control->memory_limit
 // before anything is allocated.
 template <class R, class W>
-dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<level_basis<R>>& lb, int L,
+dense_matrix<R> core_matrix(const elimination_workspace<W>& rc, const std::vector<level_coordinates<R>>& lb, int L,
                             const run_control* control = nullptr) {
   const std::uint64_t rows = lb[static_cast<std::size_t>(L - 1)].core.size(),
                       cols = lb[static_cast<std::size_t>(L)].core.size();
@@ -89,32 +89,26 @@ dense_matrix<R> core_matrix(const reducible_complex<W>& rc, const std::vector<le
   dense_matrix<R> D(lb[static_cast<std::size_t>(L - 1)].core.size(), lb[static_cast<std::size_t>(L)].core.size());
   for (std::size_t j = 0; j < lb[static_cast<std::size_t>(L)].core.size(); ++j)
     for (const auto& e : rc.boundary(L, lb[static_cast<std::size_t>(L)].core[j])) {
-      const auto p = lb[static_cast<std::size_t>(L - 1)].core_position[e.index];
+      const auto p = lb[static_cast<std::size_t>(L - 1)].core.position[e.index];
       D(static_cast<std::size_t>(p), j) = to_ring<R>(e.value);
     }
   return D;
 }
 
 template <class R, class W, class Core = smith_core>
-std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool want_generators, bool keep,
-                                         std::vector<level_basis<R>>& lb, const run_control* control = nullptr,
+std::vector<level_result<R>> core_level_homology(const elimination_workspace<W>& rc, bool want_generators, bool keep,
+                                         std::vector<level_coordinates<R>>& lb, const run_control* control = nullptr,
                                          bool want_bounding = false, const Core& core_stage = {}) {
   const int nl = rc.levels();
   lb.assign(static_cast<std::size_t>(nl), {});
   for (int L = 0; L < nl; ++L) {
     auto& b = lb[static_cast<std::size_t>(L)];
-    b.core_position.assign(rc.size(L), -1);
-    b.isolated_position.assign(rc.size(L), -1);
+    b.core = indexed_cells(rc.size(L));
+    b.isolated = indexed_cells(rc.size(L));
     for (std::uint32_t i = 0; i < rc.size(L); ++i) {
       if (!rc.alive(L, i)) continue;
       const bool has = !rc.boundary(L, i).empty() || !rc.cofaces(L, i).empty();
-      if (has) {
-        b.core_position[i] = static_cast<std::int64_t>(b.core.size());
-        b.core.push_back(i);
-      } else {
-        b.isolated_position[i] = static_cast<std::int64_t>(b.isolated.size());
-        b.isolated.push_back(i);
-      }
+      (has ? b.core : b.isolated).add(i);
     }
   }
   std::vector<level_result<R>> out(static_cast<std::size_t>(nl));
@@ -149,18 +143,18 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
       s1.rank = 0;
       s1.V = s1.V_inv = dense_matrix<R>::identity(n);
     }
-    b.r = s1.rank;
-    const std::size_t kdim = n - b.r;
+    b.boundary_rank = s1.rank;
+    const std::size_t kdim = n - b.boundary_rank;
     dense_matrix<R> M(kdim, L + 1 < nl ? lb[static_cast<std::size_t>(L + 1)].core.size() : 0);
     if (L + 1 < nl && M.cols() > 0 && kdim > 0) {
       const dense_matrix<R> P = s1.V_inv * core_matrix<R>(rc, lb, L + 1, control);
       for (std::size_t i = 0; i < kdim; ++i)
-        for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.r + i, j);
+        for (std::size_t j = 0; j < M.cols(); ++j) M(i, j) = P(b.boundary_rank + i, j);
     }
     auto s2 = dense_smith_form(M, {.transforms = true, .control = control});
-    b.factors = s2.diagonal;
-    b.V_inv = s1.V_inv;
-    b.U_M = s2.U;
+    b.quotient_factors = s2.diagonal;
+    b.boundary_v_inverse = s1.V_inv;
+    b.quotient_u = s2.U;
     auto& res = out[static_cast<std::size_t>(L)];
     // Free: isolated cells, then the core columns past the rank of M; torsion: non-unit e_i.
     res.rank = b.isolated.size() + (kdim - s2.rank);
@@ -172,7 +166,7 @@ std::vector<level_result<R>> finish_core(const reducible_complex<W>& rc, bool wa
         for (std::size_t row = 0; row < n; ++row) {
           R v = zero<R>();
           for (std::size_t j = 0; j < kdim; ++j)
-            if (!(s2.U_inv(j, i) == zero<R>())) v += s1.V(row, b.r + j) * s2.U_inv(j, i);
+            if (!(s2.U_inv(j, i) == zero<R>())) v += s1.V(row, b.boundary_rank + j) * s2.U_inv(j, i);
           if (!(v == zero<R>())) ch.push_back({b.core[row], v});
         }
         std::sort(ch.begin(), ch.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
@@ -222,7 +216,7 @@ elimination_log<R> convert_log(elimination_log<W>&& log) {
 /// invalid_complex naming the first cell whose boundary's boundary (coboundary's coboundary,
 /// on a dual build) is not zero.
 template <class W, cell_complex C>
-void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
+void require_boundary_squared_zero(const elimination_workspace<W>& rc, const C& c) {
   if (const auto bad = first_nonzero_boundary_squared(rc)) {
     const int k = rc.dimension_of_level(bad->first);
     const std::size_t i = rc.original_index(bad->first, bad->second);
@@ -234,17 +228,17 @@ void require_boundary_squared_zero(const reducible_complex<W>& rc, const C& c) {
   }
 }
 
-/// The chain complex of c at working coefficients W (integers mapped to R's `unit` when W is
+/// The chain complex of c at working coefficients W (integers mapped to R's `ring_one` when W is
 /// R), with the ∂∂ = 0 precondition checked and the phase "building the chain complex"
 /// reported to build.control (not null).
 template <class R, class W, cell_complex C>
-reducible_complex<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& unit) {
+elimination_workspace<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& ring_one) {
   build.control->report("building the chain complex", 0, 1);
-  reducible_complex<W> rc;
+  elimination_workspace<W> rc;
   if constexpr (std::same_as<R, W>)
-    rc = reducible_complex<W>::build(c, build, unit);
+    rc = elimination_workspace<W>::build(c, build, ring_one);
   else
-    rc = reducible_complex<W>::build(c, build);
+    rc = elimination_workspace<W>::build(c, build);
   require_boundary_squared_zero(rc, c);  // precondition, checked
   build.control->report("building the chain complex", 1, 1);
   return rc;
@@ -254,10 +248,10 @@ reducible_complex<W> build_checked_complex(const C& c, const reducible_build_opt
 template <class R, class W, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
                                             reducible_build_options build, std::shared_ptr<homology_basis<R>>* basis,
-                                            const R& unit) {
+                                            const R& ring_one) {
   const run_control* control = &opt.control;
   build.control = control;
-  reducible_complex<W> rc = build_checked_complex<R, W>(c, build, unit);
+  elimination_workspace<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
@@ -281,12 +275,12 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
     alg.eliminate.reduce(rc, want_log ? &log : nullptr, control);
     control->report("eliminating unit pivots", 1, 1);
   }
-  std::vector<level_basis<R>> lb;
+  std::vector<level_coordinates<R>> lb;
   std::vector<level_result<R>> levels;
   if constexpr (staged_algorithm<Algorithm>)
-    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
+    levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
   else
-    levels = finish_core<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
+    levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators) {
     control->report("lifting generators", 0, 1);
@@ -338,7 +332,7 @@ inline constexpr bool fast_integer_path<staged_elimination<Pre, Eliminate, Core>
 template <class R, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels_any(const C& c, const homology_options& opt, const Algorithm& alg,
                                                 reducible_build_options build,
-                                                std::shared_ptr<homology_basis<R>>* basis, const R& unit) {
+                                                std::shared_ptr<homology_basis<R>>* basis, const R& ring_one) {
   if constexpr (staged_algorithm<Algorithm>) {
     static_assert(reduction_stage<decltype(alg.pre), R>,
                   "lacuna: the pre-reduction stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
@@ -349,12 +343,12 @@ std::vector<level_result<R>> compute_levels_any(const C& c, const homology_optio
   }
   if constexpr (std::same_as<R, integer> && fast_integer_path<Algorithm>) {
     try {
-      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, unit);
+      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, ring_one);
     } catch (const coefficient_overflow&) {
       // Widen: repeat with coefficients that cannot overflow.
     }
   }
-  return compute_levels<R, R>(c, opt, alg, build, basis, unit);
+  return compute_levels<R, R>(c, opt, alg, build, basis, ring_one);
 }
 
 }  // namespace detail
@@ -362,7 +356,7 @@ std::vector<level_result<R>> compute_levels_any(const C& c, const homology_optio
 namespace detail {
 template <euclidean_domain R, cell_complex C, class Algorithm>
 homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool is_cohomology,
-                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
+                            const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (is_cohomology && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
   if (is_cohomology && opt.witnesses) throw std::invalid_argument("lacuna: witnesses are offered for homology, not cohomology");
@@ -373,8 +367,8 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
   res.level_offset_ = opt.reduced ? -1 : 0;
   const int top = lacuna::top_dimension(c);
   res.top_ = top;
-  res.unit_ = unit;
-  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, unit);
+  res.ring_one_ = ring_one;
+  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, ring_one);
   for (int k = 0; k <= top; ++k) {
     const int L = is_cohomology ? top - k : k - res.level_offset_;
     auto& lr = levels[static_cast<std::size_t>(L)];
@@ -405,8 +399,8 @@ namespace detail {
 /// c, and with a basis, coordinates() first projects a cycle of c to m.
 template <euclidean_domain R, class M, class Lift, class Project>
 homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const sparse_elimination& alg, bool is_cohomology,
-                                    const R& unit, Lift lift, Project project) {
-  homology_result<R> res = assemble<R>(m, opt, alg, is_cohomology, nullptr, unit);
+                                    const R& ring_one, Lift lift, Project project) {
+  homology_result<R> res = assemble<R>(m, opt, alg, is_cohomology, nullptr, ring_one);
   for (auto& g : res.groups)
     for (auto& z : g.generators) z = lift(z);
   if (res.basis_) res.project_ = std::move(project);
@@ -417,7 +411,7 @@ homology_result<R> on_morse_complex(const M& m, const homology_options& opt, con
 /// generators, a Morse incidence beyond 64 bits): the caller then runs without it.
 template <euclidean_domain R, cell_complex C>
 std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, sparse_elimination alg, bool is_cohomology,
-                                                 const R& unit) {
+                                                 const R& ring_one) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (is_cohomology && (opt.generators || *opt.keep_basis)) return std::nullopt;
   if (opt.witnesses) return std::nullopt;  // bounding chains are lifted through the elimination log only
@@ -430,14 +424,14 @@ std::optional<homology_result<R>> morse_homology(const C& c, homology_options op
       std::shared_ptr<const C> original;
       if (*opt.keep_basis) original = std::make_shared<const C>(c);  // coordinates() may outlive c
       return on_morse_complex<R>(
-          *m, opt, alg, is_cohomology, unit, [&](const chain<R>& z) { return m->lift(c, z, unit); },
-          [m, original, unit](const chain<R>& x) { return m->project(*original, x, unit); });
+          *m, opt, alg, is_cohomology, ring_one, [&](const chain<R>& z) { return m->lift(c, z, ring_one); },
+          [m, original, ring_one](const chain<R>& x) { return m->project(*original, x, ring_one); });
     } else {
       auto m = std::make_shared<const morse_complex>(morse_reduce(c, {.control = &opt.control}));
       const run_control* control = &opt.control;
       return on_morse_complex<R>(
-          *m, opt, alg, is_cohomology, unit, [&](const chain<R>& z) { return m->lift(z, unit, control); },
-          [m, unit](const chain<R>& x) { return m->project(x, unit); });
+          *m, opt, alg, is_cohomology, ring_one, [&](const chain<R>& z) { return m->lift(z, ring_one, control); },
+          [m, ring_one](const chain<R>& x) { return m->project(x, ring_one); });
     }
   } catch (const coefficient_overflow&) {
     return std::nullopt;
@@ -482,7 +476,7 @@ inline constexpr std::size_t duality_dimension<cubical_complex<D>> = D <= 3 ? D 
 /// reduced group of the empty image).
 template <euclidean_domain R, cell_complex C>
 std::optional<homology_result<R>> duality_homology(const C& c, const homology_options& opt,
-                                                   const sparse_elimination& alg, bool cohomology, const R& unit) {
+                                                   const sparse_elimination& alg, bool cohomology, const R& ring_one) {
   if constexpr (duality_dimension<C> == 0) {
     return std::nullopt;
   } else {
@@ -498,7 +492,7 @@ std::optional<homology_result<R>> duality_homology(const C& c, const homology_op
     res.reduced = opt.reduced;
     res.level_offset_ = opt.reduced ? -1 : 0;
     res.top_ = c.top_dimension();
-    res.unit_ = unit;
+    res.ring_one_ = ring_one;
     for (int k = 0; k <= c.top_dimension(); ++k) {
       homology_group<R> g;
       g.dimension = k;
@@ -515,18 +509,18 @@ std::optional<homology_result<R>> duality_homology(const C& c, const homology_op
 /// description at the top of this header.
 template <class R, class W, cell_complex C>
 homology_result<R> coboundary_groups(const C& c, const homology_options& opt, const coboundary_reduction& alg,
-                                     const std::vector<std::vector<bool>>* excluded, const R& unit) {
+                                     const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   const run_control* control = &opt.control;
   const reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded,
                                       .threads = opt.threads, .control = control};
-  const reducible_complex<W> rc = build_checked_complex<R, W>(c, build, unit);
+  const elimination_workspace<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   const auto inv = reduce_coboundaries<R>(rc, alg, control);
   homology_result<R> res;
   res.reduced = opt.reduced;
   res.level_offset_ = opt.reduced ? -1 : 0;
   const int top = lacuna::top_dimension(c);
   res.top_ = top;
-  res.unit_ = unit;
+  res.ring_one_ = ring_one;
   for (int k = 0; k <= top; ++k) {
     const int L = k - res.level_offset_;
     homology_group<R> g;
@@ -543,9 +537,9 @@ homology_result<R> coboundary_groups(const C& c, const homology_options& opt, co
 /// to sparse_elimination{} (the route keeps no change of basis).
 template <class R, cell_complex C>
 homology_result<R> homology_by_coboundaries(const C& c, const homology_options& opt, const coboundary_reduction& alg,
-                                            const std::vector<std::vector<bool>>* excluded, const R& unit) {
+                                            const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   if (opt.generators || opt.keep_basis.value_or(false))
-    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, unit);
+    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, ring_one);
   if constexpr (std::same_as<R, rational>) {
     // H_k(C; Q) = H_k(C; Z) ⊗ Q (universal coefficients; Q is flat over Z): its dimension is
     // the free rank over Z, and torsion vanishes. The boundary coefficients are integers.
@@ -554,7 +548,7 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
     res.reduced = z.reduced;
     res.level_offset_ = z.level_offset_;
     res.top_ = z.top_;
-    res.unit_ = unit;
+    res.ring_one_ = ring_one;
     for (const auto& g : z.groups) {
       homology_group<R> q;
       q.dimension = g.dimension;
@@ -565,12 +559,12 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
   }
   if constexpr (std::same_as<R, integer>) {
     try {
-      return coboundary_groups<R, checked_int64>(c, opt, alg, excluded, unit);
+      return coboundary_groups<R, checked_int64>(c, opt, alg, excluded, ring_one);
     } catch (const coefficient_overflow&) {
       // Widen: repeat with coefficients that cannot overflow.
     }
   }
-  return coboundary_groups<R, R>(c, opt, alg, excluded, unit);
+  return coboundary_groups<R, R>(c, opt, alg, excluded, ring_one);
 }
 
 }  // namespace detail

@@ -135,10 +135,10 @@ bool associates(const R& a, const R& b) {
 
 /// ∂z (homology) or δφ (cohomology) from the complex's own boundaries, as a sparse map.
 template <class R, cell_complex C>
-std::map<std::size_t, R> verify_differential(const C& c, const chain<R>& z, bool co) {
+std::map<std::size_t, R> verify_differential(const C& c, const chain<R>& z, bool is_cohomology) {
   std::map<std::size_t, R> out;
   const int k = z.dimension;
-  if (!co) {
+  if (!is_cohomology) {
     if (k == 0) return out;
     for (const auto& t : z.terms)
       for (auto&& v : lacuna::boundary(c, k, t.cell)) {
@@ -222,8 +222,8 @@ verification_report verify_by_coordinates(const C& c, const homology_result<R>& 
     if (rep.ok) rep.first_failure = std::move(what);
     rep.ok = false;
   };
-  const bool co = result.cohomology;
-  const char* H = co ? "H^" : "H_";
+  const bool is_cohomology = result.cohomology;
+  const char* H = is_cohomology ? "H^" : "H_";
   const int top = lacuna::top_dimension(c);
   if (result.top_dimension() != top) {
     fail("the result has groups up to " + std::to_string(result.top_dimension()) + ", the complex has dimension " +
@@ -234,7 +234,7 @@ verification_report verify_by_coordinates(const C& c, const homology_result<R>& 
   std::optional<homology_result<R>> dense;
   if (options.dense_cell_limit > 0 && total_cell_count(c) <= options.dense_cell_limit) {
     const homology_options o{.generators = false, .reduced = result.reduced, .keep_basis = true};
-    dense = co ? cohomology<R>(c, o, dense_elimination{}) : homology<R>(c, o, dense_elimination{});
+    dense = is_cohomology ? cohomology<R>(c, o, dense_elimination{}) : homology<R>(c, o, dense_elimination{});
   }
 
   for (int k = 0; k <= top; ++k) {
@@ -263,11 +263,11 @@ verification_report verify_by_coordinates(const C& c, const homology_result<R>& 
       for (const auto& t : z.terms)
         if (t.cell >= lacuna::cell_count(c, k)) fail(gi + " names cell " + std::to_string(t.cell) + ", out of range");
       if (!rep.ok) continue;
-      const auto d = detail::verify_differential(c, z, co);
+      const auto d = detail::verify_differential(c, z, is_cohomology);
       if (!d.empty())
-        fail(gi + (co ? " is not a cocycle: δφ is non-zero on (k+1)-cell " : " is not a cycle: ∂z is non-zero on cell ") +
+        fail(gi + (is_cohomology ? " is not a cocycle: δφ is non-zero on (k+1)-cell " : " is not a cycle: ∂z is non-zero on cell ") +
              std::to_string(d.begin()->first));
-      if (!co && result.reduced && k == 0) {
+      if (!is_cohomology && result.reduced && k == 0) {
         R eps = zero<R>();
         for (const auto& t : z.terms) eps += t.coefficient;
         if (!(eps == zero<R>())) fail(gi + " is not a reduced cycle: its augmentation is " + detail::verify_text(eps));

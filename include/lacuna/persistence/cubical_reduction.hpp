@@ -561,8 +561,8 @@ class morse_persistence {
  public:
   using result_type = persistence_result<T, R, sample_order<T>>;
 
-  morse_persistence(const cubical_filtration<D, T>& f, const persistence_options& o, const R& unit)
-      : g_(f), o_(o), unit_(unit), codes_(g_.total()) {}
+  morse_persistence(const cubical_filtration<D, T>& f, const persistence_options& o, const R& ring_one)
+      : g_(f), o_(o), ring_one_(ring_one), codes_(g_.total()) {}
 
   result_type run() {
     const auto range = persistence_range_of(g_.filtration().top_dimension(), o_.max_dimension);
@@ -596,14 +596,14 @@ class morse_persistence {
 
   layout<D, T> g_;
   const persistence_options& o_;
-  R unit_;
+  R ring_one_;
   pairing_codes<D> codes_;
   int top_ = -1;
   std::vector<std::vector<std::uint64_t>> by_cell_;  // critical cells per dimension, by linear number
   std::vector<std::vector<std::uint32_t>> rank_of_;  // their places in the filtration order
   std::vector<std::vector<std::uint64_t>> in_order_;  // critical cells per dimension in filtration order
 
-  R integer_in_field(int n) const { return from_integer<R>(n) * unit_; }
+  R integer_in_field(int n) const { return from_integer<R>(n) * ring_one_; }
 
   void find_critical() {
     const std::size_t Z = g_.filtration().extents()[D - 1];  // voxel hyperplanes
@@ -937,7 +937,7 @@ class morse_persistence {
         d.pairs.push_back({g_.value(b.q), std::nullopt, g_.index_of(b), no_cell});
         if (reps) {
           if (k == 0)
-            out.representatives[uk].push_back(chain<R>{0, {{g_.index_of(b), unit_}}});
+            out.representatives[uk].push_back(chain<R>{0, {{g_.index_of(b), ring_one_}}});
           else
             out.representatives[uk].push_back(lift(k, red[uk].kernel.at(this_kernel), st));
         }
@@ -953,13 +953,13 @@ class morse_persistence {
 /// leaves, reduced with clearing (see the file comment). Reports the pairs of positive
 /// persistence and the essential classes, with cells of their values.
 struct cubical_morse_persistence {
-  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
+  /// The persistence of f over the field of `ring_one`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
     requires is_cubical_filtration<F>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
-                                                                            const R& unit) const {
-    detail::check_unit(unit);
-    return detail::cubical_pers::morse_persistence<F::dimension, typename F::value_type, R>(f, o, unit).run();
+                                                                            const R& ring_one) const {
+    detail::check_unit(ring_one);
+    return detail::cubical_pers::morse_persistence<F::dimension, typename F::value_type, R>(f, o, ring_one).run();
   }
 };
 

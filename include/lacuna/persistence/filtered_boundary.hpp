@@ -55,13 +55,13 @@ struct filtered_boundary {
 };
 
 /// Reads the cells of dimensions 0..top of a filtration (top <= its top dimension; -1 or more
-/// than the top dimension: all) and builds filtered_boundary over R; `unit` is the one of R
+/// than the top dimension: all) and builds filtered_boundary over R; `ring_one` is the one of R
 /// (for mod_p_dynamic). Throws filtration_error naming a cell that enters before one of its
 /// faces, std::length_error for more than 2^32 - 1 cells in one dimension,
 /// computation_stopped on a stop request. Phase reported: "ordering the cells" (units: cells).
 /// Cost: O(n log n) comparisons of values and one pass over the boundaries.
 template <commutative_ring R, filtration F>
-filtered_boundary<filtration_value_t<F>, R> filter_boundaries(const F& f, int top, const R& unit = one<R>(),
+filtered_boundary<filtration_value_t<F>, R> filter_boundaries(const F& f, int top, const R& ring_one = one<R>(),
                                                               const run_control* control = nullptr) {
   using V = filtration_value_t<F>;
   const int ftop = lacuna::top_dimension(f);
@@ -126,9 +126,9 @@ filtered_boundary<filtration_value_t<F>, R> filter_boundaries(const F& f, int to
           detail::throw_enters_before_face(f, k, cell, face, vals[cell], below_values[face]);
         R c;
         if constexpr (small_incidence_like<std::remove_cvref_t<decltype(t)>>)
-          c = from_integer<R>(as_incidence(t).coefficient) * unit;
+          c = from_integer<R>(as_incidence(t).coefficient) * ring_one;
         else
-          c = coefficient_in<R>(coefficient_as_integer(t), unit);
+          c = coefficient_in<R>(coefficient_as_integer(t), ring_one);
         if (c == zero<R>()) continue;  // an incidence that vanishes in R
         column.push_back({below[face], c});
       }

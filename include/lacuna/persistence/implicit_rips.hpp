@@ -467,10 +467,10 @@ struct rips_term {
 template <class R>
 class implicit_rips_engine {
  public:
-  implicit_rips_engine(const rips_metric& metric, const implicit_rips_options& o, const R& unit)
+  implicit_rips_engine(const rips_metric& metric, const implicit_rips_options& o, const R& ring_one)
       : m_(metric),
         o_(o),
-        unit_(unit),
+        ring_one_(ring_one),
         n_(metric.size()),
         // simplices have at most n vertices, so numbers need C(v, m) for m <= min(D + 2, n + 1)
         numbering_(metric.size(), static_cast<int>(std::min<std::size_t>(static_cast<std::size_t>(o.max_dimension) + 2,
@@ -899,7 +899,7 @@ class implicit_rips_engine {
     work.fv.erase(work.fv.begin() + static_cast<std::ptrdiff_t>(f->second));
     const auto first = oldest_equal_cofacet(f->first, work.fv);
     if (first && first->simplex.number == t.number)
-      return std::pair<rips_simplex, R>{f->first, f->second % 2 == 1 ? -unit_ : unit_};
+      return std::pair<rips_simplex, R>{f->first, f->second % 2 == 1 ? -ring_one_ : ring_one_};
     return std::nullopt;
   }
   /// The same with this thread's working vectors (the reduction).
@@ -997,7 +997,7 @@ class implicit_rips_engine {
   void keep_cocycle(int k, const rips_simplex& s, std::span<const heap_entry> terms) {
     auto& z = cocycles_[static_cast<std::size_t>(k)].emplace_back();
     z.reserve(terms.size() + 1);
-    z.push_back({s, unit_});
+    z.push_back({s, ring_one_});
     z.insert(z.end(), terms.begin(), terms.end());
     cocycle_bytes_ += z.size() * sizeof(heap_entry);
     o_.control.require_memory(stored_.size() * sizeof(heap_entry) + cocycle_bytes_,
@@ -1039,7 +1039,7 @@ class implicit_rips_engine {
       };
       auto indicator = [&](std::uint32_t root, std::vector<heap_entry>& z) {
         z.reserve(members[root].size());
-        for (std::uint32_t x : members[root]) z.push_back({rips_simplex{0.0, x}, unit_});
+        for (std::uint32_t x : members[root]) z.push_back({rips_simplex{0.0, x}, ring_one_});
         cocycle_bytes_ += z.size() * sizeof(heap_entry);
         o_.control.require_memory(cocycle_bytes_, "the representative cocycles of the implicit Vietoris-Rips reduction");
       };
@@ -1100,7 +1100,7 @@ class implicit_rips_engine {
         insert_vertex(sv_, first->position, first->vertex, tv_);
         if (!apparent_facet_of(first->simplex, tv_)) {
           // the coefficient of the pivot: the incidence of s in it
-          pivots.emplace(first->simplex.number, pivot_entry{s, first->position % 2 == 1 ? -unit_ : unit_, 0, 0});
+          pivots.emplace(first->simplex.number, pivot_entry{s, first->position % 2 == 1 ? -ring_one_ : ring_one_, 0, 0});
           if (o_.zero_persistence) {
             pairs.push_back({s.value, s.value, s.number, first->simplex.number});
             if (want_cocycles_) keep_cocycle(k, s, {});
@@ -1110,7 +1110,7 @@ class implicit_rips_engine {
       }
       heap_.clear();
       v_terms.clear();
-      push_coboundary(s, k, unit_);
+      push_coboundary(s, k, ring_one_);
       for (;;) {
         const auto p = pivot_of_heap();
         if (!p) {  // a cocycle that never becomes a coboundary: an essential class born at s
@@ -1168,7 +1168,7 @@ class implicit_rips_engine {
 
   const rips_metric& m_;
   const implicit_rips_options& o_;
-  R unit_;
+  R ring_one_;
   std::size_t n_;
   simplex_numbering numbering_;
   double threshold_ = 0;
@@ -1187,12 +1187,12 @@ class implicit_rips_engine {
 
 namespace detail {
 template <class R>
-void check_implicit_rips_arguments(const rips_metric& metric, const implicit_rips_options& options, const R& unit) {
+void check_implicit_rips_arguments(const rips_metric& metric, const implicit_rips_options& options, const R& ring_one) {
   if (options.max_dimension < 0)
     throw std::invalid_argument("lacuna::implicit_rips_persistence: negative max_dimension");
   if (options.threshold && std::isnan(*options.threshold))
     throw std::invalid_argument("lacuna::implicit_rips_persistence: the threshold is not a number");
-  if (unit == zero<R>()) throw std::invalid_argument("lacuna::implicit_rips_persistence: the unit of the field is zero");
+  if (ring_one == zero<R>()) throw std::invalid_argument("lacuna::implicit_rips_persistence: the unit of the field is zero");
   if (metric.size() >= std::numeric_limits<std::uint32_t>::max())
     throw std::length_error("lacuna::implicit_rips_persistence: more than 2^32 - 2 points");
 }
@@ -1201,7 +1201,7 @@ void check_implicit_rips_arguments(const rips_metric& metric, const implicit_rip
 /// The persistent homology over the field R (default Z/2) of the Vietoris–Rips filtration of
 /// `metric`, diagrams of dimensions 0..options.max_dimension, computed without building the
 /// complex (see the file comment for the method, the order, the threshold and the cells).
-/// `unit` is the one of R (mod_p_dynamic(1, p)). Throws std::invalid_argument for a negative
+/// `ring_one` is the one of R (mod_p_dynamic(1, p)). Throws std::invalid_argument for a negative
 /// max_dimension, a threshold that is not a number, or a zero unit; std::length_error when
 /// simplex numbers would pass 63 bits; computation_stopped on a stop request;
 /// memory_limit_exceeded past options.control.memory_limit.
@@ -1210,9 +1210,9 @@ void check_implicit_rips_arguments(const rips_metric& metric, const implicit_rip
 template <field R = z2>
 persistence_result<double, R> implicit_rips_persistence(const rips_metric& metric,
                                                         const implicit_rips_options& options = {},
-                                                        const R& unit = one<R>()) {
-  detail::check_implicit_rips_arguments(metric, options, unit);
-  detail::implicit_rips_engine<R> engine(metric, options, unit);
+                                                        const R& ring_one = one<R>()) {
+  detail::check_implicit_rips_arguments(metric, options, ring_one);
+  detail::implicit_rips_engine<R> engine(metric, options, ring_one);
   return engine.run();
 }
 
@@ -1236,9 +1236,9 @@ persistence_result<double, R> implicit_rips_persistence(const rips_metric& metri
 template <field R = z2>
 implicit_rips_cocycles<R> implicit_rips_persistence_with_cocycles(const rips_metric& metric,
                                                                  const implicit_rips_options& options = {},
-                                                                 const R& unit = one<R>()) {
-  detail::check_implicit_rips_arguments(metric, options, unit);
-  detail::implicit_rips_engine<R> engine(metric, options, unit);
+                                                                 const R& ring_one = one<R>()) {
+  detail::check_implicit_rips_arguments(metric, options, ring_one);
+  detail::implicit_rips_engine<R> engine(metric, options, ring_one);
   return engine.run_with_cocycles();
 }
 

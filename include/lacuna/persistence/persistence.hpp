@@ -26,14 +26,14 @@ namespace lacuna {
 /// The default variant: cubical_morse_persistence for cubical filtrations, twist_persistence
 /// for every other filtration.
 struct automatic_persistence {
-  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
+  /// The persistence of f over the field of `ring_one`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
-                                                                            const R& unit) const {
+                                                                            const R& ring_one) const {
     if constexpr (persistence_reduction<cubical_morse_persistence, F, R>)
-      return cubical_morse_persistence{}.reduce(f, o, unit);
+      return cubical_morse_persistence{}.reduce(f, o, ring_one);
     else
-      return twist_persistence{}.reduce(f, o, unit);
+      return twist_persistence{}.reduce(f, o, ring_one);
   }
 };
 
@@ -42,7 +42,7 @@ struct automatic_persistence {
 /// representatives on request (persistence_result). `algorithm` is the variant
 /// (automatic_persistence{}, standard_persistence{}, twist_persistence{},
 /// cohomology_persistence{}, cubical_morse_persistence{}, or one's own model of
-/// persistence_reduction); `unit` is the one of R, for rings whose elements carry a run-time
+/// persistence_reduction); `ring_one` is the one of R, for rings whose elements carry a run-time
 /// modulus (mod_p_dynamic(1, p)).
 /// Throws filtration_error naming a cell that enters before one of its faces,
 /// computation_stopped on a stop request (options.control).
@@ -51,8 +51,8 @@ template <field R = z2, filtration F, class Algorithm = automatic_persistence>
 persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> persistence(const F& f,
                                                                                 const persistence_options& options = {},
                                                                                 const Algorithm& algorithm = {},
-                                                                                const R& unit = one<R>()) {
-  return algorithm.reduce(f, options, unit);
+                                                                                const R& ring_one = one<R>()) {
+  return algorithm.reduce(f, options, ring_one);
 }
 
 }  // namespace lacuna

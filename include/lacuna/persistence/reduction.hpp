@@ -68,11 +68,11 @@ struct persistence_options {
 };
 
 /// P is a persistence reduction variant for filtrations F over the field R: p.reduce(f,
-/// options, unit) computes the persistence of f (unit: the one of R, for mod_p_dynamic).
+/// options, ring_one) computes the persistence of f (ring_one: the one of R, for mod_p_dynamic).
 template <class P, class F, class R>
 concept persistence_reduction = filtration<F> && field<R> &&
-    requires(const P& p, const F& f, const persistence_options& o, const R& unit) {
-      { p.reduce(f, o, unit) } -> std::same_as<persistence_result<filtration_value_t<F>, R, filtration_order_t<F>>>;
+    requires(const P& p, const F& f, const persistence_options& o, const R& ring_one) {
+      { p.reduce(f, o, ring_one) } -> std::same_as<persistence_result<filtration_value_t<F>, R, filtration_order_t<F>>>;
     };
 
 /// The dimensions a computation reads: diagrams 0..D, cells 0..T (T = D + 1 where the
@@ -117,7 +117,7 @@ template <class V, field R, class Order>
 persistence_result<V, R, Order> persistence_from_pivots(const filtered_boundary<V, R>& fb,
                                                         const std::vector<field_reduction_result<R>>& reduced,
                                                         int diagram_top, const Order& order, bool representatives,
-                                                        const R& unit = one<R>()) {
+                                                        const R& ring_one = one<R>()) {
   persistence_result<V, R, Order> out;
   out.order = order;
   if (diagram_top > fb.top_dimension()) diagram_top = fb.top_dimension();
@@ -154,7 +154,7 @@ persistence_result<V, R, Order> persistence_from_pivots(const filtered_boundary<
       d.pairs.push_back({fb.values[k][cell], std::nullopt, cell, no_cell});
       if (representatives) {
         if (k == 0)
-          out.representatives[k].push_back(chain<R>{0, {{cell, unit}}});
+          out.representatives[k].push_back(chain<R>{0, {{cell, ring_one}}});
         else
           out.representatives[k].push_back(
               detail::chain_of_positions(static_cast<int>(k), reduced[k - 1].kernel.at(this_kernel), fb.order[k]));
@@ -182,8 +182,8 @@ inline field_reduction_options reduction_options_for(const persistence_options& 
 }
 
 template <class R>
-void check_unit(const R& unit) {
-  if (unit == zero<R>()) throw std::invalid_argument("lacuna::persistence: the unit of the field is zero");
+void check_unit(const R& ring_one) {
+  if (ring_one == zero<R>()) throw std::invalid_argument("lacuna::persistence: the unit of the field is zero");
 }
 
 /// Twist (clearing) on a prepared filtered boundary; shared by the variants that fall back
@@ -191,10 +191,10 @@ void check_unit(const R& unit) {
 template <filtration F, field R>
 persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> twist_on(
     const F& f, filtered_boundary<filtration_value_t<F>, R> fb, int diagram_top, const persistence_options& o,
-    const R& unit) {
+    const R& ring_one) {
   auto matrices = take_matrices(fb);
   auto reduced = reduce_chain_complex(matrices, reduction_options_for(o));
-  return persistence_from_pivots(fb, reduced, diagram_top, lacuna::value_order(f), o.representatives, unit);
+  return persistence_from_pivots(fb, reduced, diagram_top, lacuna::value_order(f), o.representatives, ring_one);
 }
 
 }  // namespace detail
@@ -202,45 +202,45 @@ persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> twist_on(
 /// The column reduction of every boundary matrix on its own (Edelsbrunner, Letscher &
 /// Zomorodian 2002; Zomorodian & Carlsson 2005): the reference variant.
 struct standard_persistence {
-  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
+  /// The persistence of f over the field of `ring_one`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
-                                                                            const R& unit) const {
-    detail::check_unit(unit);
+                                                                            const R& ring_one) const {
+    detail::check_unit(ring_one);
     const auto range = persistence_range_of(lacuna::top_dimension(f), o.max_dimension);
-    auto fb = filter_boundaries<R>(f, range.cell_top, unit, &o.control);
+    auto fb = filter_boundaries<R>(f, range.cell_top, ring_one, &o.control);
     std::vector<field_reduction_result<R>> reduced;
     for (std::size_t k = 1; k < fb.matrices.size(); ++k) {
       reduced.push_back(reduce_columns(fb.matrices[k], detail::reduction_options_for(o)));
       fb.matrices[k] = sparse_matrix<R>();
     }
-    return persistence_from_pivots(fb, reduced, range.diagram_top, lacuna::value_order(f), o.representatives, unit);
+    return persistence_from_pivots(fb, reduced, range.diagram_top, lacuna::value_order(f), o.representatives, ring_one);
   }
 };
 
 /// The column reduction with clearing, top dimension first (Chen & Kerber 2011).
 struct twist_persistence {
-  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
+  /// The persistence of f over the field of `ring_one`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
-                                                                            const R& unit) const {
-    detail::check_unit(unit);
+                                                                            const R& ring_one) const {
+    detail::check_unit(ring_one);
     const auto range = persistence_range_of(lacuna::top_dimension(f), o.max_dimension);
-    return detail::twist_on(f, filter_boundaries<R>(f, range.cell_top, unit, &o.control), range.diagram_top, o, unit);
+    return detail::twist_on(f, filter_boundaries<R>(f, range.cell_top, ring_one, &o.control), range.diagram_top, o, ring_one);
   }
 };
 
 /// The coboundary reduction with clearing, dimension 0 first (de Silva, Morozov &
 /// Vejdemo-Johansson 2011). Representatives, when asked for, come from a twist reduction.
 struct cohomology_persistence {
-  /// The persistence of f over the field of `unit`, with options o (the persistence_reduction interface).
+  /// The persistence of f over the field of `ring_one`, with options o (the persistence_reduction interface).
   template <filtration F, field R>
   persistence_result<filtration_value_t<F>, R, filtration_order_t<F>> reduce(const F& f, const persistence_options& o,
-                                                                            const R& unit) const {
-    detail::check_unit(unit);
+                                                                            const R& ring_one) const {
+    detail::check_unit(ring_one);
     const auto range = persistence_range_of(lacuna::top_dimension(f), o.max_dimension);
-    auto fb = filter_boundaries<R>(f, range.cell_top, unit, &o.control);
-    if (o.representatives) return detail::twist_on(f, std::move(fb), range.diagram_top, o, unit);
+    auto fb = filter_boundaries<R>(f, range.cell_top, ring_one, &o.control);
+    if (o.representatives) return detail::twist_on(f, std::move(fb), range.diagram_top, o, ring_one);
     // Coboundary matrix of dimension k: the anti-transpose of boundary matrix k + 1 —
     // columns the k-cells from the last to enter to the first, rows the (k+1)-cells likewise.
     const int T = fb.top_dimension();
@@ -268,7 +268,7 @@ struct cohomology_persistence {
         h.pivots.push_back({static_cast<std::uint32_t>(r.cols - 1 - pv.column), static_cast<std::uint32_t>(r.rows - 1 - pv.row)});
       h.rank = h.pivots.size();
     }
-    return persistence_from_pivots(fb, reduced, range.diagram_top, lacuna::value_order(f), false, unit);
+    return persistence_from_pivots(fb, reduced, range.diagram_top, lacuna::value_order(f), false, ring_one);
   }
 };
 
