@@ -108,7 +108,7 @@ std::vector<std::uint64_t> volume_cell_counts(MPI_Comm comm, const std::string& 
 
 /// Computes and, on rank 0, prints the homology of the input over R.
 template <class R>
-void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files, const R& unit) {
+void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files, const R& ring_one) {
   MPI_Comm comm = MPI_COMM_WORLD;
   const int rank = rank_of(comm), size = size_of(comm);
   const lacuna::homology_options ho{.generators = false, .reduced = o.reduced, .keep_basis = false};
@@ -117,7 +117,7 @@ void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files
   if (files.size() == 1 && ends_with(files[0], ".nrrd")) {
     lacuna::distributed::volume_options vo{.threshold = o.threshold, .homology = ho};
     if (o.max_cells) vo.limits.max_cells = *o.max_cells;
-    auto r = lacuna::distributed::volume_homology<R>(comm, files[0], vo, unit);
+    auto r = lacuna::distributed::volume_homology<R>(comm, files[0], vo, ring_one);
     h = std::move(r.result);
     counts.cells = volume_cell_counts(comm, files[0], vo);
     if (o.reduced && counts.cells.empty())  // as lacuna homology --reduced refuses it, on every rank
@@ -136,7 +136,7 @@ void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files
       throw usage_error(o.file + ": the complex is empty: its reduced homology is Z in dimension -1, which --reduced "
                                  "does not print");
     lacuna::distributed::pieces_residual residual;
-    h = lacuna::distributed::pieces_homology<R>(comm, piece, ho, lacuna::sparse_elimination{}, unit, &residual);
+    h = lacuna::distributed::pieces_homology<R>(comm, piece, ho, lacuna::sparse_elimination{}, ring_one, &residual);
     counts.cells = residual.cells;
   }
   if (rank != 0) return;

@@ -505,7 +505,7 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
 /// `residual`, if given, receives the residual's cell counts and the union's. Collective.
 template <euclidean_domain R, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> pieces_homology(MPI_Comm comm, const piece_complex& piece, homology_options options = {},
-                                   const Algorithm& algorithm = {}, const R& unit = one<R>(),
+                                   const Algorithm& algorithm = {}, const R& ring_one = one<R>(),
                                    pieces_residual* residual = nullptr) {
   int rank = 0;
   MPI_Comm_rank(comm, &rank);
@@ -517,7 +517,7 @@ homology_result<R> pieces_homology(MPI_Comm comm, const piece_complex& piece, ho
   homology_result<R> h;
   collective_phase(comm, "computing the homology of the residual complex", [&] {
     if (rank != 0) return;
-    h = lacuna::homology<R>(r.residual, options, algorithm, unit);
+    h = lacuna::homology<R>(r.residual, options, algorithm, ring_one);
     for (int k = static_cast<int>(h.groups.size()); k < static_cast<int>(r.cells.size()); ++k) {
       homology_group<R> g;
       g.dimension = k;

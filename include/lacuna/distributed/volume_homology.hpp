@@ -378,7 +378,7 @@ void lift_generators(MPI_Comm comm, int root, volume_homology_result<R>& r, cons
 }
 }  // namespace detail
 
-/// The homology over R (a lacuna::euclidean_domain; `unit` its one, for rings with a
+/// The homology over R (a lacuna::euclidean_domain; `ring_one` its one, for rings with a
 /// run-time modulus) of the cubical complex of the NRRD volume `path` (dimension <= 3), under
 /// the foreground rule of options.threshold — the groups `lacuna homology FILE.nrrd` reports.
 /// Collective over `comm`: every rank calls it with the same arguments. The result is held by
@@ -389,7 +389,7 @@ void lift_generators(MPI_Comm comm, int root, volume_homology_result<R>& r, cons
 /// paths of its critical cells); the root also holds and finishes the glued residual.
 template <euclidean_domain R>
 volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::path& path, const volume_options& options = {},
-                                          const R& unit = one<R>()) {
+                                          const R& ring_one = one<R>()) {
   int rank = 0, size = 1;
   MPI_Comm_rank(comm, &rank);
   MPI_Comm_size(comm, &size);
@@ -449,7 +449,7 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
     if (want_generators) all_kept = std::move(all);
     std::vector<std::int64_t>().swap(all);
     for (int k = 0; k <= glued.top_dimension(); ++k) st.glued_cells += glued.cell_count(k);
-    r.result = homology<R>(glued, options.homology, sparse_elimination{}, unit);
+    r.result = homology<R>(glued, options.homology, sparse_elimination{}, ring_one);
     // the one-process cubical complex has top dimension 3 whenever it has a cell
     if (glued.top_dimension() >= 0)
       while (r.result.groups.size() < 4) {

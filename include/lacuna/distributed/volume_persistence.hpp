@@ -280,7 +280,7 @@ class filtered_slab_reducer {
 
 }  // namespace detail
 
-/// The persistence diagrams over the field R (default Z/2; `unit` its one) of the sublevel
+/// The persistence diagrams over the field R (default Z/2; `ring_one` its one) of the sublevel
 /// (or superlevel) filtration of the NRRD volume `path` (dimension <= 3) on the full cubical
 /// grid, pairs of persistence zero dropped — the diagrams `lacuna persistence FILE.nrrd`
 /// reports. Collective over `comm`; the result is held by options.root. Throws
@@ -288,7 +288,7 @@ class filtered_slab_reducer {
 /// for a root outside the communicator.
 template <field R = z2>
 volume_persistence_result<R> volume_persistence(MPI_Comm comm, const std::filesystem::path& path,
-                                                const volume_persistence_options& options = {}, const R& unit = one<R>()) {
+                                                const volume_persistence_options& options = {}, const R& ring_one = one<R>()) {
   int rank = 0, size = 1;
   MPI_Comm_rank(comm, &rank);
   MPI_Comm_size(comm, &size);
@@ -355,7 +355,7 @@ volume_persistence_result<R> volume_persistence(MPI_Comm comm, const std::filesy
     const sample_order<std::int32_t> order{.descending = options.direction == level_sets::superlevel};
     const values_filtration<cell_list, std::int32_t, sample_order<std::int32_t>> filt(*cells, std::move(values), order);
     const int top = options.max_dimension < 0 || options.max_dimension > 3 ? 3 : options.max_dimension;
-    auto res = persistence<R>(filt, persistence_options{.max_dimension = top}, automatic_persistence{}, unit);
+    auto res = persistence<R>(filt, persistence_options{.max_dimension = top}, automatic_persistence{}, ring_one);
     r.result = without_zero_persistence(std::move(res));
     r.result.order = order;
     // the one-process filtration has diagrams 0..top whenever the volume has a voxel
