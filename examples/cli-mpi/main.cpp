@@ -83,9 +83,7 @@ std::vector<std::uint64_t> volume_cell_counts(MPI_Comm comm, const std::string& 
   const int rank = rank_of(comm), size = size_of(comm);
   std::array<std::uint64_t, 4> mine{};
   lacuna::distributed::collective_phase(comm, "counting the cells of its slabs", [&] {
-    auto in = lacuna::io::detail::open_input(path);
-    const auto header = lacuna::io::read_nrrd_header(in, path, vo.limits, 3);
-    const std::size_t layers = header.sizes.size() >= 3 ? static_cast<std::size_t>(header.sizes[2]) : 1;
+    const std::size_t layers = lacuna::distributed::nrrd_volume_extents(path, vo.limits)[2];
     for (const auto& b : lacuna::distributed::plan_slabs(layers, size, vo.blocks_per_rank)) {
       if (b.owner != rank || b.begin == b.end) continue;
       const std::size_t from = b.begin > 0 ? b.begin - 1 : 0;

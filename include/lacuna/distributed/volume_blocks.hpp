@@ -44,6 +44,16 @@ struct volume_block {
   int owner = 0;          ///< the rank that reads and reduces it
 };
 
+/// The extents (x, y, z) of the NRRD volume at `path`, read from its header with `limits`; a
+/// 2-D file has z = 1. Throws what io::read_nrrd_header throws (with the same messages).
+inline std::array<std::size_t, 3> nrrd_volume_extents(const std::filesystem::path& path, const io::read_limits& limits) {
+  auto in = io::detail::open_input(path);
+  const auto h = io::read_nrrd_header(in, path.string(), limits, 3);
+  std::array<std::size_t, 3> e{1, 1, 1};
+  for (std::size_t a = 0; a < h.sizes.size(); ++a) e[a] = static_cast<std::size_t>(h.sizes[a]);
+  return e;
+}
+
 /// The blocks of a volume of `layers` voxel layers over `ranks` ranks, `blocks_per_rank` >= 1
 /// per rank at most (see the file comment). Throws std::invalid_argument for ranks < 1 or
 /// blocks_per_rank < 1. Blocks are in order of their layers.

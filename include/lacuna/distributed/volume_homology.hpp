@@ -403,13 +403,8 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
   const io::image_options image{.threshold = options.threshold, .limits = options.limits};
 
   // Phase 1: the header (every rank reads it; the same error everywhere if it is bad).
-  const std::array<std::size_t, 3> extents = collective_phase(comm, "reading the volume header", [&] {
-    auto in = io::detail::open_input(path);
-    const auto h = io::read_nrrd_header(in, path.string(), options.limits, 3);
-    std::array<std::size_t, 3> e{1, 1, 1};
-    for (std::size_t a = 0; a < h.sizes.size(); ++a) e[a] = static_cast<std::size_t>(h.sizes[a]);
-    return e;
-  });
+  const std::array<std::size_t, 3> extents = collective_phase(
+      comm, "reading the volume header", [&] { return nrrd_volume_extents(path, options.limits); });
   const auto blocks = plan_slabs(extents[2], size, options.blocks_per_rank);
   const detail::grid_numbering g{2 * extents[0] + 1, 2 * extents[1] + 1};
 

@@ -295,13 +295,8 @@ volume_persistence_result<R> volume_persistence(MPI_Comm comm, const std::filesy
   if (options.root < 0 || options.root >= size) throw std::invalid_argument("lacuna: volume_persistence: the root is not a rank of the communicator");
   volume_persistence_result<R> r;
   auto& st = r.statistics;
-  const std::array<std::size_t, 3> extents = collective_phase(comm, "reading the volume header", [&] {
-    auto in = io::detail::open_input(path);
-    const auto h = io::read_nrrd_header(in, path.string(), options.limits, 3);
-    std::array<std::size_t, 3> e{1, 1, 1};
-    for (std::size_t a = 0; a < h.sizes.size(); ++a) e[a] = static_cast<std::size_t>(h.sizes[a]);
-    return e;
-  });
+  const std::array<std::size_t, 3> extents = collective_phase(
+      comm, "reading the volume header", [&] { return nrrd_volume_extents(path, options.limits); });
   const auto blocks = plan_slabs(extents[2], size, options.blocks_per_rank);
   const detail::grid_numbering g{2 * extents[0] + 1, 2 * extents[1] + 1};
 
