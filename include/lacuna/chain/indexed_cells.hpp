@@ -39,10 +39,15 @@ struct indexed_cells {
       if (p >= 0) p = n - 1 - p;
   }
 
+  /// The number of cells listed.
   std::size_t size() const { return cells.size(); }
+  /// Whether no cell is listed.
   bool empty() const { return cells.empty(); }
+  /// The k-th cell of the list.
   std::uint32_t operator[](std::size_t k) const { return cells[k]; }
+  /// The cells in list order.
   auto begin() const { return cells.begin(); }
+  /// The end of the list.
   auto end() const { return cells.end(); }
 };
 

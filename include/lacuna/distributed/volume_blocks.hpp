@@ -71,7 +71,8 @@ inline std::vector<volume_block> plan_slabs(std::size_t layers, int ranks, std::
 /// The voxels of one slab of a NRRD volume (dimension at most 3; missing axes have size 1).
 struct volume_slab {
   std::array<std::size_t, 3> volume_extents{};  ///< the whole volume's voxel extents
-  std::size_t begin = 0, end = 0;               ///< the layers held
+  std::size_t begin = 0;                        ///< the first layer held
+  std::size_t end = 0;                          ///< one past the last layer held
   cubical_complex<3> complex;                   ///< the slab's voxels as a complex, layer `begin` at z = 0
 };
 
