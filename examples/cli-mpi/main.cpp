@@ -1,22 +1,29 @@
-// lacuna-mpi: `lacuna homology` on many MPI ranks (docs/cli-mpi.md). Started by mpirun /
-// mpiexec; every rank runs this program with the same arguments. The inputs it serves:
+// lacuna-mpi: `lacuna homology` and `lacuna persistence` on many MPI ranks (docs/cli-mpi.md).
+// Started by mpirun / mpiexec; every rank runs this program with the same arguments.
+// `lacuna-mpi homology` serves:
 //   * a complex in pieces: .facets files dealt to the ranks (file i to rank i mod N), or one
 //     pattern holding %r that every rank expands to its own file (piece-%r.facets);
 //   * a NRRD volume (.nrrd), every rank reading only its slabs.
-// The answer (text or --json) is the one `lacuna homology` prints for the whole input, printed
-// by rank 0 alone, through the same report (examples/cli/homology_report.hpp). An error prints
-// one line on every rank ("lacuna: rank R of N failed while PHASE: FILE:LINE: problem") and
-// every rank exits with status 2.
+// `lacuna-mpi persistence` serves a NRRD volume (sublevel or superlevel filtration of its
+// samples), every rank reading only its slabs (distributed/volume_persistence.hpp).
+// The answer (text or --json) is the one the one-process subcommand prints for the whole input,
+// printed by rank 0 alone, through the same report (examples/cli/homology_report.hpp,
+// examples/cli/persistence_report.hpp). An error prints one line on every rank ("lacuna: rank R
+// of N failed while PHASE: FILE:LINE: problem") and every rank exits with status 2.
 #include <lacuna/distributed/complex_pieces.hpp>
 #include <lacuna/distributed/volume_homology.hpp>
+#include <lacuna/distributed/volume_persistence.hpp>
 
 #include "../cli/homology_report.hpp"
 #include "../cli/options.hpp"
+#include "../cli/persistence_report.hpp"
 
 #include <CLI/CLI.hpp>
 #include <mpi.h>
 
+#include <algorithm>
 #include <array>
+#include <cctype>
 #include <cstdio>
 #include <filesystem>
 #include <iostream>
@@ -71,39 +78,6 @@ std::vector<std::filesystem::path> files_of_rank(const std::vector<std::string>&
   return mine;
 }
 
-/// The cell counts of the cubical complex of the whole volume (the report's "cells"), counted
-/// by slabs: the rank of slab [b, e) reads layers [b - 1, e) (one layer more below, so that a
-/// cell on the plane it shares with the slab below is seen with both its voxels) and counts the
-/// cells whose doubled z coordinate lies in [2b, 2e) ([2b, 2e] for the last slab): every cell
-/// of the whole complex is counted once, exactly as it is in the whole complex. The sum over
-/// the ranks is exact (uint64). This reads the volume a second time; the volume result does not
-/// carry the counts.
-std::vector<std::uint64_t> volume_cell_counts(MPI_Comm comm, const std::string& path,
-                                              const lacuna::distributed::volume_options& vo) {
-  const int rank = rank_of(comm), size = size_of(comm);
-  std::array<std::uint64_t, 4> mine{};
-  lacuna::distributed::collective_phase(comm, "counting the cells of its slabs", [&] {
-    const std::size_t layers = lacuna::distributed::nrrd_volume_extents(path, vo.limits)[2];
-    for (const auto& b : lacuna::distributed::plan_slabs(layers, size, vo.blocks_per_rank)) {
-      if (b.owner != rank || b.begin == b.end) continue;
-      const std::size_t from = b.begin > 0 ? b.begin - 1 : 0;
-      const auto s = lacuna::distributed::read_nrrd_slab(path, from, b.end, {.threshold = vo.threshold, .limits = vo.limits});
-      const std::size_t low = 2 * (b.begin - from), high = 2 * (b.end - from);
-      const bool last = b.end == layers;
-      for (int k = 0; k <= s.complex.top_dimension() && k <= 3; ++k)
-        for (std::size_t i = 0; i < s.complex.cell_count(k); ++i) {
-          const std::size_t z = s.complex.position(k, i)[2];
-          if (z >= low && (z < high || (last && z == high))) ++mine[static_cast<std::size_t>(k)];
-        }
-    }
-  });
-  std::array<std::uint64_t, 4> all{};
-  MPI_Allreduce(mine.data(), all.data(), 4, MPI_UINT64_T, MPI_SUM, comm);
-  std::vector<std::uint64_t> cells(all.begin(), all.end());
-  if (all[0] == 0) cells.clear();  // no foreground voxel: the empty complex
-  return cells;
-}
-
 /// Computes and, on rank 0, prints the homology of the input over R.
 template <class R>
 void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files, const R& ring_one) {
@@ -117,7 +91,7 @@ void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files
     if (o.max_cells) vo.limits.max_cells = *o.max_cells;
     auto r = lacuna::distributed::volume_homology<R>(comm, files[0], vo, ring_one);
     h = std::move(r.result);
-    counts.cells = volume_cell_counts(comm, files[0], vo);
+    counts.cells = std::move(r.cells);  // counted by the slabs, each cell once
     if (o.reduced && counts.cells.empty())  // as lacuna homology --reduced refuses it, on every rank
       throw usage_error(o.file + ": the complex is empty: its reduced homology is Z in dimension -1, which --reduced "
                                  "does not print");
@@ -144,6 +118,54 @@ void run(const lacuna_cli::run_options& o, const std::vector<std::string>& files
     throw std::runtime_error("cannot write the result to standard output");
 }
 
+/// What `lacuna-mpi persistence` was asked (the options of `lacuna persistence` it serves).
+struct persistence_request {
+  std::string file;
+  lacuna_cli::coefficients co;
+  std::optional<long long> max_dimension;
+  std::optional<std::string> up_to;
+  bool superlevel = false;
+  bool json = false;
+  std::string diagram, barcode;
+};
+
+/// Computes the persistence of the volume over the field of `ring_one` and, on rank 0, writes
+/// the pictures and prints the report: the steps of `lacuna persistence FILE.nrrd` after its
+/// reading (examples/cli/persistence.cpp, run_samples), on the diagrams of
+/// distributed::volume_persistence, which are the one-process diagrams (the proof is in that
+/// header's comment: a Morse complex under a matching of equal values, Mischaikow & Nanda 2013).
+template <class R>
+void run_persistence(const persistence_request& q, const R& ring_one) {
+  MPI_Comm comm = MPI_COMM_WORLD;
+  const int rank = rank_of(comm);
+  // a volume has at least one voxel (NRRD sizes are positive): the one-process default top
+  // dimension is that of the grid, 3; --max-dimension above 3 prints empty diagrams up to it
+  const long long top = q.max_dimension.value_or(3);
+  lacuna_cli::persistence_outcome out;
+  out.superlevel = q.superlevel;
+  out.filtration = q.superlevel ? "superlevel" : "sublevel";
+  const lacuna_cli::sample_cut cut = lacuna_cli::cut_of_samples(q.up_to, q.superlevel);
+  // computed even when no sample enters by V (an --up-to below every 32-bit value), so that a
+  // bad file is refused as the one-process tool, which reads the samples first, refuses it
+  const lacuna::distributed::volume_persistence_options po{
+      .direction = q.superlevel ? lacuna::level_sets::superlevel : lacuna::level_sets::sublevel,
+      .max_dimension = static_cast<int>(std::min<long long>(top, 3))};
+  auto r = lacuna::distributed::volume_persistence<R>(comm, q.file, po, ring_one);
+  if (cut.nothing)
+    lacuna_cli::no_pairs(top, out);
+  else if (r.has_result)
+    lacuna_cli::collect_up_to(std::move(r.result), cut.last, top, out);
+  // the pictures and the report, on rank 0; a failure there (a picture that cannot be
+  // written) ends every rank with its one line
+  lacuna::distributed::collective_phase(comm, "writing the result", [&] {
+    if (rank != 0) return;
+    lacuna_cli::write_pictures(out, q.co, q.file, q.diagram, q.barcode);
+    const std::string text = q.json ? lacuna_cli::persistence_json(out, q.co) : lacuna_cli::persistence_text(out, q.co, q.file);
+    if (std::fwrite(text.data(), 1, text.size(), stdout) != text.size() || std::fflush(stdout) != 0)
+      throw std::runtime_error("cannot write the result to standard output");
+  });
+}
+
 /// The one line of an error: control characters shown as '?'.
 std::string one_line(std::string s) {
   for (auto& ch : s)
@@ -151,8 +173,17 @@ std::string one_line(std::string s) {
   return s;
 }
 
+/// Prints the one line of an error on stderr in one write, line end included, so that the lines
+/// of ranks that fail together are not cut into one another.
+void print_error(const std::string& message) {
+  const std::string line = one_line(message) + "\n";
+  std::fwrite(line.data(), 1, line.size(), stderr);
+  std::fflush(stderr);
+}
+
 int main_of_rank(int argc, char** argv) {
-  CLI::App app{"lacuna-mpi: exact homology of a complex in pieces or of a volume, on MPI ranks"};
+  CLI::App app{"lacuna-mpi: exact homology of a complex in pieces or of a volume, and persistence of a volume, on MPI "
+               "ranks"};
   app.set_version_flag("--version", std::string("lacuna-mpi ") + LACUNA_VERSION, "print the version and exit");
   app.require_subcommand(1);
   lacuna_cli::run_options o;
@@ -182,6 +213,24 @@ int main_of_rank(int argc, char** argv) {
   hom->add_option("FILE", files, "one .nrrd volume, or .facets pieces (FILE i read by rank i mod N; one FILE with %r: "
                                  "every rank reads its own, %r its rank)")
       ->required();
+  // `lacuna persistence` for volumes (examples/cli/persistence.cpp registers the same options)
+  persistence_request pq;
+  std::string field_text = "Z/2";
+  std::optional<std::string> max_dimension_text, values;
+  std::vector<std::string> per_files;
+  bool per_quiet = false, cycles = false;
+  auto* per = app.add_subcommand("persistence", "persistence diagrams of a volume's sublevel (or superlevel) filtration");
+  per->add_option("--coefficients", field_text, "Z/p for a prime p (default Z/2), or Q");
+  per->add_option("--max-dimension", max_dimension_text, "diagrams of dimensions 0..D (default 3)")->type_name("D");
+  per->add_option("--up-to", pq.up_to, "keep only the cells entering at V or before")->type_name("V");
+  per->add_flag("--superlevel", pq.superlevel, "the filtration runs from the largest value down");
+  per->add_flag("--json", pq.json, "one JSON object, as lacuna persistence --json");
+  per->add_option("--diagram", pq.diagram, "also write the persistence diagram as SVG (rank 0)")->type_name("OUT.svg");
+  per->add_option("--barcode", pq.barcode, "also write the barcode as SVG (rank 0)")->type_name("OUT.svg");
+  per->add_flag("--quiet", per_quiet, "no progress on stderr (none is printed by lacuna-mpi)");
+  per->add_option("--values", values)->group("");
+  per->add_flag("--cycles", cycles)->group("");
+  per->add_option("FILE", per_files, "one .nrrd volume")->required();
   try {
     try {
       app.parse(argc, argv);
@@ -202,6 +251,27 @@ int main_of_rank(int argc, char** argv) {
     const auto refuse = [](bool given, const char* option, const char* why) {
       if (given) throw usage_error(std::string("lacuna-mpi: ") + option + " is not offered by lacuna-mpi (" + why + ")");
     };
+    if (per->parsed()) {
+      refuse(values.has_value(), "--values", "it gives the values of .facets and .cells files, which lacuna-mpi "
+                                             "persistence does not read; lacuna persistence --values");
+      refuse(cycles, "--cycles", "it applies to point clouds and distance matrices; lacuna persistence --cycles");
+      pq.co = lacuna_cli::parse_coefficients(field_text, lacuna_cli::coefficient_use::field);
+      if (max_dimension_text)
+        pq.max_dimension = lacuna_cli::parse_number<long long>(*max_dimension_text, "--max-dimension", 0,
+                                                               lacuna_cli::max_dimension_limit);
+      if (per_files.size() != 1)
+        throw usage_error("lacuna-mpi: persistence reads one .nrrd volume, not " + std::to_string(per_files.size()) +
+                          " files");
+      pq.file = per_files[0];
+      std::string ext = std::filesystem::path(pq.file).extension().string();
+      for (auto& ch : ext) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+      if (ext != ".nrrd")
+        throw usage_error("lacuna-mpi: " + pq.file + ": lacuna-mpi persistence reads .nrrd volumes only (lacuna "
+                          "persistence reads the other formats)");
+      if (pq.up_to) lacuna_cli::parse_up_to(*pq.up_to);
+      lacuna_cli::with_field(pq.co, [&](const auto& ring_one) { run_persistence(pq, ring_one); });
+      return 0;
+    }
     refuse(generators, "--generators", "the ranks keep no maps back to the cells; lacuna homology --generators");
     refuse(check, "--check", "lacuna homology --check");
     refuse(relative.has_value(), "--relative", "lacuna homology --relative");
@@ -231,13 +301,13 @@ int main_of_rank(int argc, char** argv) {
     }
     return 0;
   } catch (const lacuna::distributed::distributed_error& e) {
-    std::cerr << one_line(e.what()) << "\n";
+    print_error(e.what());
   } catch (const usage_error& e) {
-    std::cerr << one_line(e.what()) << "\n";
+    print_error(e.what());
   } catch (const lacuna_cli::option_error& e) {
-    std::cerr << one_line(e.what()) << "\n";
+    print_error(e.what());
   } catch (const std::exception& e) {
-    std::cerr << one_line("lacuna-mpi: rank " + std::to_string(rank_of(MPI_COMM_WORLD)) + ": " + e.what()) << "\n";
+    print_error("lacuna-mpi: rank " + std::to_string(rank_of(MPI_COMM_WORLD)) + ": " + e.what());
   }
   return 2;
 }

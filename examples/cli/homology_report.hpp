@@ -1,7 +1,7 @@
 // examples/cli/homology_report.hpp — the report of `lacuna homology` and `lacuna cohomology`
-// (human text and --json, docs/formats.md) and what it needs: the coefficients option, the run
-// options and the one-line usage error. Shared by the one-process tool (main.cpp) and the MPI
-// tool (examples/cli-mpi/), so that both print the same answer the same way.
+// (human text and --json, docs/formats.md) and what it needs: the run options (the coefficients
+// and the one-line usage error come from coefficients.hpp). Shared by the one-process tool
+// (main.cpp) and the MPI tool (examples/cli-mpi/), so that both print the same answer the same way.
 #pragma once
 
 #include <lacuna/complex/concepts.hpp>
@@ -10,10 +10,10 @@
 #include <lacuna/io/line_reader.hpp>
 #include <lacuna/ring/integer.hpp>
 #include <lacuna/ring/mod_p.hpp>
-#include <lacuna/ring/primality.hpp>
 #include <lacuna/ring/rational.hpp>
 #include <lacuna/ring/z2.hpp>
 
+#include "coefficients.hpp"
 #include "options.hpp"
 
 #include <concepts>
@@ -26,51 +26,12 @@
 
 namespace lacuna_cli {
 
-/// Exit status 2 with this message (already "FILE:LINE: ..." or "lacuna: ...").
-struct usage_error : std::runtime_error {
-  using std::runtime_error::runtime_error;
-};
-
-struct coefficients {
-  enum kind { integers, rationals, mod_p } k = integers;
-  std::uint64_t p = 0;
-  std::string text = "Z";
-};
-
-coefficients parse_coefficients(const std::string& s) {
-  coefficients c;
-  c.text = s;
-  if (s == "Z") return c;
-  if (s == "Q") {
-    c.k = coefficients::rationals;
-    return c;
-  }
-  if (s.size() > 2 && s.rfind("Z/", 0) == 0) {
-    // the modulus through the tool's one number parser: decimal, leading zeros dropped
-    const auto d = lacuna_cli::parse_decimal(std::string_view(s).substr(2), false);
-    if (d.status == lacuna_cli::number_status::too_large || (d.status == lacuna_cli::number_status::ok &&
-                                                             d.magnitude >= lacuna::mod_p_modulus_limit))
-      throw usage_error("lacuna: --coefficients " + s + ": the prime must be below 2^62");
-    if (d.status != lacuna_cli::number_status::ok)
-      throw usage_error("lacuna: --coefficients " + s + ": expected Z, Q or Z/p for a prime p");
-    const std::uint64_t p = d.magnitude;
-    if (!lacuna::is_prime(p))
-      throw usage_error("lacuna: --coefficients " + s + ": " + std::to_string(p) + " is not a prime");
-    c.k = coefficients::mod_p;
-    c.p = p;
-    c.text = "Z/" + std::to_string(p);
-    return c;
-  }
-  throw usage_error("lacuna: --coefficients " + s + ": expected Z, Q or Z/p for a prime p");
-}
-
-
 // ---- output -----------------------------------------------------------------------------
 
 /// Appends s as a JSON string literal, always valid UTF-8: control characters escaped, and
 /// every byte that is not part of a well-formed UTF-8 sequence (a file name in another
 /// encoding) written as U+FFFD, the replacement character (docs/cli.md, *JSON layout*).
-void append_json_string(std::string& out, const std::string& s) {
+inline void append_json_string(std::string& out, const std::string& s) {
   out += '"';
   for (std::size_t i = 0; i < s.size();) {
     const auto ch = static_cast<unsigned char>(s[i]);
@@ -105,9 +66,9 @@ void append_json_string(std::string& out, const std::string& s) {
   }
   out += '"';
 }
-std::string text_of(const lacuna::integer& x) { return x.to_string(); }
-std::string text_of(const lacuna::z2& x) { return x == lacuna::one<lacuna::z2>() ? "1" : "0"; }
-std::string text_of(const lacuna::mod_p_dynamic& x, std::uint64_t p) {
+inline std::string text_of(const lacuna::integer& x) { return x.to_string(); }
+inline std::string text_of(const lacuna::z2& x) { return x == lacuna::one<lacuna::z2>() ? "1" : "0"; }
+inline std::string text_of(const lacuna::mod_p_dynamic& x, std::uint64_t p) {
   if (x.is_bound()) return std::to_string(x.value());
   return std::to_string(lacuna::mod_p_dynamic(x.unbound_value(), p).value());
 }
@@ -140,7 +101,7 @@ std::vector<std::string> chain_coefficients(const lacuna::chain<R>& ch, const co
   return out;
 }
 
-std::string group_text(std::size_t rank, const std::vector<std::string>& torsion, const coefficients& co) {
+inline std::string group_text(std::size_t rank, const std::vector<std::string>& torsion, const coefficients& co) {
   std::string base = co.k == coefficients::integers ? "Z" : co.k == coefficients::rationals ? "Q" : "(" + co.text + ")";
   if (co.k == coefficients::integers) base = "Z";
   std::vector<std::string> parts;
@@ -198,7 +159,7 @@ lacuna::sparse_elimination algorithm_for(const run_options& o) {
   return a;
 }
 
-lacuna::io::facets_read_options facets_options(const run_options& o) {
+inline lacuna::io::facets_read_options facets_options(const run_options& o) {
   lacuna::io::facets_read_options f;
   if (o.max_cells) f.max_cells = static_cast<std::size_t>(*o.max_cells);
   if (o.max_facet_vertices) f.max_facet_vertices = static_cast<std::size_t>(*o.max_facet_vertices);

@@ -5,6 +5,7 @@
 // double, and exit status 2 with one line on stderr for every bad input.
 #include "persistence.hpp"
 #include "options.hpp"
+#include "persistence_report.hpp"
 
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
@@ -48,90 +49,6 @@ namespace lacuna_cli {
 
 namespace {
 
-/// Exit status 2 with this line (already "FILE:LINE: ..." or "lacuna: ...").
-struct bad_input : std::runtime_error {
-  using std::runtime_error::runtime_error;
-};
-
-/// The highest --max-dimension accepted (a diagram per dimension is printed, empty or not).
-constexpr long long max_dimension_limit = 1000;
-
-struct field_choice {
-  enum kind_t { z2, mod_p, rationals } kind = z2;
-  std::uint64_t p = 2;
-  std::string text = "Z/2";
-};
-
-field_choice parse_field(const std::string& s) {
-  field_choice f;
-  if (s == "Q") {
-    f.kind = field_choice::rationals;
-    f.text = "Q";
-    return f;
-  }
-  if (s == "Z")
-    throw bad_input("lacuna: --coefficients Z: persistence needs a field (barcodes exist over a field only): use Z/p "
-                    "for a prime p, or Q");
-  if (s.size() > 2 && s.rfind("Z/", 0) == 0) {
-    const std::string digits = s.substr(2);
-    if (digits.find_first_not_of("0123456789") != std::string::npos || digits.size() > 19)
-      throw bad_input("lacuna: --coefficients " + s + ": expected Z/p for a prime p, or Q");
-    const std::uint64_t p = std::stoull(digits);
-    if (p >= lacuna::mod_p_modulus_limit)
-      throw bad_input("lacuna: --coefficients " + s + ": the prime must be below 2^62");
-    if (!lacuna::is_prime(p)) throw bad_input("lacuna: --coefficients " + s + ": " + digits + " is not a prime");
-    f.kind = p == 2 ? field_choice::z2 : field_choice::mod_p;
-    f.p = p;
-    f.text = "Z/" + std::to_string(p);
-    return f;
-  }
-  throw bad_input("lacuna: --coefficients " + s + ": expected Z/p for a prime p, or Q");
-}
-
-/// Runs fn(unit) with the one of the chosen field.
-template <class Fn>
-void with_field(const field_choice& f, Fn&& fn) {
-  switch (f.kind) {
-    case field_choice::z2:
-      return fn(lacuna::one<lacuna::z2>());
-    case field_choice::mod_p:
-      return fn(lacuna::mod_p_dynamic(1, f.p));
-    case field_choice::rationals:
-      return fn(lacuna::one<lacuna::rational>());
-  }
-}
-
-/// A value as a JSON number: integers (image samples) in decimal, doubles as the shortest
-/// decimal that reads back as the same double.
-template <class V>
-std::string value_text(const V& v) {
-  if constexpr (std::is_floating_point_v<V>) {
-    char buf[64];
-    const auto r = std::to_chars(buf, buf + sizeof buf, v);
-    return std::string(buf, r.ptr);
-  } else {
-    return std::to_string(v);
-  }
-}
-
-/// One term of a printed cocycle: its coefficient as text and its simplex, points numbered
-/// from 1 in the order of the file.
-struct cocycle_term {
-  std::string coefficient;
-  std::vector<std::uint32_t> points;
-};
-
-/// The diagrams as printed: per dimension, the pairs' values as text and as doubles (for the
-/// pictures), and with --cycles a cocycle per pair.
-struct outcome {
-  std::string filtration;
-  bool superlevel = false;
-  std::vector<std::vector<std::pair<std::string, std::optional<std::string>>>> text;
-  std::vector<std::vector<lacuna::io::diagram_interval>> values;
-  bool has_cocycles = false;
-  std::vector<std::vector<std::vector<cocycle_term>>> cocycles;  // [k][j]: of text[k][j]
-};
-
 /// The coefficients of a cocycle as text: residues 1..p-1 over Z/p; over Q the cocycle scaled
 /// to coprime integers (a non-zero multiple of a representative cocycle is one too).
 template <class R>
@@ -160,38 +77,14 @@ std::vector<std::string> coefficient_texts(const lacuna::rips_cochain<R>& z, std
   return out;
 }
 
-/// Copies the diagrams of a result (pairs of persistence zero already dropped) into `out`, with
-/// empty diagrams up to dimension `top` where the result has fewer.
-template <class Result>
-void collect(const Result& r, long long top, outcome& out) {
-  out.text.assign(static_cast<std::size_t>(top + 1), {});
-  out.values.assign(static_cast<std::size_t>(top + 1), {});
-  for (const auto& d : r.diagrams) {
-    if (d.dimension < 0 || d.dimension > top) continue;
-    const auto k = static_cast<std::size_t>(d.dimension);
-    for (const auto& p : d.pairs) {
-      std::optional<std::string> death;
-      std::optional<double> death_value;
-      if (!p.essential()) {
-        death = value_text(*p.death);
-        death_value = static_cast<double>(*p.death);
-      }
-      out.text[k].emplace_back(value_text(p.birth), std::move(death));
-      out.values[k].emplace_back(static_cast<double>(p.birth), death_value);
-    }
-  }
-}
-
 /// The persistence of f over the field of `ring_one`, diagrams 0..top, pairs of persistence zero
 /// dropped, cut after `last` when given.
 template <class F, class R, class V = lacuna::filtration_value_t<F>>
 void compute(const F& f, long long top, const std::optional<V>& last, const run_context& context, const R& ring_one,
-             outcome& out) {
+             persistence_outcome& out) {
   lacuna::persistence_options o{.max_dimension = static_cast<int>(top)};
   o.control.stop = context.stop;
-  auto r = lacuna::persistence<R>(f, o, lacuna::automatic_persistence{}, ring_one);
-  if (last) r = lacuna::up_to(std::move(r), *last);
-  collect(lacuna::without_zero_persistence(std::move(r)), top, out);
+  collect_up_to(lacuna::persistence<R>(f, o, lacuna::automatic_persistence{}, ring_one), last, top, out);
 }
 
 std::string extension_of(const std::string& file) {
@@ -201,17 +94,8 @@ std::string extension_of(const std::string& file) {
 }
 
 void check_input(const std::string& f) {
-  if (!std::filesystem::exists(f)) throw bad_input(f + ": no such file");
-  if (std::filesystem::is_directory(f)) throw bad_input(f + ": is a directory, not a file");
-}
-
-/// --up-to V as a double (a decimal of the file formats).
-double parse_up_to(const std::string& v) {
-  double x = 0;
-  if (lacuna::io::text_detail::parse_decimal(v, x) != lacuna::io::text_detail::decimal_status::ok)
-    throw bad_input("lacuna: --up-to " + lacuna::io::text_detail::quote(v) +
-                    " is not a number (a decimal such as 2, -0.75 or 1.5e-3)");
-  return x;
+  if (!std::filesystem::exists(f)) throw usage_error(f + ": no such file");
+  if (std::filesystem::is_directory(f)) throw usage_error(f + ": is a directory, not a file");
 }
 
 // ---- the inputs ---------------------------------------------------------------------------
@@ -238,8 +122,8 @@ lacuna::rips_metric read_distance_matrix(const std::string& file) {
 /// check one route against the other on real files. Both print the same bytes.
 bool explicit_rips_route = false;
 
-void run_rips_explicit(const persistence_command::settings& s, const field_choice& field, const run_context& context,
-                       outcome& out) {
+void run_rips_explicit(const persistence_command::settings& s, const coefficients& field, const run_context& context,
+                       persistence_outcome& out) {
   const std::string ext = extension_of(s.file);
   const long long top = s.max_dimension.value_or(1);
   lacuna::rips_options ro{.max_dimension = static_cast<int>(top + 1)};
@@ -278,8 +162,8 @@ void run_rips_explicit(const persistence_command::settings& s, const field_choic
 /// the tool drops, are not computed). With --up-to V the edges longer than V are left out, as
 /// there; without it the enclosing radius cuts the filtration, which changes no pair the tool
 /// prints (the explicit route, which keeps every edge, gives the same output).
-void run_rips(const persistence_command::settings& s, const field_choice& field, const run_context& context,
-              outcome& out) {
+void run_rips(const persistence_command::settings& s, const coefficients& field, const run_context& context,
+              persistence_outcome& out) {
   if (explicit_rips_route) return run_rips_explicit(s, field, context, out);
   const std::string ext = extension_of(s.file);
   const long long top = s.max_dimension.value_or(1);
@@ -320,7 +204,7 @@ void run_rips(const persistence_command::settings& s, const field_choice& field,
 /// lines of VALUES (or of FILE, for a cell with no value and no faces).
 template <class C>
 void run_values(const C& complex, lacuna::io::value_names kind, const persistence_command::settings& s,
-                const field_choice& field, const run_context& context, outcome& out) {
+                const coefficients& field, const run_context& context, persistence_outcome& out) {
   const auto list = lacuna::io::read_values(std::filesystem::path(s.values), {.names = kind});
   const auto resolved = lacuna::io::resolve_values(list, complex, s.file);
   const int dims = lacuna::top_dimension(complex) + 1;
@@ -370,115 +254,15 @@ void run_values(const C& complex, lacuna::io::value_names kind, const persistenc
 /// --superlevel; the cut is made on the pairs, which is the persistence of the cut filtration.
 template <std::size_t D>
 void run_samples(const std::array<std::size_t, D>& extents, std::vector<std::int32_t> samples,
-                 const persistence_command::settings& s, const field_choice& field, const run_context& context,
-                 outcome& out) {
+                 const persistence_command::settings& s, const coefficients& field, const run_context& context,
+                 persistence_outcome& out) {
   const auto direction = s.superlevel ? lacuna::level_sets::superlevel : lacuna::level_sets::sublevel;
   const lacuna::cubical_filtration<D, std::int32_t> f(extents, std::move(samples), direction);
   const long long top = s.max_dimension.value_or(lacuna::top_dimension(f));
   out.filtration = s.superlevel ? "superlevel" : "sublevel";
-  std::optional<std::int32_t> last;
-  bool nothing = false;  // no sample enters at V or before
-  if (s.up_to) {
-    const double v = parse_up_to(*s.up_to);
-    // the last sample value that enters: floor(V) going up, ceil(V) going down
-    const double lo = std::numeric_limits<std::int32_t>::min(), hi = std::numeric_limits<std::int32_t>::max();
-    const double cut = s.superlevel ? std::ceil(v) : std::floor(v);
-    if (s.superlevel ? cut > hi : cut < lo)
-      nothing = true;
-    else
-      last = static_cast<std::int32_t>(std::clamp(cut, lo, hi));
-  }
-  if (nothing) {
-    out.text.assign(static_cast<std::size_t>(std::max<long long>(top + 1, 0)), {});
-    out.values.assign(out.text.size(), {});
-    return;
-  }
-  with_field(field, [&](const auto& ring_one) { compute(f, top, last, context, ring_one, out); });
-}
-
-// ---- output -------------------------------------------------------------------------------
-
-std::string json_of(const outcome& o, const field_choice& field) {
-  std::string s = "{\n  \"coefficients\": \"" + field.text + "\",\n  \"filtration\": \"" + o.filtration +
-                  "\",\n  \"diagrams\": [";
-  for (std::size_t k = 0; k < o.text.size(); ++k) {
-    s += k ? ",\n    " : "\n    ";
-    s += "{\"dimension\": " + std::to_string(k) + ", \"pairs\": [";
-    for (std::size_t j = 0; j < o.text[k].size(); ++j) {
-      const auto& [b, d] = o.text[k][j];
-      s += (j ? ", [" : "[") + b + ", " + (d ? *d : std::string("null")) + "]";
-    }
-    s += "]}";
-  }
-  s += o.text.empty() ? "]" : "\n  ]";
-  if (o.has_cocycles) {
-    // an extension of the contract's layout (docs/persistence-cli.md): one cocycle per pair
-    s += ",\n  \"representatives\": [";
-    for (std::size_t k = 0; k < o.cocycles.size(); ++k) {
-      s += k ? ",\n    " : "\n    ";
-      s += "{\"dimension\": " + std::to_string(k) + ", \"cocycles\": [";
-      for (std::size_t j = 0; j < o.cocycles[k].size(); ++j) {
-        s += j ? ",\n      [" : "\n      [";
-        const auto& terms = o.cocycles[k][j];
-        for (std::size_t i = 0; i < terms.size(); ++i) {
-          s += i ? ", [" : "[";
-          s += terms[i].coefficient;
-          s += ", [";
-          for (std::size_t v = 0; v < terms[i].points.size(); ++v) {
-            if (v) s += ", ";
-            s += std::to_string(terms[i].points[v]);
-          }
-          s += "]]";
-        }
-        s += "]";
-      }
-      s += o.cocycles[k].empty() ? "]}" : "\n    ]}";
-    }
-    s += o.cocycles.empty() ? "]" : "\n  ]";
-  }
-  s += "\n}\n";
-  return s;
-}
-
-std::string text_of(const outcome& o, const field_choice& field, const std::string& file) {
-  std::string s = "persistence of " + file + " over " + field.text + " (" + o.filtration + " filtration";
-  s += o.superlevel ? ", values decreasing)\n" : ")\n";
-  if (o.text.empty()) s += "no cells: no diagrams\n";
-  for (std::size_t k = 0; k < o.text.size(); ++k) {
-    const auto n = o.text[k].size();
-    s += "dimension " + std::to_string(k) + ": " + std::to_string(n) + (n == 1 ? " class" : " classes") + "\n";
-    for (std::size_t j = 0; j < n; ++j) {
-      const auto& [b, d] = o.text[k][j];
-      s += "  born " + b + ", " + (d ? "dies " + *d : std::string("never dies")) + "\n";
-      if (!o.has_cocycles) continue;
-      s += "    cocycle:";
-      const auto& terms = o.cocycles[k][j];
-      for (std::size_t i = 0; i < terms.size(); ++i) {
-        std::string c = terms[i].coefficient;
-        const bool negative = !c.empty() && c[0] == '-';
-        if (negative) c.erase(0, 1);
-        s += i == 0 ? (negative ? " -" : " ") : (negative ? " - " : " + ");
-        if (c != "1") {
-          s += c;
-          s += '*';
-        }
-        s += "[";
-        for (std::size_t v = 0; v < terms[i].points.size(); ++v) {
-          if (v) s += ' ';
-          s += std::to_string(terms[i].points[v]);
-        }
-        s += "]";
-      }
-      s += "\n";
-    }
-  }
-  return s;
-}
-
-void write_file(const std::string& path, const std::string& content) {
-  std::ofstream out(path, std::ios::binary | std::ios::trunc);
-  if (out) out << content;
-  if (!out || !out.flush()) throw bad_input(path + ": cannot write the file");
+  const sample_cut cut = cut_of_samples(s.up_to, s.superlevel);
+  if (cut.nothing) return no_pairs(top, out);
+  with_field(field, [&](const auto& ring_one) { compute(f, top, cut.last, context, ring_one, out); });
 }
 
 }  // namespace
@@ -519,7 +303,7 @@ int persistence_command::run(const run_context& context) const {
     return m;
   };
   try {
-    const field_choice field = parse_field(s.coefficients);
+    const coefficients field = parse_coefficients(s.coefficients, coefficient_use::field);
     // The one number parser of the tool (options.hpp): decimal only, "010" is 10, "" refused.
     if (s.max_dimension_text)
       s.max_dimension = parse_number<long long>(*s.max_dimension_text, "--max-dimension", 0, max_dimension_limit);
@@ -529,23 +313,23 @@ int persistence_command::run(const run_context& context) const {
     const bool complex = ext == ".facets" || ext == ".cells";
     const bool image = ext == ".pgm" || ext == ".nrrd";
     if (!cloud && !complex && !image)
-      throw bad_input(s.file + ": unknown file type '" + ext +
+      throw usage_error(s.file + ": unknown file type '" + ext +
                       "' for persistence (expected .points, .csv, .distances, .links, .pgm, .nrrd, or .facets or .cells "
                       "with --values)");
     if (complex && s.values.empty())
-      throw bad_input("lacuna: persistence of " + s.file + " needs --values VALUES (the value at which each cell enters)");
+      throw usage_error("lacuna: persistence of " + s.file + " needs --values VALUES (the value at which each cell enters)");
     if (!complex && !s.values.empty())
-      throw bad_input("lacuna: --values applies to .facets and .cells files, not to " + s.file);
+      throw usage_error("lacuna: --values applies to .facets and .cells files, not to " + s.file);
     if (s.superlevel && !image)
-      throw bad_input("lacuna: --superlevel applies to images and volumes (.pgm, .nrrd), not to " + s.file);
+      throw usage_error("lacuna: --superlevel applies to images and volumes (.pgm, .nrrd), not to " + s.file);
     if (s.cycles && !cloud)
-      throw bad_input("lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances, .links), "
+      throw usage_error("lacuna: --cycles applies to point clouds and distance matrices (.points, .csv, .distances, .links), "
                       "not to " + s.file);
     if (s.cycles && explicit_rips_route)
-      throw bad_input("lacuna: --cycles takes the cocycles of the implicit Vietoris-Rips route, not --explicit-rips");
+      throw usage_error("lacuna: --cycles takes the cocycles of the implicit Vietoris-Rips route, not --explicit-rips");
     if (s.up_to) parse_up_to(*s.up_to);
     if (!s.values.empty()) check_input(s.values);
-    outcome out;
+    persistence_outcome out;
     out.superlevel = s.superlevel;
     if (cloud) {
       run_rips(s, field, context, out);
@@ -562,11 +346,8 @@ int persistence_command::run(const run_context& context) const {
       auto [extents, samples] = lacuna::io::read_nrrd_samples<3>(std::filesystem::path(s.file));
       run_samples<3>(extents, std::move(samples), s, field, context, out);
     }
-    const std::string title = s.file + " (" + out.filtration + ", " + field.text + ")";
-    const lacuna::io::persistence_picture_options pictures{.title = title, .superlevel = out.superlevel};
-    if (!s.diagram.empty()) write_file(s.diagram, lacuna::io::persistence_diagram_svg(out.values, pictures));
-    if (!s.barcode.empty()) write_file(s.barcode, lacuna::io::barcode_svg(out.values, pictures));
-    const std::string result = s.json ? json_of(out, field) : text_of(out, field, s.file);
+    write_pictures(out, field, s.file, s.diagram, s.barcode);
+    const std::string result = s.json ? persistence_json(out, field) : persistence_text(out, field, s.file);
     if (context.begin_output && !context.begin_output()) throw lacuna::computation_stopped();
     std::cout << result << std::flush;
     return 0;
@@ -575,7 +356,7 @@ int persistence_command::run(const run_context& context) const {
   } catch (const option_error& e) {
     std::cerr << one_line(e.what()) << "\n";
     return 2;
-  } catch (const bad_input& e) {
+  } catch (const usage_error& e) {
     std::cerr << one_line(e.what()) << "\n";
   } catch (const lacuna::parse_error& e) {
     std::cerr << one_line(e.what()) << "\n";

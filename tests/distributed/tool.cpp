@@ -2,12 +2,18 @@
 // exactly what `lacuna homology ...` prints for the whole input (the contract of docs/cli.md and
 // docs/formats.md), and end every rank with status 2 and the same one-line error when a piece
 // is malformed; a rank killed by a signal ends the whole run, never a hang.
+// `lacuna-mpi persistence` must print exactly what `lacuna persistence` prints for the same
+// volume and options (docs/persistence-cli.md), and its essential classes must be the Betti
+// numbers of the filtration's last set, computed apart (Alexander duality and flood fills,
+// tests/cubical/volume_support.hpp; the shapes' textbook groups).
 //
 // These cases start mpiexec themselves, each child in a clean environment (a process of an MPI
 // job cannot start another job with the job's own variables set), so they run in the one-rank
 // run of this file (distributed/tool/np1); the runs with more ranks skip them.
 #include <lacuna/complex/simplicial_complex.hpp>
 #include <lacuna/io/facets.hpp>
+
+#include "cubical/volume_support.hpp"
 
 #include <doctest/doctest.h>
 #include <mpi.h>
@@ -17,7 +23,10 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <algorithm>
+#include <array>
 #include <chrono>
+#include <cstdint>
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
@@ -295,6 +304,273 @@ TEST_CASE("lacuna-mpi: a malformed piece ends every rank with status 2 and one l
   CAPTURE(got.err);
   CHECK(count == 3);
   CHECK(got.err.find("is repeated within one simplex") != std::string::npos);
+  fs::remove_all(dir);
+}
+
+// ---- persistence ----------------------------------------------------------------------------
+
+/// A volume of 16-bit samples (axis 0 fastest), written as a raw little-endian NRRD file.
+struct gray_volume {
+  std::array<std::size_t, 3> n{};
+  std::vector<std::uint16_t> samples;
+  std::uint16_t& at(std::size_t x, std::size_t y, std::size_t z) { return samples[x + n[0] * (y + n[1] * z)]; }
+};
+
+void write_gray(const fs::path& file, const gray_volume& v) {
+  std::ofstream out(file, std::ios::binary);
+  out << "NRRD0004\ntype: uint16\ndimension: 3\nsizes: " << v.n[0] << " " << v.n[1] << " " << v.n[2]
+      << "\nendian: little\nencoding: raw\n\n";
+  for (std::uint16_t x : v.samples) {
+    out.put(static_cast<char>(x & 0xff));
+    out.put(static_cast<char>(x >> 8));
+  }
+}
+
+/// Porous-like gray levels: white noise blurred (a box blur along each axis, twice) and
+/// quantized to `levels` values, so that many cells tie and the sublevel sets have tunnels and
+/// cavities.
+gray_volume porous_gray(std::array<std::size_t, 3> n, unsigned levels, std::uint64_t seed) {
+  std::mt19937_64 gen(seed);
+  std::vector<double> f(n[0] * n[1] * n[2]);
+  for (auto& x : f) x = std::uniform_real_distribution<double>(0, 1)(gen);
+  for (int pass = 0; pass < 2; ++pass)
+    for (std::size_t axis = 0; axis < 3; ++axis) {
+      const std::size_t stride = axis == 0 ? 1 : axis == 1 ? n[0] : n[0] * n[1];
+      std::vector<double> g(f.size());
+      for (std::size_t i = 0; i < f.size(); ++i) {
+        const std::size_t c = (i / stride) % n[axis];
+        double sum = f[i];
+        int m = 1;
+        if (c > 0) sum += f[i - stride], ++m;
+        if (c + 1 < n[axis]) sum += f[i + stride], ++m;
+        g[i] = sum / m;
+      }
+      f = std::move(g);
+    }
+  const auto [lo, hi] = std::minmax_element(f.begin(), f.end());
+  gray_volume v{n, std::vector<std::uint16_t>(f.size())};
+  for (std::size_t i = 0; i < f.size(); ++i)
+    v.samples[i] = static_cast<std::uint16_t>(std::min<double>(levels - 1, (f[i] - *lo) / (*hi - *lo + 1e-12) * levels));
+  return v;
+}
+
+/// Samples given by a rule.
+template <class F>
+gray_volume shaped_gray(std::array<std::size_t, 3> n, F value) {
+  gray_volume v{n, std::vector<std::uint16_t>(n[0] * n[1] * n[2])};
+  for (std::size_t z = 0; z < n[2]; ++z)
+    for (std::size_t y = 0; y < n[1]; ++y)
+      for (std::size_t x = 0; x < n[0]; ++x) v.at(x, y, z) = value(x, y, z);
+  return v;
+}
+
+/// The volumes of the persistence cases (name, samples, values t at which the Betti numbers of
+/// the level set are checked).
+struct persistence_case {
+  std::string name;
+  gray_volume v;
+  std::vector<int> levels;
+};
+
+std::vector<persistence_case> persistence_cases() {
+  std::vector<persistence_case> c;
+  c.push_back({"porous", porous_gray({9, 8, 13}, 6, 1), {1, 2, 3, 4}});
+  // a square ring of value 1 in the x-z plane, 4 elsewhere: every slab along z cuts its tunnel
+  // (its sublevel set at 1 is a solid torus, (Z, Z, 0): Hatcher, Algebraic Topology, 2002, from memory)
+  c.push_back({"tunnel", shaped_gray({8, 3, 10},
+                                     [](std::size_t x, std::size_t y, std::size_t z) -> std::uint16_t {
+                                       const bool square = x >= 1 && x <= 6 && z >= 1 && z <= 8 && y == 1;
+                                       const bool hole = x >= 3 && x <= 4 && z >= 3 && z <= 6;
+                                       return square && !hole ? 1 : 4;
+                                     }),
+               {1, 2, 4}});
+  // a cube shell of value 1, 9 inside, 5 outside, cut through its void (the sublevel set at 1
+  // is a 2-sphere thickened, (Z, 0, Z) by Alexander duality; at 5 the void is still there)
+  c.push_back({"void", shaped_gray({7, 7, 9},
+                                   [](std::size_t x, std::size_t y, std::size_t z) -> std::uint16_t {
+                                     const bool outer = x >= 1 && x <= 5 && y >= 1 && y <= 5 && z >= 1 && z <= 7;
+                                     const bool inner = x >= 2 && x <= 4 && y >= 2 && y <= 4 && z >= 2 && z <= 6;
+                                     return outer && !inner ? 1 : inner ? 9 : 5;
+                                   }),
+               {1, 5, 9}});
+  // every sample zero: one class, born at 0, never dies (the solid box is contractible)
+  c.push_back({"constant", shaped_gray({4, 3, 5}, [](std::size_t, std::size_t, std::size_t) -> std::uint16_t { return 0; }),
+               {0}});
+  // two layers: runs on 3 and 4 ranks leave ranks without a slab
+  c.push_back({"flat", porous_gray({6, 5, 2}, 5, 3), {1, 3}});
+  return c;
+}
+
+/// The number of classes that never die, per dimension, of a `lacuna persistence --json` object
+/// (one line per diagram: {"dimension": k, "pairs": [[b, d], ...]}).
+std::vector<std::size_t> essential_counts(const std::string& json) {
+  std::vector<std::size_t> out;
+  std::istringstream in(json);
+  for (std::string line; std::getline(in, line);) {
+    if (line.find("{\"dimension\": ") == std::string::npos) continue;
+    std::size_t n = 0;
+    for (std::size_t at = line.find(", null]"); at != std::string::npos; at = line.find(", null]", at + 1)) ++n;
+    out.push_back(n);
+  }
+  return out;
+}
+
+TEST_CASE("lacuna-mpi persistence: the same output as lacuna persistence, on 1 to 4 ranks, with pictures") {
+  if (!single_rank()) return;
+  const auto dir = scratch("persistence");
+  for (const auto& c : persistence_cases()) {
+    CAPTURE(c.name);
+    const auto file = (dir / (c.name + ".nrrd")).string();
+    write_gray(file, c.v);
+    std::vector<std::vector<std::string>> option_sets;
+    for (const char* field : {"Z/2", "Z/3", "Q"})
+      for (const bool super : {false, true}) {
+        std::vector<std::string> o = {"--coefficients", field};
+        if (super) o.push_back("--superlevel");
+        option_sets.push_back(o);
+      }
+    // the text report, the JSON object, and the cuts
+    option_sets.push_back({"--json"});
+    option_sets.push_back({"--json", "--superlevel", "--coefficients", "Q"});
+    option_sets.push_back({"--max-dimension", "1"});
+    option_sets.push_back({"--max-dimension", "5", "--json"});
+    option_sets.push_back({"--up-to", std::to_string(c.levels.front()), "--coefficients", "Z/3"});
+    option_sets.push_back({"--up-to", "2.5", "--superlevel", "--json"});
+    option_sets.push_back({"--up-to", "-3000000000", "--json"});  // below every sample: nothing enters
+    // the pictures: the same SVG files (written by rank 0), and the same report beside them
+    {
+      const auto pic = [&](const std::string& tag) {
+        return std::vector<std::string>{"persistence", "--superlevel", "--diagram", (dir / ("d" + tag + ".svg")).string(),
+                                        "--barcode", (dir / ("b" + tag + ".svg")).string(), file};
+      };
+      const auto one = one_process(pic("1"), dir);
+      const auto got = on_ranks(3, pic("3"), dir);
+      REQUIRE(one.status == 0);
+      CHECK(got.status == 0);
+      CHECK(got.out == one.out);
+      CHECK(slurp(dir / "d1.svg").find("<svg") != std::string::npos);
+      CHECK(slurp(dir / "d3.svg") == slurp(dir / "d1.svg"));
+      CHECK(slurp(dir / "b3.svg") == slurp(dir / "b1.svg"));
+    }
+    // each option set on two numbers of ranks, all of 1 to 4 taken in turn (a run of mpiexec
+    // costs about a second of start-up)
+    for (std::size_t i = 0; i < option_sets.size(); ++i) {
+      const auto& opts = option_sets[i];
+      std::string given;
+      for (const auto& o : opts) given += o + " ";
+      CAPTURE(given);
+      std::vector<std::string> args = {"persistence"};
+      args.insert(args.end(), opts.begin(), opts.end());
+      args.push_back(file);
+      const auto expected = one_process(args, dir);
+      REQUIRE(expected.status == 0);
+      for (const int n : {static_cast<int>(1 + i % 4), static_cast<int>(1 + (i + 2) % 4)}) {
+        CAPTURE(n);
+        const auto got = on_ranks(n, args, dir);
+        CAPTURE(got.err);
+        CHECK(got.status == 0);
+        CHECK(got.out == expected.out);
+      }
+    }
+  }
+  fs::remove_all(dir);
+}
+
+TEST_CASE("lacuna-mpi persistence: the essential classes are the Betti numbers of the last level set") {
+  if (!single_rank()) return;
+  const auto dir = scratch("persistence-truth");
+  for (const auto& c : persistence_cases()) {
+    CAPTURE(c.name);
+    const auto file = (dir / (c.name + ".nrrd")).string();
+    write_gray(file, c.v);
+    // the whole filtration ends with the solid box: contractible, (Z, 0, 0, 0)
+    for (const char* direction : {"--quiet", "--superlevel"}) {
+      const auto got = on_ranks(3, {"persistence", "--json", direction, file}, dir);
+      REQUIRE(got.status == 0);
+      CHECK(essential_counts(got.out) == std::vector<std::size_t>{1, 0, 0, 0});
+    }
+    // cut at t: the persistence of the cut filtration, whose essential classes are the Betti
+    // numbers of {sample <= t} (or {sample >= t} going down), computed by duality_betti
+    for (int t : c.levels)
+      for (const bool super : {false, true}) {
+        CAPTURE(t);
+        CAPTURE(super);
+        lacuna_volumes::volume set{c.v.n, std::vector<std::uint8_t>(c.v.samples.size())};
+        for (std::size_t i = 0; i < set.voxels.size(); ++i)
+          set.voxels[i] = super ? c.v.samples[i] >= t : c.v.samples[i] <= t;
+        const auto truth = lacuna_volumes::duality_betti(set);
+        std::vector<std::string> args = {"persistence", "--json", "--coefficients", "Z/3", "--up-to", std::to_string(t)};
+        if (super) args.push_back("--superlevel");
+        args.push_back(file);
+        const auto got = on_ranks(2 + t % 3, args, dir);
+        REQUIRE(got.status == 0);
+        const auto e = essential_counts(got.out);
+        REQUIRE(e.size() == 4);
+        CHECK(e[0] == truth.b0);
+        CHECK(e[1] == truth.b1);
+        CHECK(e[2] == truth.b2);
+        CHECK(e[3] == 0);
+      }
+  }
+  // the shapes' textbook groups at their first value: the solid torus (Z, Z, 0), the sphere (Z, 0, Z)
+  const auto cases = persistence_cases();
+  for (const auto& [index, want] : std::vector<std::pair<std::size_t, std::vector<std::size_t>>>{
+           {1, {1, 1, 0, 0}}, {2, {1, 0, 1, 0}}}) {
+    const auto got = on_ranks(4, {"persistence", "--json", "--up-to", "1", (dir / (cases[index].name + ".nrrd")).string()}, dir);
+    CHECK(essential_counts(got.out) == want);
+  }
+  fs::remove_all(dir);
+}
+
+/// The number of times `line` appears in `text`.
+std::size_t occurrences(const std::string& text, const std::string& line) {
+  std::size_t count = 0;
+  for (std::size_t at = text.find(line); at != std::string::npos; at = text.find(line, at + line.size())) ++count;
+  return count;
+}
+
+TEST_CASE("lacuna-mpi persistence: refused options and bad files end every rank with status 2 and one line") {
+  if (!single_rank()) return;
+  const auto dir = scratch("persistence-errors");
+  const auto file = (dir / "v.nrrd").string();
+  write_gray(file, porous_gray({4, 4, 6}, 3, 5));
+  const auto refused = [&](std::vector<std::string> args, const std::string& line) {
+    CAPTURE(line);
+    const auto got = on_ranks(3, args, dir);
+    CHECK(got.status == 2);
+    CHECK(got.out.empty());
+    CAPTURE(got.err);
+    CHECK(occurrences(got.err, line) == 3);  // every rank prints the one line
+  };
+  refused({"persistence", "--cycles", file}, "lacuna-mpi: --cycles is not offered by lacuna-mpi (");
+  refused({"persistence", "--values", "v.values", file}, "lacuna-mpi: --values is not offered by lacuna-mpi (");
+  refused({"persistence", "--coefficients", "Z", file}, "lacuna: --coefficients Z: persistence needs a field");
+  refused({"persistence", "--coefficients", "Z/4", file}, "lacuna: --coefficients Z/4: 4 is not a prime\n");
+  refused({"persistence", "--max-dimension", "-1", file}, "lacuna: --max-dimension '-1': must not be negative\n");
+  refused({"persistence", "--up-to", "x", file}, "lacuna: --up-to 'x' is not a number");
+  refused({"persistence", (dir / "c.facets").string()}, "lacuna-mpi persistence reads .nrrd volumes only");
+  refused({"persistence", file, file}, "lacuna-mpi: persistence reads one .nrrd volume, not 2 files\n");
+  // a picture that cannot be written: rank 0 fails, every rank says so
+  refused({"persistence", "--diagram", (dir / "no" / "d.svg").string(), file},
+          "lacuna: rank 0 of 3 failed while writing the result: " + (dir / "no" / "d.svg").string() +
+              ": cannot write the file\n");
+  // a file that does not exist, and a 16-bit volume without its byte order
+  refused({"persistence", (dir / "none.nrrd").string()}, "lacuna: rank 0 of 3 failed while reading the volume header: ");
+  {
+    std::ofstream out(dir / "bad.nrrd", std::ios::binary);
+    out << "NRRD0004\ntype: uint16\ndimension: 3\nsizes: 2 2 4\nencoding: raw\n\n";
+  }
+  refused({"persistence", (dir / "bad.nrrd").string()}, "lacuna: rank 0 of 3 failed while reading the volume header: ");
+  // the same messages as lacuna persistence for the options both read
+  for (const auto& args : std::vector<std::vector<std::string>>{{"persistence", "--coefficients", "Z", file},
+                                                                {"persistence", "--coefficients", "Z/4", file},
+                                                                {"persistence", "--up-to", "x", file}}) {
+    const auto one = one_process(args, dir);
+    const auto got = on_ranks(2, args, dir);
+    CHECK(one.status == 2);
+    CHECK(got.status == 2);
+    CHECK(occurrences(got.err, one.err) == 2);
+  }
   fs::remove_all(dir);
 }
 

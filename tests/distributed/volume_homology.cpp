@@ -140,6 +140,18 @@ void check_volume(const lacuna_volumes::volume& v, const std::string& stem, std:
     const auto r2 = lacuna::distributed::volume_homology<lacuna::mod_p<2>>(MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank});
     CHECK(rz.has_result == (world_rank() == 0));
     CHECK(r2.has_result == (world_rank() == 0));
+    // the cell counts, on every rank: those of the one-process complex (each cell of a plane
+    // two slabs share counted once), and their alternating sum is the Euler characteristic of
+    // the local configurations (Toriwaki & Yonekura 2002)
+    std::vector<std::uint64_t> one_cells;
+    std::int64_t alternating = 0;
+    for (int k = 0; k <= whole.top_dimension(); ++k) {
+      one_cells.push_back(whole.cell_count(k));
+      alternating += (k % 2 == 0 ? 1 : -1) * static_cast<std::int64_t>(whole.cell_count(k));
+    }
+    CHECK(rz.cells == one_cells);
+    CHECK(r2.cells == one_cells);
+    CHECK(alternating == truth.euler);
     if (!rz.has_result) continue;
     on_this_rank([&] {
     check_same_groups(rz.result, one_z);
@@ -204,6 +216,7 @@ TEST_CASE("an empty volume has no groups, as in one process") {
   const auto file = write_shared(v, "empty");
   const auto one = lacuna::homology<lacuna::integer>(lacuna::io::read_nrrd<3>(file.path));
   const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, file.path);
+  CHECK(r.cells.empty());  // the empty complex: no cell counts, as the one-process complex has none
   if (r.has_result) on_this_rank([&] { check_same_groups(r.result, one); });
 }
 

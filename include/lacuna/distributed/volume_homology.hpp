@@ -118,6 +118,12 @@ struct volume_homology_result {
   /// With options.homology.generators (over the integers): generators[k][j] is the cycle of the
   /// volume's complex lifting result.groups[k].generators[j] (on the root).
   std::vector<std::vector<grid_chain<R>>> generators;
+  /// The cells of the whole volume's cubical complex in dimensions 0..3 (empty when no voxel is
+  /// foreground: the empty complex), on every rank — the counts of the one-process complex.
+  /// Each rank counts the cells its slabs own (detail::count_owned_cells: a cell on a plane two
+  /// slabs share is owned by the slab below when it is a cell of it, else by the slab above, so
+  /// it is counted once), and the counts are summed exactly (uint64).
+  std::vector<std::uint64_t> cells;
   volume_run_statistics statistics;  ///< this rank's figures
 };
 
@@ -219,6 +225,34 @@ inline std::uint64_t reduce_slab(const volume_slab& s, std::size_t layers, const
   }
   if (keep) keep->morse = std::move(m);
   return cells;
+}
+
+/// Adds to `counts` the cells the slab `s` owns in the whole volume's complex: all its cells,
+/// except (for a slab above another) those of its lowest plane that are also cells of the slab
+/// below — faces of a foreground voxel of layer s.begin - 1, which this reads (one layer, with
+/// the same foreground rule `image`), and which the slab below counts among its own.
+inline void count_owned_cells(const volume_slab& s, const std::filesystem::path& path, const io::image_options& image,
+                              std::array<std::uint64_t, 4>& counts) {
+  const cubical_complex<3>& c = s.complex;
+  const std::size_t row = 2 * s.volume_extents[0] + 1;
+  std::vector<bool> below;  // (x, y) of the cells of the slab below on the shared plane
+  if (s.begin > 0 && c.top_dimension() >= 0) {
+    const volume_slab layer = read_nrrd_slab(path, s.begin - 1, s.begin, image);
+    below.assign(row * (2 * s.volume_extents[1] + 1), false);
+    for (int k = 0; k <= layer.complex.top_dimension() && k < 3; ++k)
+      for (std::size_t i = 0; i < layer.complex.cell_count(k); ++i) {
+        const auto p = layer.complex.position(k, i);
+        if (p[2] == 2) below[p[0] + row * p[1]] = true;
+      }
+  }
+  for (int k = 0; k <= c.top_dimension() && k <= 3; ++k)
+    for (std::size_t i = 0; i < c.cell_count(k); ++i) {
+      if (!below.empty()) {
+        const auto p = c.position(k, i);
+        if (p[2] == 0 && below[p[0] + row * p[1]]) continue;
+      }
+      ++counts[static_cast<std::size_t>(k)];
+    }
 }
 
 /// The grid ids of the cells of glue_residuals(all, g), by dimension, in the order of their
@@ -409,11 +443,13 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
   const detail::grid_numbering g{2 * extents[0] + 1, 2 * extents[1] + 1};
 
   // Phase 2: read and reduce this rank's slabs (no communication).
+  std::array<std::uint64_t, 4> owned_cells{};
   std::vector<std::int64_t> residual = collective_phase(comm, "reading and reducing its blocks", [&] {
     std::vector<std::int64_t> out;
     for (const auto& b : blocks) {
       if (b.owner != rank) continue;
       volume_slab s = read_nrrd_slab(path, b.begin, b.end, image);
+      detail::count_owned_cells(s, path, image, owned_cells);
       ++st.blocks;
       st.voxels_read += static_cast<std::uint64_t>(extents[0]) * extents[1] * (b.end - b.begin);
       for (int k = 0; k <= s.complex.top_dimension(); ++k) st.cells_in_blocks += s.complex.cell_count(k);
@@ -427,6 +463,11 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
     }
     return out;
   });
+
+  // The cell counts of the whole complex: the sum of what the slabs own.
+  std::array<std::uint64_t, 4> all_cells{};
+  check_mpi(MPI_Allreduce(owned_cells.data(), all_cells.data(), 4, MPI_UINT64_T, MPI_SUM, comm), "MPI_Allreduce (cell counts)");
+  if (all_cells[0] > 0) r.cells.assign(all_cells.begin(), all_cells.end());
 
   // Gather the residuals on the root.
   communication_counts sent;
