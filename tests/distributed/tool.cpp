@@ -418,7 +418,9 @@ std::vector<std::size_t> essential_counts(const std::string& json) {
 TEST_CASE("lacuna-mpi persistence: the same output as lacuna persistence, on 1 to 4 ranks, with pictures") {
   if (!single_rank()) return;
   const auto dir = scratch("persistence");
-  for (const auto& c : persistence_cases()) {
+  const auto cases = persistence_cases();
+  for (std::size_t ci = 0; ci < cases.size(); ++ci) {
+    const auto& c = cases[ci];
     CAPTURE(c.name);
     const auto file = (dir / (c.name + ".nrrd")).string();
     write_gray(file, c.v);
@@ -452,9 +454,10 @@ TEST_CASE("lacuna-mpi persistence: the same output as lacuna persistence, on 1 t
       CHECK(slurp(dir / "d3.svg") == slurp(dir / "d1.svg"));
       CHECK(slurp(dir / "b3.svg") == slurp(dir / "b1.svg"));
     }
-    // each option set on two numbers of ranks, all of 1 to 4 taken in turn (a run of mpiexec
-    // costs about a second of start-up)
+    // every other option set on each volume (so each set meets half of the volumes), on one
+    // number of ranks, 1 to 4 taken in turn: a run of mpiexec costs about a second of start-up
     for (std::size_t i = 0; i < option_sets.size(); ++i) {
+      if ((i + ci) % 2 != 0) continue;
       const auto& opts = option_sets[i];
       std::string given;
       for (const auto& o : opts) given += o + " ";
@@ -464,13 +467,12 @@ TEST_CASE("lacuna-mpi persistence: the same output as lacuna persistence, on 1 t
       args.push_back(file);
       const auto expected = one_process(args, dir);
       REQUIRE(expected.status == 0);
-      for (const int n : {static_cast<int>(1 + i % 4), static_cast<int>(1 + (i + 2) % 4)}) {
-        CAPTURE(n);
-        const auto got = on_ranks(n, args, dir);
-        CAPTURE(got.err);
-        CHECK(got.status == 0);
-        CHECK(got.out == expected.out);
-      }
+      const int n = static_cast<int>(1 + ((i + ci) / 2) % 4);
+      CAPTURE(n);
+      const auto got = on_ranks(n, args, dir);
+      CAPTURE(got.err);
+      CHECK(got.status == 0);
+      CHECK(got.out == expected.out);
     }
   }
   fs::remove_all(dir);
