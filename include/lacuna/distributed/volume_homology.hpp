@@ -24,12 +24,16 @@
 //      2006): its interior part is the Morse boundary of the reduced slab, its interface part
 //      is read off ∂ of the lifted chain. For an interface cell it is its cubical boundary.
 //   3. The residual complexes (critical cells named by their position in the whole volume's
-//      doubled grid, boundaries with int64 coefficients, overflow checked) are gathered on the
-//      root, glued (an interface cell is kept once), and the root runs the one-process engine
-//      (homology/homology.hpp) on the glued complex, a lacuna::cell_list whose cells are named
-//      as the one-process complex names them.
+//      doubled grid, boundaries with int64 coefficients, overflow checked) are merged in a
+//      reduction tree (distributed/slab_reduction_tree.hpp, the driver shared with
+//      volume_persistence): neighbours glued pairwise over ceil(log2 P) rounds, each union
+//      reduced again by unit pairs of cells no longer on an interface; the root runs the
+//      one-process engine (homology/homology.hpp) on the residual of the whole volume, a
+//      lacuna::cell_list whose cells are named as the one-process complex names them.
 // Why the answer is the one-process answer: the glued complex is the Morse complex of K under
-// an acyclic matching, chain homotopy equivalent to C(K) (Forman 1998; Sköldberg 2006), and
+// an acyclic matching, chain homotopy equivalent to C(K) (Forman 1998; Sköldberg 2006), each
+// merge of the tree replaces it by a chain-homotopy-equivalent one (Kaczynski, Mrozek &
+// Ślusarek 1998; see slab_reduction_tree.hpp), and
 // the engine is exact over any Euclidean domain R; the groups are padded to degree 3 as the
 // one-process cubical complex reports them (top dimension 3 whenever a voxel is foreground).
 //
@@ -41,8 +45,10 @@
 // glued complex are broadcast, every rank lifts the cells interior to its slabs by their Morse
 // lift, and the root adds the pieces up (detail::lift_generators): cycles of the whole
 // volume's complex in the classes of the root's generators, cells named by grid position.
-// Not yet offered: generators over other rings (std::invalid_argument on every rank), gluing
-// in a reduction tree (the residuals are gathered on the root in one step).
+// A generator request takes the one-step gather (slab_reduction_tree.hpp with the tree off):
+// the lift of a cell the root names is its slab's Morse lift, which a cell paired at a merge
+// would not have (that would need each merge's own lift, composed down the tree).
+// Not yet offered: generators over other rings (std::invalid_argument on every rank).
 #pragma once
 
 #include <lacuna/algorithm/morse_reduction.hpp>

@@ -21,18 +21,20 @@
 //      critical cells are the flows of their boundaries along it (algorithm/gradient_flow.hpp,
 //      over the integers, exact), stopping at critical and interface cells.
 //   3. The residuals (critical cells with value, Morse boundary, and position in the whole
-//      grid) are gathered on the root and glued along the interface cells as in
-//      volume_homology; the root runs the engine (persistence/persistence.hpp) on the glued
-//      complex filtered by value (values_filtration; cells of one value by dimension).
+//      grid) are merged in the reduction tree of volume_homology
+//      (distributed/slab_reduction_tree.hpp), whose re-reduction pairs only cells of equal
+//      value; the root runs the engine (persistence/persistence.hpp) on the residual of the
+//      whole volume filtered by value (values_filtration; cells of one value by dimension).
 // Why the diagrams are those of one process: the glued complex is the Morse complex of the
 // whole filtered complex under a matching whose pairs have equal values, and such a Morse
 // complex, filtered by value, has the same persistence (Mischaikow & Nanda 2013, Theorem 4.3,
-// from memory); only pairs of persistence zero differ, and neither side reports them.
+// from memory); the merges of the tree eliminate pairs of equal value, filtered chain homotopy
+// equivalences; only pairs of persistence zero differ, and neither side reports them.
 // The cells named in the result are those of the glued complex (result.cells names them as
 // the one-process filtration does); with ties of values they may differ from one process's.
 //
 // Errors: as volume_homology — a failure on any rank ends every rank with one
-// distributed_error. Not offered yet: representatives, a reduction tree.
+// distributed_error. Not offered yet: representatives.
 // Memory per rank: its slab's samples (and one layer each side), 10 bytes per cell of the slab
 // for the matching, and its residual.
 #pragma once
