@@ -78,6 +78,7 @@
 #include <stdexcept>
 #include <string>
 #include <unordered_map>
+#include <unordered_set>
 #include <utility>
 #include <vector>
 
@@ -229,7 +230,7 @@ class residual_reducer {
       for (const auto& [face, coef] : c.boundary) {
         const auto f = cells_.find(face);
         if (f == cells_.end() || f->second.k != c.k - 1) throw std::runtime_error("lacuna: a residual cell names a face that no rank sent");
-        cofaces_[face].push_back(id);
+        cofaces_[face].insert(id);
       }
   }
 
@@ -285,18 +286,19 @@ class residual_reducer {
     return it != b.end() && it->first == face ? it->second : 0;
   }
 
-  // the live cofaces of `id` (stale entries dropped, each once)
-  std::vector<std::uint64_t>& live_cofaces(std::uint64_t id) {
-    auto& v = cofaces_[id];
+  // the cofaces of `id`: kept exact (a cell is there iff it is alive and `id` is in its
+  // boundary), so the Markowitz count costs nothing and a vertex that gathers many edges is
+  // never rescanned
+  std::vector<std::uint64_t> cofaces_of(std::uint64_t id) const {
+    const auto it = cofaces_.find(id);
+    if (it == cofaces_.end()) return {};
+    std::vector<std::uint64_t> v(it->second.begin(), it->second.end());
     std::sort(v.begin(), v.end());
-    v.erase(std::unique(v.begin(), v.end()), v.end());
-    v.erase(std::remove_if(v.begin(), v.end(),
-                           [&](std::uint64_t r) {
-                             const cell& c = cells_.at(r);
-                             return !c.alive || coefficient_of(c.boundary, id) == 0;
-                           }),
-            v.end());
     return v;
+  }
+  std::size_t coface_count(std::uint64_t id) const {
+    const auto it = cofaces_.find(id);
+    return it == cofaces_.end() ? 0 : it->second.size();
   }
 
   // takes the best unit pivot below σ = id (zero fill-in only, when `zero_fill`); true if done
@@ -309,7 +311,7 @@ class residual_reducer {
       if (coef != 1 && coef != -1) continue;
       const cell& t = cells_.at(face);
       if (!t.alive || t.interface || t.value != s.value || refused_.count({id, face})) continue;
-      const std::uint64_t cost = (live_cofaces(face).size() - 1) * (s.boundary.size() - 1);
+      const std::uint64_t cost = (coface_count(face) - 1) * (s.boundary.size() - 1);
       if (cost < best_cost) best = face, best_cost = cost, best_eps = coef;
     }
     if (best_eps == 0 || (zero_fill && best_cost != 0)) return false;
@@ -332,7 +334,7 @@ class residual_reducer {
   bool eliminate(std::uint64_t sigma, std::uint64_t tau, std::int64_t eps) {
     cell& s = cells_.at(sigma);
     std::vector<std::pair<std::uint64_t, std::vector<term_t>>> updates;
-    for (std::uint64_t rho : std::vector<std::uint64_t>(live_cofaces(tau))) {
+    for (std::uint64_t rho : cofaces_of(tau)) {
       if (rho == sigma) continue;
       const cell& r = cells_.at(rho);
       std::int64_t m = 0;  // ∂ρ ← ∂ρ − m ∂σ, m = ⟨∂ρ, τ⟩ ε (ε^-1 = ε)
@@ -354,27 +356,34 @@ class residual_reducer {
     for (auto& [rho, nb] : updates) {
       cell& r = cells_.at(rho);
       for (const auto& [face, coef] : nb)
-        if (coefficient_of(r.boundary, face) == 0) cofaces_[face].push_back(rho);
+        if (coefficient_of(r.boundary, face) == 0) cofaces_[face].insert(rho);
+      for (const auto& [face, coef] : r.boundary)
+        if (coefficient_of(nb, face) == 0) cofaces_[face].erase(rho);
       r.boundary = std::move(nb);
       work_.push_back(rho);
     }
-    for (std::uint64_t up : std::vector<std::uint64_t>(live_cofaces(sigma))) {
+    for (std::uint64_t up : cofaces_of(sigma)) {
       cell& u = cells_.at(up);
       u.boundary.erase(std::remove_if(u.boundary.begin(), u.boundary.end(), [&](const term_t& t) { return t.first == sigma; }), u.boundary.end());
       work_.push_back(up);
     }
     s.alive = false;
-    cells_.at(tau).alive = false;
-    for (const auto& [face, coef] : s.boundary)
-      if (face != tau)
-        for (std::uint64_t c : live_cofaces(face)) work_.push_back(c);
+    cell& t = cells_.at(tau);
+    t.alive = false;
+    for (const auto& [face, coef] : t.boundary) cofaces_[face].erase(tau);
+    for (const auto& [face, coef] : s.boundary) {
+      if (face == tau) continue;
+      auto& up = cofaces_[face];
+      up.erase(sigma);
+      if (up.size() == 1) work_.push_back(*up.begin());  // a collapse may have opened
+    }
     cofaces_.erase(sigma);
     cofaces_.erase(tau);
     return true;
   }
 
   std::unordered_map<std::uint64_t, cell> cells_;
-  std::unordered_map<std::uint64_t, std::vector<std::uint64_t>> cofaces_;
+  std::unordered_map<std::uint64_t, std::unordered_set<std::uint64_t>> cofaces_;
   std::set<std::pair<std::uint64_t, std::uint64_t>> refused_;  // pairs whose step would overflow
   std::vector<std::uint64_t> work_;
 };
