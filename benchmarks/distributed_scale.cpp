@@ -6,7 +6,12 @@
 //                     the run, minus the resident memory before it: bench_support.hpp)
 //   cpu_s_sum         CPU seconds of all ranks together (getrusage, user + system)
 //   bytes_sent_sum    payload bytes sent over MPI by all ranks (counted by lacuna)
-//   residual_cells    cells the ranks sent; glued_cells: cells of the glued complex on the root
+//   peak_MB_root      the root's peak (as above): with the reduction tree off, the root holds
+//                     every slab's residual at once
+//   residual_cells    critical cells of the slab reductions; glued_cells: cells of the complex
+//                     the root hands to the engine
+// Arguments of distributed_homology: slabs per rank, then 1 for the reduction tree
+// (slab_reduction_tree.hpp), 0 for the one-step gather of every residual on the root.
 // The volume file is written once, apart from the measured runs:
 //   bench_distributed_scale --write-volume=N FILE    (porous, sigma 2, seed 20261202)
 // then LACUNA_SCALE_VOLUME=FILE mpiexec -n P bench_distributed_scale [--benchmark_filter=...]
@@ -51,7 +56,7 @@ double sum_over_ranks(double v) {
   return s;
 }
 
-// blocks per rank: state.range(0)
+// blocks per rank: state.range(0); reduction tree: state.range(1)
 void distributed_homology(benchmark::State& state) {
   const std::string file = volume_file();
   lacuna::distributed::volume_run_statistics st;
@@ -61,12 +66,13 @@ void distributed_homology(benchmark::State& state) {
     const long before = lacuna_bench::begin_peak();
     const double cpu0 = cpu_seconds();
     const auto r = lacuna::distributed::volume_homology<lacuna::integer>(
-        MPI_COMM_WORLD, file, {.blocks_per_rank = static_cast<std::size_t>(state.range(0))});
+        MPI_COMM_WORLD, file, {.blocks_per_rank = static_cast<std::size_t>(state.range(0)), .reduction_tree = state.range(1) != 0});
     const double cpu = cpu_seconds() - cpu0;
     st = r.statistics;
     if (r.has_result) betti = r.result.betti_numbers();
     const long peak = lacuna_bench::status_kib("VmHWM") - before;
     state.counters["peak_MB_max_rank"] = max_over_ranks(static_cast<double>(peak) / 1024.0);
+    state.counters["peak_MB_root"] = max_over_ranks(r.has_result ? static_cast<double>(peak) / 1024.0 : 0.0);
     state.counters["cpu_s_sum"] = sum_over_ranks(cpu);
     MPI_Barrier(MPI_COMM_WORLD);
   }
@@ -75,7 +81,7 @@ void distributed_homology(benchmark::State& state) {
   state.counters["glued_cells"] = sum_over_ranks(static_cast<double>(st.glued_cells));
   for (std::size_t k = 0; k < betti.size(); ++k) state.counters["b" + std::to_string(k)] = static_cast<double>(betti[k]);
 }
-BENCHMARK(distributed_homology)->Arg(1)->Arg(4)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
+BENCHMARK(distributed_homology)->Args({1, 1})->Args({4, 1})->Args({1, 0})->Args({4, 0})->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
 
 // The one-process engine on the same file (run with one process).
 void one_process_homology(benchmark::State& state) {

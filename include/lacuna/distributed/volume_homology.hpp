@@ -24,12 +24,16 @@
 //      2006): its interior part is the Morse boundary of the reduced slab, its interface part
 //      is read off ∂ of the lifted chain. For an interface cell it is its cubical boundary.
 //   3. The residual complexes (critical cells named by their position in the whole volume's
-//      doubled grid, boundaries with int64 coefficients, overflow checked) are gathered on the
-//      root, glued (an interface cell is kept once), and the root runs the one-process engine
-//      (homology/homology.hpp) on the glued complex, a lacuna::cell_list whose cells are named
-//      as the one-process complex names them.
+//      doubled grid, boundaries with int64 coefficients, overflow checked) are merged in a
+//      reduction tree (distributed/slab_reduction_tree.hpp, the driver shared with
+//      volume_persistence): neighbours glued pairwise over ceil(log2 P) rounds, each union
+//      reduced again by unit pairs of cells no longer on an interface; the root runs the
+//      one-process engine (homology/homology.hpp) on the residual of the whole volume, a
+//      lacuna::cell_list whose cells are named as the one-process complex names them.
 // Why the answer is the one-process answer: the glued complex is the Morse complex of K under
-// an acyclic matching, chain homotopy equivalent to C(K) (Forman 1998; Sköldberg 2006), and
+// an acyclic matching, chain homotopy equivalent to C(K) (Forman 1998; Sköldberg 2006), each
+// merge of the tree replaces it by a chain-homotopy-equivalent one (Kaczynski, Mrozek &
+// Ślusarek 1998; see slab_reduction_tree.hpp), and
 // the engine is exact over any Euclidean domain R; the groups are padded to degree 3 as the
 // one-process cubical complex reports them (top dimension 3 whenever a voxel is foreground).
 //
@@ -41,8 +45,10 @@
 // glued complex are broadcast, every rank lifts the cells interior to its slabs by their Morse
 // lift, and the root adds the pieces up (detail::lift_generators): cycles of the whole
 // volume's complex in the classes of the root's generators, cells named by grid position.
-// Not yet offered: generators over other rings (std::invalid_argument on every rank), gluing
-// in a reduction tree (the residuals are gathered on the root in one step).
+// A generator request takes the one-step gather (slab_reduction_tree.hpp with the tree off):
+// the lift of a cell the root names is its slab's Morse lift, which a cell paired at a merge
+// would not have (that would need each merge's own lift, composed down the tree).
+// Not yet offered: generators over other rings (std::invalid_argument on every rank).
 #pragma once
 
 #include <lacuna/algorithm/morse_reduction.hpp>
@@ -50,6 +56,7 @@
 #include <lacuna/complex/cubical_complex.hpp>
 #include <lacuna/distributed/collective_error.hpp>
 #include <lacuna/distributed/gather_words.hpp>
+#include <lacuna/distributed/slab_reduction_tree.hpp>
 #include <lacuna/distributed/volume_blocks.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/io/read_limits.hpp>
@@ -86,19 +93,11 @@ struct volume_options {
   std::size_t blocks_per_rank = 1;
   /// The rank that glues the residuals and finishes; it alone holds the result.
   int root = 0;
-  /// Options of the engine run on the glued residual complex (generators: not yet offered).
+  /// Options of the engine run on the glued residual complex (generators: over the integers).
   homology_options homology{};
-};
-
-/// What one rank did, for the scale study and for reports.
-struct volume_run_statistics {
-  std::size_t blocks = 0;                 ///< slabs this rank reduced
-  std::uint64_t voxels_read = 0;          ///< voxels of those slabs
-  std::uint64_t cells_in_blocks = 0;      ///< cells of those slabs' complexes
-  std::uint64_t residual_cells = 0;       ///< critical cells this rank sent (interface cells included)
-  std::uint64_t bytes_sent = 0;           ///< bytes this rank sent over MPI (payload, counted here)
-  std::uint64_t bytes_received = 0;       ///< bytes this rank received over MPI (payload)
-  std::uint64_t glued_cells = 0;          ///< root: cells of the glued complex; 0 elsewhere
+  /// Merge the residuals in a reduction tree (distributed/slab_reduction_tree.hpp); false, or
+  /// a generator request, gathers every slab's residual on the root in one step.
+  bool reduction_tree = true;
 };
 
 /// A chain of the whole volume's cubical complex, its cells named by their position in the
@@ -154,19 +153,6 @@ class interface_cut {
   std::size_t top_;
 };
 
-/// The position in the whole volume's doubled grid, as one number (axis 0 fastest).
-struct grid_numbering {
-  std::uint64_t gx = 1, gy = 1;
-  std::uint64_t id(const cubical_complex<3>::position_type& p, std::size_t z_shift) const {
-    return p[0] + gx * (p[1] + gy * (p[2] + z_shift));
-  }
-  cubical_complex<3>::position_type position(std::uint64_t id) const {
-    return {static_cast<std::size_t>(id % gx), static_cast<std::size_t>((id / gx) % gy), static_cast<std::size_t>(id / gx / gy)};
-  }
-};
-
-/// Appends the residual complex of one slab to `out`: per critical cell, dimension, grid id,
-/// term count, then (face grid id, coefficient) pairs.
 /// A reduced slab kept for lifting generators: its Morse complex, and its critical cells by
 /// grid id.
 struct kept_slab {
@@ -175,6 +161,8 @@ struct kept_slab {
   std::array<std::unordered_map<std::uint64_t, std::size_t>, 4> critical;
 };
 
+/// Appends the residual complex of one slab to `out` as records of slab_reduction_tree.hpp
+/// (value 0); keeps the Morse complex in `keep` when given. Returns the critical cells.
 inline std::uint64_t reduce_slab(const volume_slab& s, std::size_t layers, const grid_numbering& g,
                                  std::vector<std::int64_t>& out, kept_slab* keep = nullptr) {
   const cubical_complex<3>& c = s.complex;
@@ -206,6 +194,7 @@ inline std::uint64_t reduce_slab(const volume_slab& s, std::size_t layers, const
       }
       out.push_back(k);
       out.push_back(static_cast<std::int64_t>(g.id(p, shift)));
+      out.push_back(0);  // the value word of the record (slab_reduction_tree.hpp): plain homology has none
       const std::size_t count_at = out.size();
       out.push_back(0);
       std::int64_t terms = 0;
@@ -254,55 +243,6 @@ inline void count_owned_cells(const volume_slab& s, const std::filesystem::path&
       ++counts[static_cast<std::size_t>(k)];
     }
 }
-
-/// The grid ids of the cells of glue_residuals(all, g), by dimension, in the order of their
-/// indices there (increasing ids).
-inline std::vector<std::vector<std::uint64_t>> glued_ids(const std::vector<std::int64_t>& all) {
-  std::vector<std::vector<std::uint64_t>> ids(4);
-  for (std::size_t at = 0; at + 3 <= all.size(); at += 3 + 2 * static_cast<std::size_t>(all[at + 2]))
-    ids[static_cast<std::size_t>(all[at])].push_back(static_cast<std::uint64_t>(all[at + 1]));
-  for (auto& v : ids) {
-    std::sort(v.begin(), v.end());
-    v.erase(std::unique(v.begin(), v.end()), v.end());
-  }
-  while (!ids.empty() && ids.back().empty()) ids.pop_back();
-  return ids;
-}
-
-/// The glued complex of the gathered residuals (interface cells kept once).
-inline cell_list glue_residuals(const std::vector<std::int64_t>& all, const grid_numbering& g) {
-  struct cell {
-    std::size_t at;  // offset of its record in `all`
-  };
-  std::array<std::map<std::uint64_t, std::size_t>, 4> by_id;  // grid id -> record offset
-  for (std::size_t at = 0; at < all.size();) {
-    if (at + 3 > all.size()) throw std::runtime_error("lacuna: a residual record is cut short");
-    const auto k = all[at];
-    const auto terms = all[at + 2];
-    if (k < 0 || k > 3 || terms < 0 || at + 3 + 2 * static_cast<std::size_t>(terms) > all.size())
-      throw std::runtime_error("lacuna: a residual record is malformed");
-    by_id[static_cast<std::size_t>(k)].emplace(static_cast<std::uint64_t>(all[at + 1]), at);
-    at += 3 + 2 * static_cast<std::size_t>(terms);
-  }
-  cell_list out;
-  std::array<std::unordered_map<std::uint64_t, std::size_t>, 4> index;
-  for (int k = 0; k <= 3; ++k) {
-    for (const auto& [id, at] : by_id[static_cast<std::size_t>(k)]) {
-      std::vector<incidence> terms;
-      const auto n = static_cast<std::size_t>(all[at + 2]);
-      for (std::size_t t = 0; t < n; ++t) {
-        const auto face = static_cast<std::uint64_t>(all[at + 3 + 2 * t]);
-        const auto f = index[static_cast<std::size_t>(k - 1)].find(face);
-        if (k == 0 || f == index[static_cast<std::size_t>(k - 1)].end())
-          throw std::runtime_error("lacuna: a residual cell names a face that no rank sent");
-        terms.push_back({f->second, all[at + 4 + 2 * t]});
-      }
-      index[static_cast<std::size_t>(k)][id] = out.add_cell(k, cubical_complex<3>::position_name(g.position(id)), std::move(terms));
-    }
-  }
-  return out;
-}
-
 
 /// Lifts the root's generators (chains of the glued complex) to cycles of the whole volume's
 /// complex: a glued cell on a plane two slabs share is a cell of the volume as it is; any
@@ -442,47 +382,25 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
   const auto blocks = plan_slabs(extents[2], size, options.blocks_per_rank);
   const detail::grid_numbering g{2 * extents[0] + 1, 2 * extents[1] + 1};
 
-  // Phase 2: read and reduce this rank's slabs (no communication).
   std::array<std::uint64_t, 4> owned_cells{};
-  std::vector<std::int64_t> residual = collective_phase(comm, "reading and reducing its blocks", [&] {
-    std::vector<std::int64_t> out;
-    for (const auto& b : blocks) {
-      if (b.owner != rank) continue;
-      volume_slab s = read_nrrd_slab(path, b.begin, b.end, image);
-      detail::count_owned_cells(s, path, image, owned_cells);
-      ++st.blocks;
-      st.voxels_read += static_cast<std::uint64_t>(extents[0]) * extents[1] * (b.end - b.begin);
-      for (int k = 0; k <= s.complex.top_dimension(); ++k) st.cells_in_blocks += s.complex.cell_count(k);
-      if (want_generators) {
-        kept.emplace_back();
-        st.residual_cells += detail::reduce_slab(s, extents[2], g, out, &kept.back());
-        kept.back().slab = std::move(s);
-      } else {
-        st.residual_cells += detail::reduce_slab(s, extents[2], g, out);
-      }
-    }
-    return out;
-  });
-
-  // The cell counts of the whole complex: the sum of what the slabs own.
-  std::array<std::uint64_t, 4> all_cells{};
-  check_mpi(MPI_Allreduce(owned_cells.data(), all_cells.data(), 4, MPI_UINT64_T, MPI_SUM, comm), "MPI_Allreduce (cell counts)");
-  if (all_cells[0] > 0) r.cells.assign(all_cells.begin(), all_cells.end());
-
-  // Gather the residuals on the root.
-  communication_counts sent;
-  std::vector<std::int64_t> all = gather_words(comm, options.root, residual, sent);
-  st.bytes_sent += sent.bytes_sent;
-  st.bytes_received += sent.bytes_received;
-  std::vector<std::int64_t>().swap(residual);
-
-  // Phase 3: glue and finish on the root.
-  std::vector<std::int64_t> all_kept;
+  // Phase 2: read and reduce this rank's slabs; merge the residuals in a reduction tree (one
+  // step for generators: their lifts need the slabs' own Morse complexes); finish on the root.
   std::vector<std::vector<std::uint64_t>> glued_ids;
-  collective_phase(comm, "gluing the residual complexes and finishing", [&] {
-    if (rank != options.root) return;
+  auto reduce = [&](const volume_block& b, std::vector<std::int64_t>& out) -> std::uint64_t {
+    volume_slab s = read_nrrd_slab(path, b.begin, b.end, image);
+    detail::count_owned_cells(s, path, image, owned_cells);
+    ++st.blocks;
+    st.voxels_read += static_cast<std::uint64_t>(extents[0]) * extents[1] * (b.end - b.begin);
+    for (int k = 0; k <= s.complex.top_dimension(); ++k) st.cells_in_blocks += s.complex.cell_count(k);
+    if (!want_generators) return detail::reduce_slab(s, extents[2], g, out);
+    kept.emplace_back();
+    const std::uint64_t cells = detail::reduce_slab(s, extents[2], g, out, &kept.back());
+    kept.back().slab = std::move(s);
+    return cells;
+  };
+  auto finish = [&](std::vector<std::int64_t>&& all) {
     const cell_list glued = detail::glue_residuals(all, g);
-    if (want_generators) all_kept = std::move(all);
+    if (want_generators) glued_ids = detail::glued_ids(all);
     std::vector<std::int64_t>().swap(all);
     for (int k = 0; k <= glued.top_dimension(); ++k) st.glued_cells += glued.cell_count(k);
     r.result = homology<R>(glued, options.homology, sparse_elimination{}, ring_one);
@@ -494,8 +412,13 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
         r.result.groups.push_back(std::move(empty));
       }
     r.has_result = true;
-    if (want_generators) glued_ids = detail::glued_ids(all_kept);
-  });
+  };
+  detail::reduce_slabs_in_tree(comm, blocks, extents[2], g, {.root = options.root, .tree = options.reduction_tree && !want_generators},
+                               st, reduce, finish);
+  // The cell counts of the whole complex: the sum of what the slabs own.
+  std::array<std::uint64_t, 4> all_cells{};
+  check_mpi(MPI_Allreduce(owned_cells.data(), all_cells.data(), 4, MPI_UINT64_T, MPI_SUM, comm), "MPI_Allreduce (cell counts)");
+  if (all_cells[0] > 0) r.cells.assign(all_cells.begin(), all_cells.end());
   if constexpr (std::same_as<R, integer>)
     if (want_generators) detail::lift_generators(comm, options.root, r, kept, g, blocks, glued_ids);
   return r;

@@ -21,18 +21,20 @@
 //      critical cells are the flows of their boundaries along it (algorithm/gradient_flow.hpp,
 //      over the integers, exact), stopping at critical and interface cells.
 //   3. The residuals (critical cells with value, Morse boundary, and position in the whole
-//      grid) are gathered on the root and glued along the interface cells as in
-//      volume_homology; the root runs the engine (persistence/persistence.hpp) on the glued
-//      complex filtered by value (values_filtration; cells of one value by dimension).
+//      grid) are merged in the reduction tree of volume_homology
+//      (distributed/slab_reduction_tree.hpp), whose re-reduction pairs only cells of equal
+//      value; the root runs the engine (persistence/persistence.hpp) on the residual of the
+//      whole volume filtered by value (values_filtration; cells of one value by dimension).
 // Why the diagrams are those of one process: the glued complex is the Morse complex of the
 // whole filtered complex under a matching whose pairs have equal values, and such a Morse
 // complex, filtered by value, has the same persistence (Mischaikow & Nanda 2013, Theorem 4.3,
-// from memory); only pairs of persistence zero differ, and neither side reports them.
+// from memory); the merges of the tree eliminate pairs of equal value, filtered chain homotopy
+// equivalences; only pairs of persistence zero differ, and neither side reports them.
 // The cells named in the result are those of the glued complex (result.cells names them as
 // the one-process filtration does); with ties of values they may differ from one process's.
 //
 // Errors: as volume_homology — a failure on any rank ends every rank with one
-// distributed_error. Not offered yet: representatives, a reduction tree.
+// distributed_error. Not offered yet: representatives.
 // Memory per rank: its slab's samples (and one layer each side), 10 bytes per cell of the slab
 // for the matching, and its residual.
 #pragma once
@@ -40,7 +42,7 @@
 #include <lacuna/algorithm/gradient_flow.hpp>
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/distributed/collective_error.hpp>
-#include <lacuna/distributed/gather_words.hpp>
+#include <lacuna/distributed/slab_reduction_tree.hpp>
 #include <lacuna/distributed/volume_blocks.hpp>
 #include <lacuna/distributed/volume_homology.hpp>
 #include <lacuna/persistence/cubical_filtration.hpp>
@@ -76,6 +78,9 @@ struct volume_persistence_options {
   std::size_t blocks_per_rank = 1;
   /// The rank that glues and finishes; it alone holds the result.
   int root = 0;
+  /// Merge the residuals in a reduction tree (distributed/slab_reduction_tree.hpp); false
+  /// gathers every slab's residual on the root in one step.
+  bool reduction_tree = true;
 };
 
 /// The answer of volume_persistence on one rank.
@@ -300,50 +305,25 @@ volume_persistence_result<R> volume_persistence(MPI_Comm comm, const std::filesy
   const auto blocks = plan_slabs(extents[2], size, options.blocks_per_rank);
   const detail::grid_numbering g{2 * extents[0] + 1, 2 * extents[1] + 1};
 
-  std::vector<std::int64_t> residual = collective_phase(comm, "reading and reducing its blocks", [&] {
-    std::vector<std::int64_t> out;
-    for (const auto& b : blocks) {
-      if (b.owner != rank) continue;
-      const std::size_t g0 = b.begin > 0 ? b.begin - 1 : 0, g1 = std::min(extents[2], b.end + 1);
-      auto [e, samples] = read_nrrd_slab_samples(path, g0, g1, options.limits);
-      ++st.blocks;
-      st.voxels_read += samples.size();
-      const detail::filtered_slab_reducer::filtration_t f({e[0], e[1], g1 - g0}, std::move(samples), options.direction);
-      for (int k = 0; k <= 3; ++k) st.cells_in_blocks += f.cell_count(k);
-      const detail::filtered_slab_reducer red(f, 2 * (b.begin - g0), 2 * (b.end - g0), b.begin > 0, b.end < extents[2]);
-      st.residual_cells += red.residual(g, 2 * g0, out);
-    }
-    return out;
-  });
-  communication_counts sent;
-  std::vector<std::int64_t> all = gather_words(comm, options.root, residual, sent);
-  st.bytes_sent += sent.bytes_sent;
-  st.bytes_received += sent.bytes_received;
-  std::vector<std::int64_t>().swap(residual);
-
-  collective_phase(comm, "gluing the residual complexes and finishing", [&] {
-    if (rank != options.root) return;
-    // split the records: the value goes aside, the rest is a homology residual record
-    std::vector<std::int64_t> records;
+  auto reduce = [&](const volume_block& b, std::vector<std::int64_t>& out) -> std::uint64_t {
+    const std::size_t g0 = b.begin > 0 ? b.begin - 1 : 0, g1 = std::min(extents[2], b.end + 1);
+    auto [e, samples] = read_nrrd_slab_samples(path, g0, g1, options.limits);
+    ++st.blocks;
+    st.voxels_read += samples.size();
+    const detail::filtered_slab_reducer::filtration_t f({e[0], e[1], g1 - g0}, std::move(samples), options.direction);
+    for (int k = 0; k <= 3; ++k) st.cells_in_blocks += f.cell_count(k);
+    const detail::filtered_slab_reducer red(f, 2 * (b.begin - g0), 2 * (b.end - g0), b.begin > 0, b.end < extents[2]);
+    return red.residual(g, 2 * g0, out);
+  };
+  auto finish = [&](std::vector<std::int64_t>&& all) {
     std::unordered_map<std::uint64_t, std::int32_t> value_of;
-    for (std::size_t at = 0; at < all.size();) {
-      if (at + 4 > all.size()) throw std::runtime_error("lacuna: a residual record is cut short");
-      const auto terms = all[at + 3];
-      if (terms < 0 || at + 4 + 2 * static_cast<std::size_t>(terms) > all.size())
-        throw std::runtime_error("lacuna: a residual record is malformed");
-      value_of[static_cast<std::uint64_t>(all[at + 1])] = static_cast<std::int32_t>(all[at + 2]);
-      records.push_back(all[at]);
-      records.push_back(all[at + 1]);
-      records.insert(records.end(), all.begin() + static_cast<std::ptrdiff_t>(at + 3),
-                     all.begin() + static_cast<std::ptrdiff_t>(at + 4 + 2 * static_cast<std::size_t>(terms)));
-      at += 4 + 2 * static_cast<std::size_t>(terms);
-    }
-    std::vector<std::int64_t>().swap(all);
-    auto cells = std::make_shared<cell_list>(detail::glue_residuals(records, g));
+    detail::for_each_record(all, [&](std::size_t at) { value_of[static_cast<std::uint64_t>(all[at + 1])] = static_cast<std::int32_t>(all[at + 2]); });
+    auto cells = std::make_shared<cell_list>(detail::glue_residuals(all, g));
     std::vector<std::vector<std::int32_t>> values(static_cast<std::size_t>(cells->top_dimension() + 1));
     for (int k = 0; k <= cells->top_dimension(); ++k) st.glued_cells += cells->cell_count(k);
     // the values, by grid id: glue_residuals numbers the cells of a dimension by increasing id
-    std::vector<std::vector<std::uint64_t>> ids = detail::glued_ids(records);
+    const std::vector<std::vector<std::uint64_t>> ids = detail::glued_ids(all);
+    std::vector<std::int64_t>().swap(all);
     for (int k = 0; k <= cells->top_dimension(); ++k)
       if (static_cast<std::size_t>(k) < ids.size())
         for (std::uint64_t id : ids[static_cast<std::size_t>(k)]) values[static_cast<std::size_t>(k)].push_back(value_of.at(id));
@@ -362,7 +342,8 @@ volume_persistence_result<R> volume_persistence(MPI_Comm comm, const std::filesy
     }
     r.cells = std::move(cells);
     r.has_result = true;
-  });
+  };
+  detail::reduce_slabs_in_tree(comm, blocks, extents[2], g, {.root = options.root, .tree = options.reduction_tree}, st, reduce, finish);
   return r;
 }
 
