@@ -12,9 +12,12 @@
 //                     the root hands to the engine
 // Arguments of distributed_homology: slabs per rank, then 1 for the reduction tree
 // (slab_reduction_tree.hpp), 0 for the one-step gather of every residual on the root.
+// distributed_homology runs the explicit route (cubical_duality = false); distributed_duality
+// the duality route (volume_duality.hpp), with getrusage's maximum resident set per rank too.
 // The volume file is written once, apart from the measured runs:
 //   bench_distributed_scale --write-volume=N FILE    (porous, sigma 2, seed 20261202)
 // then LACUNA_SCALE_VOLUME=FILE mpiexec -n P bench_distributed_scale [--benchmark_filter=...]
+#include <lacuna/distributed/volume_duality.hpp>
 #include <lacuna/distributed/volume_homology.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/io/nrrd.hpp>
@@ -50,6 +53,12 @@ T max_over_ranks(T v) {
   MPI_Allreduce(&d, &m, 1, MPI_DOUBLE, MPI_MAX, MPI_COMM_WORLD);
   return static_cast<T>(m);
 }
+// "b<k>" (appended, not "b" + std::to_string(k): GCC 12 at -O3 warns falsely, -Wrestrict, there)
+std::string betti_counter(std::size_t k) {
+  std::string name = "b";
+  name += std::to_string(k);
+  return name;
+}
 double sum_over_ranks(double v) {
   double s = 0;
   MPI_Allreduce(&v, &s, 1, MPI_DOUBLE, MPI_SUM, MPI_COMM_WORLD);
@@ -66,7 +75,8 @@ void distributed_homology(benchmark::State& state) {
     const long before = lacuna_bench::begin_peak();
     const double cpu0 = cpu_seconds();
     const auto r = lacuna::distributed::volume_homology<lacuna::integer>(
-        MPI_COMM_WORLD, file, {.blocks_per_rank = static_cast<std::size_t>(state.range(0)), .reduction_tree = state.range(1) != 0});
+        MPI_COMM_WORLD, file, {.blocks_per_rank = static_cast<std::size_t>(state.range(0)), .reduction_tree = state.range(1) != 0,
+                               .cubical_duality = false});
     const double cpu = cpu_seconds() - cpu0;
     st = r.statistics;
     if (r.has_result) betti = r.result.betti_numbers();
@@ -79,9 +89,40 @@ void distributed_homology(benchmark::State& state) {
   state.counters["bytes_sent_sum"] = sum_over_ranks(static_cast<double>(st.bytes_sent));
   state.counters["residual_cells"] = sum_over_ranks(static_cast<double>(st.residual_cells));
   state.counters["glued_cells"] = sum_over_ranks(static_cast<double>(st.glued_cells));
-  for (std::size_t k = 0; k < betti.size(); ++k) state.counters["b" + std::to_string(k)] = static_cast<double>(betti[k]);
+  for (std::size_t k = 0; k < betti.size(); ++k) state.counters[betti_counter(k)] = static_cast<double>(betti[k]);
 }
 BENCHMARK(distributed_homology)->Args({1, 1})->Args({4, 1})->Args({1, 0})->Args({4, 0})->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
+
+// The duality route (lacuna/distributed/volume_duality.hpp): labellings and χ, summaries joined
+// in a reduction tree. maxrss_MB_*: getrusage's maximum resident set of each process, gathered
+// (the whole process, MPI runtime included; run this benchmark alone in its mpiexec so that
+// nothing before it raised the mark).
+void distributed_duality(benchmark::State& state) {
+  const std::string file = volume_file();
+  lacuna::distributed::volume_duality_result d;
+  for (auto _ : state) {
+    MPI_Barrier(MPI_COMM_WORLD);
+    const long before = lacuna_bench::begin_peak();
+    const double cpu0 = cpu_seconds();
+    d = lacuna::distributed::volume_duality(MPI_COMM_WORLD, file);
+    const double cpu = cpu_seconds() - cpu0;
+    const long peak = lacuna_bench::status_kib("VmHWM") - before;
+    state.counters["peak_MB_max_rank"] = max_over_ranks(static_cast<double>(peak) / 1024.0);
+    state.counters["cpu_s_sum"] = sum_over_ranks(cpu);
+    MPI_Barrier(MPI_COMM_WORLD);
+  }
+  rusage u{};
+  getrusage(RUSAGE_SELF, &u);
+  const double maxrss = static_cast<double>(u.ru_maxrss) / 1024.0;  // KiB on Linux
+  state.counters["maxrss_MB_max_rank"] = max_over_ranks(maxrss);
+  state.counters["maxrss_MB_min_rank"] = -max_over_ranks(-maxrss);
+  state.counters["bytes_sent_sum"] = sum_over_ranks(static_cast<double>(d.communication.bytes_sent));
+  state.counters["bytes_sent_max_rank"] = max_over_ranks(static_cast<double>(d.communication.bytes_sent));
+  state.counters["label_MB_max_rank"] = max_over_ranks(static_cast<double>(d.label_bytes) / 1048576.0);
+  if (d.has_result)
+    for (std::size_t k = 0; k < 4; ++k) state.counters[betti_counter(k)] = static_cast<double>(d.betti[k]);
+}
+BENCHMARK(distributed_duality)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);
 
 // The one-process engine on the same file (run with one process).
 void one_process_homology(benchmark::State& state) {
@@ -98,7 +139,7 @@ void one_process_homology(benchmark::State& state) {
     state.counters["cpu_s_sum"] = cpu_seconds() - cpu0;
     state.counters["peak_MB_max_rank"] = static_cast<double>(lacuna_bench::status_kib("VmHWM") - before) / 1024.0;
     const auto b = r.betti_numbers();
-    for (std::size_t k = 0; k < b.size(); ++k) state.counters["b" + std::to_string(k)] = static_cast<double>(b[k]);
+    for (std::size_t k = 0; k < b.size(); ++k) state.counters[betti_counter(k)] = static_cast<double>(b[k]);
   }
 }
 BENCHMARK(one_process_homology)->Iterations(1)->UseRealTime()->Unit(benchmark::kSecond);

@@ -98,11 +98,11 @@ void check_tree_homology(const lacuna_volumes::volume& v, const std::string& ste
       CAPTURE(root);
       CAPTURE(per_rank);
       const auto tree = lacuna::distributed::volume_homology<lacuna::integer>(
-          MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .root = root, .reduction_tree = true});
+          MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .root = root, .reduction_tree = true, .cubical_duality = false});
       const auto flat = lacuna::distributed::volume_homology<lacuna::integer>(
-          MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .root = root, .reduction_tree = false});
+          MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .root = root, .reduction_tree = false, .cubical_duality = false});
       const auto tree3 = lacuna::distributed::volume_homology<lacuna::mod_p<3>>(
-          MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .root = root});
+          MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .root = root, .cubical_duality = false});
       CHECK(tree.has_result == (tree_rank() == root));
       CHECK(tree.statistics.merges <= 1 + 2 * static_cast<std::uint64_t>(tree_size()));
       if (!tree.has_result) continue;

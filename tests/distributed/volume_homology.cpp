@@ -1,6 +1,8 @@
 // Homology of volumes on 1-4 MPI ranks (lacuna/distributed/volume_homology.hpp): the groups
 // must equal those of the one-process engine on the whole volume (io/nrrd.hpp read_nrrd, then
-// homology/homology.hpp), on any number of ranks, and outside truths:
+// homology/homology.hpp), on any number of ranks, and outside truths. They run the explicit
+// route (cubical_duality = false; the duality route, the default for groups only, is tested
+// in volume_duality.cpp). The truths:
 //   - Alexander duality and flood fills (tests/cubical/volume_support.hpp duality_betti: b0 from
 //     the components of the voxels, b2 from the bounded components of the background, b1 from
 //     the Euler characteristic; Hatcher, Algebraic Topology, Corollary 3.46 and Proposition 3.46's
@@ -136,8 +138,8 @@ void check_volume(const lacuna_volumes::volume& v, const std::string& stem, std:
   const auto one_2 = lacuna::homology<lacuna::mod_p<2>>(whole);
   for (std::size_t per_rank : {1u, 2u, 3u}) {
     CAPTURE(per_rank);
-    const auto rz = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank});
-    const auto r2 = lacuna::distributed::volume_homology<lacuna::mod_p<2>>(MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank});
+    const auto rz = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .cubical_duality = false});
+    const auto r2 = lacuna::distributed::volume_homology<lacuna::mod_p<2>>(MPI_COMM_WORLD, file.path, {.blocks_per_rank = per_rank, .cubical_duality = false});
     CHECK(rz.has_result == (world_rank() == 0));
     CHECK(r2.has_result == (world_rank() == 0));
     // the cell counts, on every rank: those of the one-process complex (each cell of a plane
@@ -215,7 +217,7 @@ TEST_CASE("an empty volume has no groups, as in one process") {
   const auto v = make_volume({3, 3, 5}, [](std::size_t, std::size_t, std::size_t) { return false; });
   const auto file = write_shared(v, "empty");
   const auto one = lacuna::homology<lacuna::integer>(lacuna::io::read_nrrd<3>(file.path));
-  const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, file.path);
+  const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, file.path, {.cubical_duality = false});
   CHECK(r.cells.empty());  // the empty complex: no cell counts, as the one-process complex has none
   if (r.has_result) on_this_rank([&] { check_same_groups(r.result, one); });
 }
@@ -249,7 +251,7 @@ TEST_CASE("a threshold on 16-bit samples selects the same foreground as one proc
   }
   MPI_Barrier(MPI_COMM_WORLD);
   const auto one = lacuna::homology<lacuna::integer>(lacuna::io::read_nrrd<3>(path, {.threshold = 300}));
-  const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, path, {.threshold = 300});
+  const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, path, {.threshold = 300, .cubical_duality = false});
   if (r.has_result)
     on_this_rank([&] {
       check_same_groups(r.result, one);
@@ -277,7 +279,7 @@ TEST_CASE("bad input ends the run on every rank with one error naming the rank")
   CHECK(one_message.find("data truncated") != std::string::npos);
   bool thrown = false;
   try {
-    (void)lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, path);
+    (void)lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, path, {.cubical_duality = false});
   } catch (const lacuna::distributed::distributed_error& e) {
     thrown = true;
     CHECK(e.failing_rank() == 0);  // every rank holding a block fails; the lowest is named

@@ -29,6 +29,7 @@
 #include <lacuna/complex/cubical_complex.hpp>
 
 #include <array>
+#include <bit>
 #include <cstddef>
 #include <cstdint>
 #include <numeric>
@@ -62,21 +63,31 @@ struct voxel_forest {
   }
 };
 
-template <std::size_t D, class Index>
-std::array<std::size_t, 2> cubical_components(const cubical_complex<D>& c, const run_control* control) {
-  const auto& n = c.extents();
+/// The labelling of the voxels of a box (a whole image or one block of it): the union-find
+/// forest (node 0: the outside of the box; voxel v, axis 0 fastest, is node v + 1) and the
+/// numbers of its foreground components (closed-cube adjacency, 3^D - 1 neighbours) and of its
+/// background components (face adjacency, 2D neighbours) that do not meet the outside.
+template <class Index>
+struct voxel_labelling {
+  voxel_forest<Index> forest;               ///< every voxel's component: forest.find(v + 1)
+  std::size_t foreground_components = 0;    ///< b_0 of the block's complex
+  std::size_t bounded_background = 0;       ///< background components not joined to node 0
+};
+
+/// Labels the voxels of a box of extents n (foreground(v) for voxel v, axis 0 fastest). A
+/// background voxel on the side `s` (0 low, 1 high) of axis a meets the outside when
+/// open[a][s]: all sides for a whole image; a block cut out of a larger box passes false for
+/// the sides it shares with a neighbouring block, whose voxels it does not see (the labels of
+/// its first and last layers then let the blocks be joined: distributed/volume_duality.hpp).
+template <std::size_t D, class Index, class Foreground>
+voxel_labelling<Index> label_voxels(const std::array<std::size_t, D>& n, Foreground&& foreground,
+                                    const std::array<std::array<bool, 2>, D>& open, const run_control* control) {
   std::size_t count = 1;
   std::array<std::size_t, D> stride{};
   for (std::size_t a = 0; a < D; ++a) stride[a] = count, count *= n[a];
-  // The voxels' own bits: the parity class with every axis odd holds them in voxel order.
-  const auto& top = c.class_of_mask((1u << D) - 1);
-  const auto bits = c.bitmap();
-  auto foreground = [&](std::size_t v) {
-    const std::size_t b = top.bit_begin + v;
-    return ((bits[b >> 6] >> (b & 63)) & 1u) != 0;
-  };
   if (control) control->require_memory(static_cast<std::uint64_t>(count + 1) * sizeof(Index), "the voxel labels");
-  voxel_forest<Index> f(count + 1);  // node 0: the outside of the box; voxel v is node v + 1
+  voxel_labelling<Index> out{voxel_forest<Index>(count + 1)};  // node 0: the outside of the box; voxel v is node v + 1
+  auto& f = out.forest;
   std::size_t fg_roots = 0;
   detail::progress_ticker tick(control, "labelling voxels", count);
   std::array<std::size_t, D> v{};
@@ -126,7 +137,7 @@ std::array<std::size_t, 2> cubical_components(const cubical_complex<D>& c, const
     } else {
       bool border = false;
       for (std::size_t a = 0; a < D; ++a) {
-        if (v[a] == 0 || v[a] + 1 == n[a]) border = true;
+        if ((v[a] == 0 && open[a][0]) || (v[a] + 1 == n[a] && open[a][1])) border = true;
         if (v[a] > 0 && !foreground(i - stride[a])) f.unite(node, static_cast<Index>(i - stride[a] + 1));
       }
       if (border) f.unite(node, Index{0});
@@ -143,7 +154,72 @@ std::array<std::size_t, 2> cubical_components(const cubical_complex<D>& c, const
   std::size_t bounded = 0;
   for (std::size_t i = 0; i < count; ++i)
     if (!foreground(i) && f.parent[i + 1] == static_cast<Index>(i + 1)) ++bounded;
-  return {fg_roots, bounded};
+  out.foreground_components = fg_roots;
+  out.bounded_background = bounded;
+  return out;
+}
+
+/// The Euler characteristic of the complex of the foreground voxels (foreground(v), axis 0
+/// fastest) of a box of extents n, counted from the 2^D voxels around each grid vertex (the
+/// local configurations of Gray 1971 and Toriwaki & Yonekura 2002): every cell of the doubled
+/// grid has one lowest vertex, and whether it is in the complex depends only on the voxels
+/// around that vertex, so χ = Σ over the (n + 1)^D vertices of a table entry. Exact: an
+/// integer sum, at most 2^D cells per vertex. Cost: O(2^D · vertices), no memory.
+template <std::size_t D, class Foreground>
+long long euler_by_configurations(const std::array<std::size_t, D>& n, Foreground&& foreground) {
+  // table[c]: the signed count of the cells with this lowest vertex that are present when the
+  // voxels around it are those of the bits of c (bit o: the voxel at offset o_a - 1 on axis a)
+  constexpr unsigned around = 1u << D;  // voxels around a vertex
+  std::array<long long, (1u << around)> table{};
+  for (unsigned c = 0; c < (1u << around); ++c)
+    for (unsigned d = 0; d < (1u << D); ++d) {  // the cell going up along the axes of d
+      bool present = false;  // some foreground voxel has it as a face: offset 0 on the axes of d
+      for (unsigned o = 0; o < around && !present; ++o)
+        if ((o & d) == d && ((c >> o) & 1u)) present = true;
+      if (present) table[c] += std::popcount(d) % 2 == 0 ? 1 : -1;
+    }
+  std::array<std::size_t, D> stride{};
+  std::size_t count = 1;
+  for (std::size_t a = 0; a < D; ++a) stride[a] = count, count *= n[a];
+  if (count == 0) return 0;
+  long long chi = 0;
+  std::array<std::size_t, D> x{};
+  for (;;) {
+    unsigned c = 0;
+    for (unsigned o = 0; o < around; ++o) {
+      bool inside = true;
+      std::size_t v = 0;
+      for (std::size_t a = 0; a < D && inside; ++a) {
+        const std::size_t y = x[a] + ((o >> a) & 1u);  // the voxel's coordinate + 1
+        if (y == 0 || y > n[a]) inside = false;
+        else v += (y - 1) * stride[a];
+      }
+      if (inside && foreground(v)) c |= 1u << o;
+    }
+    chi += table[c];
+    std::size_t a = 0;
+    for (; a < D; ++a) {  // the next vertex, axis 0 fastest
+      if (++x[a] <= n[a]) break;
+      x[a] = 0;
+    }
+    if (a == D) break;
+  }
+  return chi;
+}
+
+template <std::size_t D, class Index>
+std::array<std::size_t, 2> cubical_components(const cubical_complex<D>& c, const run_control* control) {
+  // The voxels' own bits: the parity class with every axis odd holds them in voxel order.
+  const auto& top = c.class_of_mask((1u << D) - 1);
+  const auto bits = c.bitmap();
+  auto foreground = [&](std::size_t v) {
+    const std::size_t b = top.bit_begin + v;
+    return ((bits[b >> 6] >> (b & 63)) & 1u) != 0;
+  };
+  std::array<std::array<bool, 2>, D> open{};
+  for (auto& s : open) s = {true, true};
+  const auto l = label_voxels<D, Index>(c.extents(), foreground, open, control);
+  return {l.foreground_components, l.bounded_background};
 }
 
 }  // namespace detail

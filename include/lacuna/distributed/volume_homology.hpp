@@ -58,6 +58,7 @@
 #include <lacuna/distributed/gather_words.hpp>
 #include <lacuna/distributed/slab_reduction_tree.hpp>
 #include <lacuna/distributed/volume_blocks.hpp>
+#include <lacuna/distributed/volume_duality.hpp>
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/io/read_limits.hpp>
 #include <lacuna/ring/checked.hpp>
@@ -98,6 +99,10 @@ struct volume_options {
   /// Merge the residuals in a reduction tree (distributed/slab_reduction_tree.hpp); false, or
   /// a generator request, gathers every slab's residual on the root in one step.
   bool reduction_tree = true;
+  /// Groups only (no generators, no basis, no witnesses): take the duality route of
+  /// distributed/volume_duality.hpp (labellings and χ, no residual complex), as
+  /// sparse_elimination::cubical_duality does for the one-process engine. false: never.
+  bool cubical_duality = true;
 };
 
 /// A chain of the whole volume's cubical complex, its cells named by their position in the
@@ -374,6 +379,21 @@ volume_homology_result<R> volume_homology(MPI_Comm comm, const std::filesystem::
   std::vector<detail::kept_slab> kept;
   volume_homology_result<R> r;
   auto& st = r.statistics;
+  // The duality route, when it applies (a reduced group of the empty volume goes on below).
+  if (options.cubical_duality && !want_generators && !options.homology.keep_basis.value_or(false) && !options.homology.witnesses) {
+    const auto d = volume_duality(comm, path, {.threshold = options.threshold, .limits = options.limits, .root = options.root});
+    st.blocks = d.layers > 0 ? 1 : 0;
+    st.voxels_read = d.voxels_read;
+    st.bytes_sent = d.communication.bytes_sent;
+    st.bytes_received = d.communication.bytes_received;
+    if (!(options.homology.reduced && d.empty)) {
+      if (d.has_result) r.result = detail::duality_result<R>(d, options.homology.reduced, ring_one);
+      if (!d.empty) r.cells.assign(d.cells.begin(), d.cells.end());
+      r.has_result = d.has_result;
+      return r;
+    }
+    st = {};
+  }
   const io::image_options image{.threshold = options.threshold, .limits = options.limits};
 
   // Phase 1: the header (every rank reads it; the same error everywhere if it is bad).
