@@ -6,6 +6,7 @@
 // minors changed) is refused, naming the group (in the degrees of the result) and the factor.
 #include "homology/support.hpp"
 #include "homology/certificate_mutations.hpp"
+#include "homology/subcomplex_marks.hpp"
 
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/homology/certificate.hpp>
@@ -21,7 +22,7 @@ using namespace certificate_mutations;
 using lacuna::cell_list;
 using lacuna::certificate_kind;
 using lacuna::integer;
-using marks_t = std::vector<std::vector<bool>>;
+using namespace subcomplex_marks;
 
 template <class R>
 std::vector<group> groups_in(const lacuna::homology_certificate<R>& cert) {
@@ -32,48 +33,6 @@ std::vector<group> groups_in(const lacuna::homology_certificate<R>& cert) {
     out.push_back(x);
   }
   return out;
-}
-
-/// The marks of the subcomplex of X spanned by the facets `a` (every simplex of X all of whose
-/// vertices lie in one facet of a).
-marks_t marks_of(const lacuna::simplicial_complex<int>& x, const std::vector<std::vector<int>>& a) {
-  marks_t m(static_cast<std::size_t>(x.top_dimension() + 1));
-  for (int k = 0; k <= x.top_dimension(); ++k) {
-    auto& mk = m[static_cast<std::size_t>(k)];
-    mk.assign(x.cell_count(k), false);
-    for (std::size_t i = 0; i < mk.size(); ++i)
-      for (const auto& f : a) {
-        bool inside = true;
-        for (auto v : x.vertices(k, i)) inside = inside && std::find(f.begin(), f.end(), x.label(v)) != f.end();
-        if (inside) mk[i] = true;
-      }
-  }
-  return m;
-}
-
-/// A triangulated disk: the cone over an n-gon (apex 0, rim 1..n), and its rim.
-lacuna::simplicial_complex<int> cone_disk(int n) {
-  std::vector<std::vector<int>> fs;
-  for (int i = 1; i <= n; ++i) fs.push_back({0, i, i % n + 1});
-  return facets(fs);
-}
-std::vector<std::vector<int>> cone_rim(int n) {
-  std::vector<std::vector<int>> fs;
-  for (int i = 1; i <= n; ++i) fs.push_back({i, i % n + 1});
-  return fs;
-}
-
-/// The 3-ball as the cone over the boundary of the tetrahedron (apex 9), and that boundary.
-lacuna::simplicial_complex<int> cone_ball() {
-  return facets({{9, 1, 2, 3}, {9, 1, 2, 4}, {9, 1, 3, 4}, {9, 2, 3, 4}});
-}
-
-/// The boundary circle of the five-vertex Möbius band (triangles {i, i+1, i+2} mod 5): the
-/// edges {i, i+2}, each in one triangle only.
-std::vector<std::vector<int>> moebius_rim() {
-  std::vector<std::vector<int>> fs;
-  for (int i = 0; i < 5; ++i) fs.push_back({i, (i + 2) % 5});
-  return fs;
 }
 
 /// Two points (S^0) and one point.
@@ -211,30 +170,6 @@ TEST_CASE("certificates of cohomology: the universal coefficient theorem's group
   CHECK(!lacuna::check_certificate(six_vertex_rp2(), r.certificate).ok);
 }
 
-/// A boundary of the kind's differential in degree f, from a cell of degree f + 1 (homology
-/// kinds: its boundary, the cells of A dropped for a pair) or f − 1 (cohomology: its coboundary).
-template <class C>
-lacuna::chain<integer> a_boundary(const C& c, certificate_kind kind, const marks_t* a, int f) {
-  lacuna::chain<integer> b{f, {}};
-  if (kind == certificate_kind::cohomology) {
-    if (f == 0) return b;
-    for (std::size_t s = 0; s < lacuna::cell_count(c, f); ++s)
-      for (auto&& v : lacuna::boundary(c, f, s))
-        if (lacuna::incidence_face(v) == 0) b.terms.push_back({s, lacuna::coefficient_as_integer(v)});
-  } else {
-    if (f + 1 > lacuna::top_dimension(c)) return b;
-    std::size_t cell = 0;
-    if (a)
-      while (cell < lacuna::cell_count(c, f + 1) && (*a)[static_cast<std::size_t>(f) + 1][cell]) ++cell;
-    if (cell >= lacuna::cell_count(c, f + 1)) return b;
-    for (auto&& v : lacuna::boundary(c, f + 1, cell))
-      if (!a || !(*a)[static_cast<std::size_t>(f)][lacuna::incidence_face(v)])
-        b.terms.push_back({lacuna::incidence_face(v), lacuna::coefficient_as_integer(v)});
-  }
-  b.normalize_terms();
-  return b;
-}
-
 template <class C>
 int kind_mutations_rejected(const C& c, certificate_kind kind, const marks_t* a = nullptr) {
   using cert_t = lacuna::homology_certificate<integer>;
@@ -242,7 +177,7 @@ int kind_mutations_rejected(const C& c, certificate_kind kind, const marks_t* a 
                     : kind == certificate_kind::cohomology ? lacuna::certified_cohomology<integer>(c).certificate
                                                            : lacuna::certified_homology<integer>(c, {.reduced = true}).certificate;
   auto check = [&](const cert_t& x) { return a ? lacuna::check_certificate(c, x, *a) : lacuna::check_certificate(c, x); };
-  auto bnd = [&](int f) { return a_boundary(c, kind, a, f); };
+  auto bnd = [&](int f) { return kind_boundary(c, kind, a, f); };
   return mutations_rejected_by(c, good, check, bnd);
 }
 

@@ -493,6 +493,8 @@ struct naming {
   std::function<std::string(int)> map = [](int k) { return "∂_" + std::to_string(k); };
   std::function<int(int)> degree = [](int k) { return k; };
   std::function<int(int)> map_degree = [](int k) { return k; };
+  /// The words for a cycle and its boundary, and for a cocycle and its coboundary, of the view.
+  std::string cycle = "a cycle", boundary = "boundary", cocycle = "a cocycle", coboundary = "coboundary";
 };
 
 /// The check of a certificate of absolute homology on c, failures named by nm.
@@ -592,7 +594,7 @@ certificate_report check_absolute(const C& c, const homology_certificate<R>& cer
       }
       for (const auto& [cell, v] : detail::cert::boundary_of(c, z))
         if (!(v == zero<R>())) {
-          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not a cycle (its boundary is " +
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not " + nm.cycle + " (its " + nm.boundary + " is " +
                                                       detail::cert::text(v) + " on " + nm.cell(k - 1, cell) + ")");
           break;
         }
@@ -649,8 +651,8 @@ certificate_report check_absolute(const C& c, const homology_certificate<R>& cer
         }
         for (const auto& [j, v] : acc)
           if (!detail::cert::congruent(v, zero<R>(), modulus(j))) {
-            fail(k, j, label(j) + ": its cochain is not a cocycle" +
-                           (j < r ? std::string() : " modulo " + detail::cert::text(modulus(j))) + " (the coboundary is " +
+            fail(k, j, label(j) + ": its dual witness is not " + nm.cocycle +
+                           (j < r ? std::string() : " modulo " + detail::cert::text(modulus(j))) + " (the " + nm.coboundary + " is " +
                            detail::cert::text(v) + " on " + nm.cell(k + 1, s) + ")");
             break;
           }
@@ -910,16 +912,21 @@ struct view {
     nm.map_degree = nm.degree;
     switch (kd) {
       case certificate_kind::reduced:
+        nm.cycle = "a reduced cycle";
         nm.group = [](int j) { return "H̃_" + std::to_string(j - 1); };
         nm.cell = [](int j, std::size_t i) { return j == 0 ? std::string("the augmentation cell") : std::to_string(j - 1) + "-cell " + std::to_string(i); };
         nm.map = [](int j) { return j == 1 ? std::string("ε (the augmentation)") : "∂_" + std::to_string(j - 1); };
         break;
       case certificate_kind::relative:
+        nm.cycle = "a relative cycle (its boundary lies in A)";
+        nm.boundary = "boundary off A";
         nm.group = [](int j) { return "H_" + std::to_string(j) + "(X, A)"; };
         nm.cell = [self](int j, std::size_t i) { return std::to_string(j) + "-cell " + std::to_string(self->original(j, i)); };
         nm.map = [](int j) { return "∂_" + std::to_string(j) + " of C(X)/C(A)"; };
         break;
       case certificate_kind::cohomology:
+        nm.cycle = "a cocycle", nm.boundary = "coboundary", nm.cocycle = "a cycle (modulo its order, for torsion)",
+        nm.coboundary = "boundary";
         nm.group = [t](int j) { return "H^" + std::to_string(t - j); };
         nm.cell = [t](int j, std::size_t i) { return std::to_string(t - j) + "-cell " + std::to_string(i); };
         nm.map = [t](int j) { return "δ_" + std::to_string(t - j); };

@@ -412,7 +412,7 @@ void compare_with_certificate(const CX& c, const homology_certificate<R>& cert, 
       if (!rep.ok) break;
       for (const auto& [cell, v] : cert::boundary_of(c, z))
         if (!(v == zero<R>())) {
-          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not a cycle (its boundary is " + verify_text(v) +
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not " + nm.cycle + " (its " + nm.boundary + " is " + verify_text(v) +
                                                       " on " + nm.cell(k - 1, cell) + ")");
           break;
         }
