@@ -378,7 +378,7 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
       lacuna::io::write_certificate_json(file, cx, r.certificate, o.co.text, marks ? o.relative : std::string());
       file.flush();
       if (!file) throw usage_error(o.certificate + ": cannot be written");
-      report(cx, r.result, o, out);
+      report(cx, r.result, o, out, marks);
     };
     if (o.co.k == coefficients::integers)
       certify.template operator()<lacuna::integer>();

@@ -32,6 +32,14 @@
 //
 // The checker also verifies ∂∂ = 0 on the complex (over R), so nothing is assumed of it.
 //
+// Reduced homology, the homology of a pair (X, A) and cohomology (certificate_kind): the same
+// witnesses of a derived chain complex D that the checker builds from X — the augmented complex
+// (one cell in degree −1, ε the sum of the vertices), the quotient C(X)/C(A) (after checking
+// that A's marks are closed under faces), or the dual complex (δ_k = ∂_{k+1}ᵀ: cocycles as
+// generators, chains as the dual witnesses, bounding cochains δw = d·φ, rank witnesses of the
+// coboundaries, minors of δ_{k−1} for the torsion of H^k) — and (a)-(e) checked on D prove the
+// same of H(D) = H̃(X), H(X, A) or H^*(X) (docs/certificates.md, "Reduced, relative and cohomology").
+//
 // Cost of the check: one pass over the faces of the faces of every cell (∂∂ = 0); one pass
 // over the boundaries of the cells the chains meet (cycles and bounding chains); one pass
 // over the (k+1)-cells for the cocycles, each face looking up the cochains that are non-zero

@@ -454,6 +454,7 @@ certified_homology_result<R> certified_kind(const C& c, certificate_kind kind, c
   certified_homology_result<R> out;
   out.certificate = cert::certificate_from(v, on_view.certificate);
   options.generators = true;
+  options.witnesses = false;  // the witnesses are the certificate's, from the derived complex
   if (kind == certificate_kind::reduced) {
     options.reduced = true;
     out.result = homology<R>(c, options, sparse_elimination{});

@@ -1,8 +1,11 @@
 // lacuna/homology/verify.hpp — a check of the groups and generators of a homology or
 // cohomology result, independent of the engine's elimination data where a certificate exists.
 //
-// Homology over a certifiable_ring (Z, Q, Z/p with p < 2^32 fixed at compile time), not
-// reduced — the certified check (detail::verify_by_certificate):
+// Homology, reduced homology, the homology of a pair (the overload with the subcomplex's marks)
+// and cohomology over a certifiable_ring (Z, Q, Z/p with p < 2^32 fixed at compile time) — the
+// certified check (detail::verify_by_certificate; for the other kinds than homology, steps 3
+// and 4 run on the derived complex that the certificate is checked on: augmented, quotient
+// C(X)/C(A) or dual, homology/certificate.hpp, the result's generators read as its chains):
 //   1. a certificate of the complex (certified_homology, homology/certify.hpp) is checked by
 //      check_certificate (homology/certificate.hpp), which shares no code with the engine. A
 //      passing check proves H_k ≅ R^r ⊕ ⊕ R/d_i for every k and that the certificate's
@@ -26,7 +29,7 @@
 // Nothing of the verdict rests on the engine's coordinates: only on what check_certificate
 // proved and on the complex's own boundaries.
 //
-// Cohomology, reduced homology and other rings (no certificate yet) — the older check
+// Rings that are not a certifiable_ring (no certificate yet) — the older check
 // (detail::verify_by_coordinates), which is not a proof:
 //   1. counts: rank free generators (order 0) then one per torsion factor, in order;
 //   2. cycles: ∂z = 0 for a homology generator (and ε(z) = 0 in degree 0 of reduced
@@ -632,15 +635,16 @@ verification_report verify_by_certificate(const C& c, const homology_result<R>& 
 /// homology_options{.generators = true}) as described at the top of this header. R models
 /// euclidean_domain; C models cell_complex and must be the complex the result was computed
 /// from. Throws std::invalid_argument if the result has no generators.
-/// Homology over a certifiable_ring (not reduced): the certified check — the verdict rests
+/// Over a certifiable_ring (homology, reduced homology, cohomology): the certified check — the verdict rests
 /// only on check_certificate and the complex's own boundaries; a wrong group, factor, order or
 /// generator is refused at any size, and the report names the group (`dimension`) and the
 /// generator or torsion factor (`generator`: torsion factor i is rank + i). Cost: that of
 /// certified_homology and check_certificate (docs/certificates.md, "Cost"), plus a pass over
 /// each generator's cells; a dense (generators × generators) test only for generators that are
 /// not a signed permutation of the certified ones, and up to dense_generator_limit.
-/// Cohomology, reduced homology and other rings: the older check through the result's own
-/// coordinates (not a proof; the top of this header).
+/// Other rings: the older check through the result's own coordinates (not a proof; the top of
+/// this header). A relative result (relative_homology) is refused (std::invalid_argument):
+/// it is checked by the overload below, with its subcomplex.
 template <euclidean_domain R, cell_complex C>
 verification_report verify_generators(const C& c, const homology_result<R>& result, verify_options options = {}) {
   if (!result.has_basis()) throw std::invalid_argument("verify_generators: the result was computed without generators");
