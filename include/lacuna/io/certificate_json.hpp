@@ -2,6 +2,9 @@
 // files: write_certificate_json and read_certificate_json. The layout is documented in
 // docs/certificates.md ("The certificate file"); cells are named as the tool names them
 // (lacuna::cell_name), so the file can be read against the input file by any program.
+// Certificates of reduced homology, of a pair and of cohomology (certificate_kind) add the
+// optional keys "kind", "augmented" and "subcomplex"; the keys of the first layout keep their
+// meaning, read in the kind's own degrees (docs/certificates.md, "The certificate file").
 //
 // Over the integers coefficients are JSON integers of any size; over Z/2 they are 0 or 1.
 // The reader is a small JSON parser of its own (objects, arrays, strings, integers; no
