@@ -360,8 +360,8 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
   std::string out;  // nothing reaches stdout until the whole answer is known
   std::string svg;  // --picture
   if (!o.certificate.empty()) {
-    // The certificate: over Z and Z/2, of absolute homology (docs/certificates.md).
-    if (marks) throw usage_error("lacuna: --certificate is not offered with --relative");
+    // The certificate: over Z and Z/2, of homology, reduced homology (--reduced), the homology
+    // of a pair (--relative) or cohomology (lacuna cohomology) (docs/certificates.md).
     if (o.co.k == coefficients::rationals || (o.co.k == coefficients::mod_p && o.co.p != 2))
       throw usage_error("lacuna: --certificate is offered over Z and Z/2, not over " + o.co.text);
     auto certify = [&]<class R>() {
@@ -370,13 +370,15 @@ void compute_and_report(const C& cx, const run_options& o, progress_line& progre
       co.keep_basis = true;
       reserve_memory(lacuna::estimate_homology_memory<R>(cx, co, lacuna::sparse_elimination{}), ho.control);
       co.control = ho.control;
-      auto r = lacuna::certified_homology<R>(cx, co);
+      auto r = marks          ? lacuna::certified_relative_homology<R>(cx, *marks, co)
+               : o.cohomology ? lacuna::certified_cohomology<R>(cx, co)
+                              : lacuna::certified_homology<R>(cx, co);
       std::ofstream file(o.certificate, std::ios::binary | std::ios::trunc);
       if (!file) throw usage_error(o.certificate + ": cannot be written");
-      lacuna::io::write_certificate_json(file, cx, r.certificate, o.co.text);
+      lacuna::io::write_certificate_json(file, cx, r.certificate, o.co.text, marks ? o.relative : std::string());
       file.flush();
       if (!file) throw usage_error(o.certificate + ": cannot be written");
-      report(cx, r.result, o, out);
+      report(cx, r.result, o, out, marks);
     };
     if (o.co.k == coefficients::integers)
       certify.template operator()<lacuna::integer>();
@@ -855,7 +857,8 @@ int main(int argc, char** argv) {
   hom->add_option("--relative", o.relative, "homology of the pair (FILE, SUB), SUB a subcomplex in FILE's format")
       ->type_name("SUB");
   hom->add_option("--certificate", o.certificate,
-                  "also write a certificate of the groups (over Z or Z/2; docs/certificates.md)")
+                  "also write a certificate of the groups (over Z or Z/2; also with --reduced or --relative; "
+                  "docs/certificates.md)")
       ->type_name("OUT.json");
   hom->add_option("--picture", o.picture,
                   "also draw the generators of H_1 on the image as SVG (2D images .pbm .pgm; over Z, Q or Z/2)")
@@ -871,6 +874,9 @@ int main(int argc, char** argv) {
   bool coh_reduced = false;
   coh->add_option("--relative", coh_relative)->group("");
   coh->add_flag("--reduced", coh_reduced)->group("");
+  coh->add_option("--certificate", cob.certificate,
+                  "also write a certificate of the groups (over Z or Z/2; docs/certificates.md)")
+      ->type_name("OUT.json");
   coh->add_option("FILE", cob.file, "input: .facets .cells .off .obj .pbm .pgm .nrrd")->required();
   run_options so;
   std::string seq_coeff_text = "Z";

@@ -43,10 +43,18 @@ inline int free_degree(const lacuna::homology_certificate<R>& c) {
 
 /// Runs every mutation that applies to c's certificate and checks it is rejected where
 /// expected. Returns how many applied.
-template <class C>
-inline int mutations_rejected(const C& c) {
-  const auto good = lacuna::certified_homology<integer>(c).certificate;
-  REQUIRE(lacuna::check_certificate(c, good).ok);
+/// The same for a certificate `good` of any kind: `check` checks a certificate (with the
+/// subcomplex, for a relative one), `a_boundary(f)` gives a boundary of degree f of the
+/// kind's differential (empty: none).
+template <class C, class Check, class Boundary>
+inline int mutations_rejected_by(const C& c, const lacuna::homology_certificate<integer>& good, Check check,
+                                 Boundary a_boundary) {
+  (void)c;
+  {
+    const auto rep = check(good);
+    INFO(rep.first_failure);
+    REQUIRE(rep.ok);
+  }
   const int t = torsion_degree(good), f = free_degree(good);
   using cert_t = lacuna::homology_certificate<integer>;
   std::vector<mutation<integer>> ms;
@@ -163,13 +171,9 @@ inline int mutations_rejected(const C& c) {
                     g.generators[0] = lacuna::scaled(integer(2), g.generators[0]);
                     return true;
                   }, f, 0, "not 1"});
-    ms.push_back({"free generator replaced by a boundary", [f, &c](cert_t& x) {
+    ms.push_back({"free generator replaced by a boundary", [f, &a_boundary](cert_t& x) {
                     auto& g = x.groups[f];
-                    if (lacuna::cell_count(c, f + 1) == 0) return false;
-                    lacuna::chain<integer> b{f, {}};
-                    for (auto&& v : lacuna::boundary(c, f + 1, 0))
-                      b.terms.push_back({lacuna::incidence_face(v), lacuna::coefficient_as_integer(v)});
-                    b.normalize_terms();
+                    const lacuna::chain<integer> b = a_boundary(f);
                     if (b.is_zero()) return false;
                     g.generators[0] = b;
                     return true;
@@ -192,7 +196,7 @@ inline int mutations_rejected(const C& c) {
     auto bad = good;
     if (!m.apply(bad)) continue;
     ++applied;
-    const auto rep = lacuna::check_certificate(c, bad);
+    const auto rep = check(bad);
     INFO(m.name << ": " << rep.first_failure);
     CHECK(!rep.ok);
     if (m.dimension != -3) CHECK(rep.dimension == m.dimension);
@@ -201,6 +205,23 @@ inline int mutations_rejected(const C& c) {
     CHECK(rep.torsion_unproved == (m.words == "no torsion witnesses"));
   }
   return applied;
+}
+
+/// Runs every mutation that applies to c's certificate of absolute homology over Z and checks
+/// it is rejected where expected. Returns how many applied.
+template <class C>
+inline int mutations_rejected(const C& c) {
+  const auto good = lacuna::certified_homology<integer>(c).certificate;
+  auto check = [&c](const lacuna::homology_certificate<integer>& x) { return lacuna::check_certificate(c, x); };
+  auto a_boundary = [&c](int f) {
+    lacuna::chain<integer> b{f, {}};
+    if (lacuna::cell_count(c, f + 1) == 0) return b;
+    for (auto&& v : lacuna::boundary(c, f + 1, 0))
+      b.terms.push_back({lacuna::incidence_face(v), lacuna::coefficient_as_integer(v)});
+    b.normalize_terms();
+    return b;
+  };
+  return mutations_rejected_by(c, good, check, a_boundary);
 }
 
 }  // namespace certificate_mutations

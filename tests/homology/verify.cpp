@@ -2,6 +2,7 @@
 // something), and cohomology with cocycle generators of textbook spaces.
 #include "support.hpp"
 #include "homology/verify_mutations.hpp"
+#include "homology/subcomplex_marks.hpp"
 
 #include <lacuna/complex/construct/product.hpp>
 
@@ -201,6 +202,79 @@ TEST_CASE("verify_generators: a torsion summand left out is named, and another b
   const auto ok = lacuna::verify_generators(x, alt);
   INFO(ok.first_failure);
   CHECK(ok.ok);
+}
+
+/// Mutations of the reduced, relative or cohomology result of c over Z, through verify_generators.
+template <class C>
+int kind_result_mutations_rejected(const C& c, lacuna::certificate_kind kind, const subcomplex_marks::marks_t* a = nullptr) {
+  using lacuna::certificate_kind;
+  const auto good = kind == certificate_kind::relative     ? lacuna::relative_homology<integer>(c, *a, {.generators = true})
+                    : kind == certificate_kind::cohomology ? lacuna::cohomology<integer>(c, {.generators = true})
+                                                           : lacuna::homology<integer>(c, {.generators = true, .reduced = true});
+  auto verify = [&](const verify_mutations::result_t& x) {
+    return a ? lacuna::verify_generators(c, *a, x) : lacuna::verify_generators(c, x);
+  };
+  auto bnd = [&](int f) { return subcomplex_marks::kind_boundary(c, kind, a, f); };
+  return verify_mutations::result_mutations_rejected_by(c, good, verify, bnd);
+}
+
+TEST_CASE("verify_generators checks reduced, relative and cohomology results through certificates") {
+  using lacuna::certificate_kind;
+  using namespace subcomplex_marks;
+  // Groups: reduced RP^2 0, Z/2, 0 and reduced torus 0, Z^2, Z (Hatcher 2002, §2.1 and
+  // Example 2.42, from memory); the Möbius band rel its rim 0, Z/2, 0 (the long exact sequence
+  // of the pair: H_1(∂M) → H_1(M) is multiplication by 2); the torus rel a point 0, Z^2, Z;
+  // cohomology of RP^2 Z, 0, Z/2 and of the Klein bottle Z, Z, Z/2 (universal coefficients,
+  // Hatcher 2002, Theorem 3.2); the cell list of three torsion factors has H^2 = Z/2 + Z/4 + Z/12.
+  CHECK(kind_result_mutations_rejected(six_vertex_rp2(), certificate_kind::reduced) >= 4);
+  CHECK(kind_result_mutations_rejected(seven_vertex_torus(), certificate_kind::reduced) >= 5);
+  CHECK(kind_result_mutations_rejected(three_torsion_factors(), certificate_kind::reduced) >= 10);
+  const auto m = five_vertex_moebius();
+  const auto rim = marks_of(m, moebius_rim());
+  CHECK(kind_result_mutations_rejected(m, certificate_kind::relative, &rim) >= 4);
+  const auto t = seven_vertex_torus();
+  const auto point = marks_of(t, {{1}});
+  CHECK(kind_result_mutations_rejected(t, certificate_kind::relative, &point) >= 5);
+  CHECK(kind_result_mutations_rejected(six_vertex_rp2(), certificate_kind::cohomology) >= 4);
+  CHECK(kind_result_mutations_rejected(cell_list::klein_bottle(), certificate_kind::cohomology) >= 6);
+  CHECK(kind_result_mutations_rejected(three_torsion_factors(), certificate_kind::cohomology) >= 8);
+  // H^2(RP^2) = Z/2 claimed as Z/4: refused, naming H^2 and its torsion factor 0.
+  const auto rp2 = six_vertex_rp2();
+  auto h = lacuna::cohomology<integer>(rp2, {.generators = true});
+  REQUIRE(h[2].torsion == std::vector<integer>{integer(2)});
+  h.groups[2].torsion[0] = integer(4);
+  h.groups[2].orders[0] = integer(4);
+  auto rep = lacuna::verify_generators(rp2, h);
+  CHECK(!rep.ok);
+  CHECK(rep.dimension == 2);
+  CHECK(rep.generator == 0);
+  CHECK(rep.first_failure.find("H^2 torsion factor 0: the result claims order 4, the certificate proves order 2") !=
+        std::string::npos);
+  // H_1(M, ∂M) = Z/2 claimed as Z (rank 1): refused, naming H_1(X, A).
+  auto r = lacuna::relative_homology<integer>(m, rim, {.generators = true});
+  REQUIRE(r[1].torsion == std::vector<integer>{integer(2)});
+  r.groups[1].torsion.clear();
+  r.groups[1].rank = 1;
+  r.groups[1].orders[0] = integer(0);
+  rep = lacuna::verify_generators(m, rim, r);
+  CHECK(!rep.ok);
+  CHECK(rep.dimension == 1);
+  CHECK(rep.first_failure.find("H_1(X, A): the result claims rank 1, the certificate proves rank 0") != std::string::npos);
+  // A relative result needs its subcomplex; an absolute result is not relative.
+  CHECK_THROWS_AS(lacuna::verify_generators(m, lacuna::relative_homology<integer>(m, rim, {.generators = true})),
+                  std::invalid_argument);
+  CHECK_THROWS_AS(lacuna::verify_generators(m, rim, lacuna::homology<integer>(m, {.generators = true})), std::invalid_argument);
+  // H̃_0 of S^0 claimed as rank 2 (the absolute b_0): refused, naming H̃_0.
+  const auto s0 = cell_list::sphere(0);
+  auto red = lacuna::homology<integer>(s0, {.generators = true, .reduced = true});
+  REQUIRE(lacuna::verify_generators(s0, red).ok);
+  red.groups[0].rank = 2;
+  red.groups[0].generators.push_back(lacuna::chain<integer>{0, {{0, integer(1)}}});
+  red.groups[0].orders.push_back(integer(0));
+  rep = lacuna::verify_generators(s0, red);
+  CHECK(!rep.ok);
+  CHECK(rep.dimension == 0);
+  CHECK(rep.first_failure.find("H̃_0: the result claims rank 2, the certificate proves rank 1") != std::string::npos);
 }
 
 }  // namespace homology_verify_test

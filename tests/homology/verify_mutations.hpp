@@ -26,13 +26,16 @@ struct result_mutation {
   std::string words;         // a phrase of the failure
 };
 
-/// Runs every mutation that applies to the result of c over Z with generators (the default
-/// route) and checks that verify_generators refuses it where expected. Returns how many applied.
-template <class C>
-int result_mutations_rejected(const C& c) {
-  const auto good = lacuna::homology<integer>(c, {.generators = true});
+/// Runs every mutation that applies to a result `good` of c (absolute, reduced, relative or
+/// cohomology) and checks that verify_generators refuses it where expected, naming the group
+/// and factor; returns how many applied. `verify` runs
+/// verify_generators (with the subcomplex, for a pair), `a_boundary(f)` gives a boundary of
+/// degree f of the result's differential (empty: none).
+template <class C, class Verify, class Boundary>
+int result_mutations_rejected_by(const C& c, const result_t& good, Verify verify, Boundary a_boundary) {
+  (void)c;
   {
-    const auto rep = lacuna::verify_generators(c, good);
+    const auto rep = verify(good);
     INFO(rep.first_failure);
     REQUIRE(rep.ok);
   }
@@ -106,12 +109,8 @@ int result_mutations_rejected(const C& c) {
                     x.groups[f].generators[0] = lacuna::scaled(integer(2), x.groups[f].generators[0]);
                     return true;
                   }, f, 0, "2 times a class"});
-    ms.push_back({"a free generator replaced by a boundary", [f, &c](result_t& x) {
-                    lacuna::chain<integer> b{f, {}};
-                    if (lacuna::cell_count(c, f + 1) == 0) return false;
-                    for (auto&& v : lacuna::boundary(c, f + 1, 0))
-                      b.terms.push_back({lacuna::incidence_face(v), lacuna::coefficient_as_integer(v)});
-                    b.normalize_terms();
+    ms.push_back({"a free generator replaced by a boundary", [f, &a_boundary](result_t& x) {
+                    const lacuna::chain<integer> b = a_boundary(f);
                     if (b.is_zero()) return false;
                     x.groups[f].generators[0] = b;
                     return true;
@@ -128,7 +127,7 @@ int result_mutations_rejected(const C& c) {
     auto bad = good;
     if (!mu.apply(bad)) continue;
     ++applied;
-    const auto rep = lacuna::verify_generators(c, bad);
+    const auto rep = verify(bad);
     INFO(mu.name << ": " << rep.first_failure);
     CHECK(!rep.ok);
     CHECK(rep.dimension == mu.dimension);
@@ -136,6 +135,23 @@ int result_mutations_rejected(const C& c) {
     if (!mu.words.empty()) CHECK(rep.first_failure.find(mu.words) != std::string::npos);
   }
   return applied;
+}
+
+/// Runs every mutation that applies to the result of c over Z with generators (the default
+/// route) and checks that verify_generators refuses it where expected. Returns how many applied.
+template <class C>
+int result_mutations_rejected(const C& c) {
+  const auto good = lacuna::homology<integer>(c, {.generators = true});
+  auto verify = [&c](const result_t& x) { return lacuna::verify_generators(c, x); };
+  auto a_boundary = [&c](int f) {
+    lacuna::chain<integer> b{f, {}};
+    if (lacuna::cell_count(c, f + 1) == 0) return b;
+    for (auto&& v : lacuna::boundary(c, f + 1, 0))
+      b.terms.push_back({lacuna::incidence_face(v), lacuna::coefficient_as_integer(v)});
+    b.normalize_terms();
+    return b;
+  };
+  return result_mutations_rejected_by(c, good, verify, a_boundary);
 }
 
 }  // namespace verify_mutations

@@ -32,6 +32,14 @@
 //
 // The checker also verifies ∂∂ = 0 on the complex (over R), so nothing is assumed of it.
 //
+// Reduced homology, the homology of a pair (X, A) and cohomology (certificate_kind): the same
+// witnesses of a derived chain complex D that the checker builds from X — the augmented complex
+// (one cell in degree −1, ε the sum of the vertices), the quotient C(X)/C(A) (after checking
+// that A's marks are closed under faces), or the dual complex (δ_k = ∂_{k+1}ᵀ: cocycles as
+// generators, chains as the dual witnesses, bounding cochains δw = d·φ, rank witnesses of the
+// coboundaries, minors of δ_{k−1} for the torsion of H^k) — and (a)-(e) checked on D prove the
+// same of H(D) = H̃(X), H(X, A) or H^*(X) (docs/certificates.md, "Reduced, relative and cohomology").
+//
 // Cost of the check: one pass over the faces of the faces of every cell (∂∂ = 0); one pass
 // over the boundaries of the cells the chains meet (cycles and bounding chains); one pass
 // over the (k+1)-cells for the cocycles, each face looking up the cochains that are non-zero
@@ -50,6 +58,11 @@
 #include <algorithm>
 #include <cstddef>
 #include <cstdint>
+#include <functional>
+#include <optional>
+#include <ranges>
+#include <type_traits>
+#include <span>
 #include <sstream>
 #include <string>
 #include <unordered_map>
@@ -113,11 +126,44 @@ struct torsion_witness {
   std::vector<minor_block> minors;
 };
 
+/// The kind of result a certificate states (homology_certificate::kind). Each is the
+/// homology of a chain complex built from X, on which the witnesses are checked as for
+/// absolute homology (docs/certificates.md, "Reduced, relative and cohomology"):
+enum class certificate_kind {
+  absolute,    ///< H_k(X): the cellular chain complex of X
+  reduced,     ///< H̃_k(X): the augmented complex, one cell in degree −1 and ε = the sum of the vertices
+  relative,    ///< H_k(X, A): the quotient C(X)/C(A), A a subcomplex given by marks
+  cohomology,  ///< H^k(X): the cochain complex, δ_k = ∂_{k+1}ᵀ
+};
+
+/// The name of a kind, as the JSON layout writes it ("absolute", "reduced", ...).
+inline const char* certificate_kind_name(certificate_kind k) {
+  switch (k) {
+    case certificate_kind::reduced: return "reduced";
+    case certificate_kind::relative: return "relative";
+    case certificate_kind::cohomology: return "cohomology";
+    default: return "absolute";
+  }
+}
+
 /// A certificate of the homology of a complex over R (lacuna::integer or a field):
 /// groups[k] for k = 0..top, ranks[k] for ∂_k, k = 0..top (ranks[0] empty: ∂_0 = 0), and over
 /// the integers torsion[k] for H_k (the minors of ∂_{k+1}), k = 0..top.
+///
+/// The other kinds keep this layout with indices of X's cells (docs/formats.md):
+///   reduced    groups[k] = H̃_k; ranks[0] witnesses ε (rows: the augmentation cell 0;
+///              columns: vertices), ranks[k] ∂_k; torsion[k] minors of ∂_{k+1};
+///   relative   as absolute, on the cells of X that are not in A (chains' terms on cells of A
+///              are zero in the quotient); rows and columns must not be cells of A;
+///   cohomology groups[k] = H^k: generators are k-cochains (cocycles); `cocycles` holds the
+///              dual witnesses, k-chains (cycles, modulo d for torsion) pairing to the
+///              identity; `bounding_chains` (k−1)-cochains w with δw = d·φ; ranks[k]
+///              witnesses δ_k: C^k → C^{k+1} (rows: (k+1)-cells, columns: k-cells; ranks[top]
+///              unused); torsion[k] minors of δ_{k−1} (rows: k-cells; torsion[0] unused).
 template <class R>
 struct homology_certificate {
+  /// The kind of result stated.
+  certificate_kind kind = certificate_kind::absolute;
   /// groups[k] for k = 0..top.
   std::vector<certified_group<R>> groups;
   /// ranks[k]: a witness of a lower bound of the rank of the boundary map ∂_k.
@@ -442,20 +488,32 @@ I magnitude(const I& x) {
 
 }  // namespace detail::cert
 
-/// Checks a certificate against the complex c it claims to describe (see the top of this
-/// header and docs/certificates.md for what a passing check proves). R models
-/// euclidean_domain (lacuna::integer, or a field); C models cell_complex. Never throws on a
-/// wrong certificate: the report names the first failure, its degree and generator.
-/// Complexity: a pass over the faces of faces of every cell (∂∂ = 0), linear in the size of
-/// the cells the witnesses meet, one pass over the (k+1)-cells per degree, and the
-/// eliminations mod p of the rank witnesses.
+namespace detail::cert {
+
+/// How the failures of a check on a derived complex (view_of) are named in the terms of the
+/// result it certifies: the group of view degree j, a view cell, the boundary map ∂'_j, and
+/// the degrees reported for a group and for a map.
+struct naming {
+  std::function<std::string(int)> group = [](int k) { return "H_" + std::to_string(k); };
+  std::function<std::string(int, std::size_t)> cell = [](int k, std::size_t i) {
+    return std::to_string(k) + "-cell " + std::to_string(i);
+  };
+  std::function<std::string(int)> map = [](int k) { return "∂_" + std::to_string(k); };
+  std::function<int(int)> degree = [](int k) { return k; };
+  std::function<int(int)> map_degree = [](int k) { return k; };
+  /// The words for a cycle and its boundary, and for a cocycle and its coboundary, of the view.
+  std::string cycle = "a cycle", boundary = "boundary", cocycle = "a cocycle", coboundary = "coboundary";
+};
+
+/// The check of a certificate of absolute homology on c, failures named by nm.
 template <euclidean_domain R, cell_complex C>
-certificate_report check_certificate(const C& c, const homology_certificate<R>& cert) {
+certificate_report check_absolute(const C& c, const homology_certificate<R>& cert, const naming& nm) {
   certificate_report rep;
+  bool map_failure = false;  // the next failure is about a boundary map, not a group
   auto fail = [&](int k, std::ptrdiff_t g, std::string what) {
     if (rep.ok) {
       rep.first_failure = std::move(what);
-      rep.dimension = k;
+      rep.dimension = k < 0 ? -1 : (map_failure ? nm.map_degree(k) : nm.degree(k));
       rep.generator = g;
     }
     rep.ok = false;
@@ -483,8 +541,7 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
       }
       for (const auto& [ff, x] : dd)
         if (!(x == zero<R>())) {
-          fail(k, -1, "the complex is not a chain complex: the boundary of the boundary of " + std::to_string(k) +
-                          "-cell " + std::to_string(s) + " is not zero");
+          fail(k, -1, "the complex is not a chain complex: the boundary of the boundary of " + nm.cell(k, s) + " is not zero");
           break;
         }
       if (!rep.ok) break;
@@ -493,7 +550,7 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
   }
   for (int k = 0; k <= top && rep.ok; ++k) {
     const auto& g = cert.groups[static_cast<std::size_t>(k)];
-    const std::string H = "H_" + std::to_string(k);
+    const std::string H = nm.group(k);
     const std::size_t r = g.rank, m = g.torsion.size(), N = r + m;
     const std::size_t nk = lacuna::cell_count(c, k);
     const std::size_t nk1 = k < top ? lacuna::cell_count(c, k + 1) : 0;
@@ -545,9 +602,8 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
       }
       for (const auto& [cell, v] : detail::cert::boundary_of(c, z))
         if (!(v == zero<R>())) {
-          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not a cycle (its boundary is " +
-                                                      detail::cert::text(v) + " on " + std::to_string(k - 1) + "-cell " +
-                                                      std::to_string(cell) + ")");
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not " + nm.cycle + " (its " + nm.boundary + " is " +
+                                                      detail::cert::text(v) + " on " + nm.cell(k - 1, cell) + ")");
           break;
         }
       ++rep.checks;
@@ -564,7 +620,7 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
         if (!(v == zero<R>())) {
           fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the boundary of its bounding chain is not " +
                                                       detail::cert::text(d) + " times the generator (they differ on " +
-                                                      std::to_string(k) + "-cell " + std::to_string(cell) + ")");
+                                                      nm.cell(k, cell) + ")");
           break;
         }
       ++rep.checks;
@@ -603,9 +659,9 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
         }
         for (const auto& [j, v] : acc)
           if (!detail::cert::congruent(v, zero<R>(), modulus(j))) {
-            fail(k, j, label(j) + ": its cochain is not a cocycle" +
-                           (j < r ? std::string() : " modulo " + detail::cert::text(modulus(j))) + " (the coboundary is " +
-                           detail::cert::text(v) + " on " + std::to_string(k + 1) + "-cell " + std::to_string(s) + ")");
+            fail(k, j, label(j) + ": its dual witness is not " + nm.cocycle +
+                           (j < r ? std::string() : " modulo " + detail::cert::text(modulus(j))) + " (the " + nm.coboundary + " is " +
+                           detail::cert::text(v) + " on " + nm.cell(k + 1, s) + ")");
             break;
           }
       }
@@ -644,9 +700,10 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
   if (!rep.ok) return rep;
   // (d) rank witnesses, then the free ranks (dimensions) they bound.
   std::vector<std::size_t> rho(static_cast<std::size_t>(top) + 2, 0);
+  map_failure = true;
   for (int k = 1; k <= top && rep.ok; ++k) {
     const auto& w = cert.ranks[static_cast<std::size_t>(k)];
-    const std::string D = "the rank witness of the boundary map from dimension " + std::to_string(k);
+    const std::string D = "the rank witness of " + nm.map(k);
     if (w.rows.size() != w.columns.size()) {
       fail(k, -1, D + ": " + std::to_string(w.rows.size()) + " rows for " + std::to_string(w.columns.size()) + " columns");
       break;
@@ -679,12 +736,13 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
     rho[static_cast<std::size_t>(k)] = w.rows.size();
     ++rep.checks;
   }
+  map_failure = false;
   for (int k = 0; k <= top && rep.ok; ++k) {
     const std::size_t nk = lacuna::cell_count(c, k);
     const std::size_t a = rho[static_cast<std::size_t>(k)], b = rho[static_cast<std::size_t>(k) + 1];
     const std::size_t r = cert.groups[static_cast<std::size_t>(k)].rank;
     if (a + b > nk || nk - a - b != r) {
-      fail(k, -1, "H_" + std::to_string(k) + ": the rank witnesses bound the free rank by " +
+      fail(k, -1, nm.group(k) + ": the rank witnesses bound the free rank by " +
                       (a + b > nk ? std::string("(inconsistent: more pivots than cells)") : std::to_string(nk - a - b)) +
                       ", the certificate claims " + std::to_string(r));
       break;
@@ -716,7 +774,7 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
     for (int k = 0; k < top && rep.ok; ++k) {
       const std::size_t rank = rho[static_cast<std::size_t>(k) + 1];
       const auto& g = cert.groups[static_cast<std::size_t>(k)];
-      const std::string H = "H_" + std::to_string(k) + ": ";
+      const std::string H = nm.group(k) + ": ";
       R P = one<R>();
       for (const auto& d : g.torsion) P = P * d;
       if constexpr (!std::same_as<R, integer>) {
@@ -725,11 +783,11 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
       } else {
         P = detail::cert::magnitude(P);
         if (rank == 0) {  // ∂_{k+1} = 0: no torsion (the checks above already refuse a claimed factor)
-          if (!(P == one<R>())) fail(k, -1, H + "∂_" + std::to_string(k + 1) + " is zero, so H_" + std::to_string(k) + " has no torsion");
+          if (!(P == one<R>())) fail(k, -1, H + nm.map(k + 1) + " is zero, so " + nm.group(k) + " has no torsion");
           continue;
         }
         const auto& w = cert.torsion[static_cast<std::size_t>(k)];
-        const std::string D = H + "the torsion witness (minors of ∂_" + std::to_string(k + 1) + ")";
+        const std::string D = H + "the torsion witness (minors of " + nm.map(k + 1) + ")";
         const std::size_t u = w.pivot_rows.size();
         if (w.minors.empty() || u > rank) {
           fail(k, -1, D + (w.minors.empty() ? ": no minor is given" : ": more pivots than the rank " + std::to_string(rank)));
@@ -747,7 +805,7 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
             if (column_at.try_emplace(x, columns.size()).second) columns.push_back(x);
         }
         if (!sizes) {
-          fail(k, -1, D + ": a minor is not of size ρ = " + std::to_string(rank) + " = rank ∂_" + std::to_string(k + 1) +
+          fail(k, -1, D + ": a minor is not of size ρ = " + std::to_string(rank) + " = rank " + nm.map(k + 1) +
                           " (" + std::to_string(u) + " pivots and a block of " + std::to_string(rank - u) + ")");
           break;
         }
@@ -783,6 +841,436 @@ certificate_report check_certificate(const C& c, const homology_certificate<R>& 
     }
   }
   return rep;
+}
+
+}  // namespace detail::cert
+
+namespace detail::cert {
+
+/// A chain complex held as lists of boundaries: the derived complexes (augmented, quotient,
+/// dual) that reduced, relative and cohomology certificates are checked on. Inc is
+/// lacuna::incidence, or exact_incidence when the original's incidence numbers may pass 64 bits.
+template <class Inc>
+struct derived_complex {
+  int top = -1;
+  /// start[k][i] .. start[k][i + 1]: the boundary of k-cell i in terms[k].
+  std::vector<std::vector<std::size_t>> start;
+  std::vector<std::vector<Inc>> terms;
+  int top_dimension() const noexcept { return top; }
+  std::size_t cell_count(int k) const noexcept {
+    return k < 0 || k > top ? 0 : start[static_cast<std::size_t>(k)].size() - 1;
+  }
+  std::span<const Inc> boundary(int k, std::size_t i) const {
+    if (k <= 0 || k > top) return {};
+    const auto& s = start[static_cast<std::size_t>(k)];
+    return std::span<const Inc>(terms[static_cast<std::size_t>(k)]).subspan(s[i], s[i + 1] - s[i]);
+  }
+};
+
+template <cell_complex C>
+using original_incidence =
+    std::remove_cvref_t<std::ranges::range_value_t<decltype(lacuna::boundary(std::declval<const C&>(), 1, std::size_t{0}))>>;
+template <cell_complex C>
+using derived_incidence = std::conditional_t<small_incidence_like<original_incidence<C>>, incidence, exact_incidence>;
+
+template <class Inc, class V>
+Inc derived_term(std::size_t face, const V& v) {
+  if constexpr (std::same_as<Inc, incidence>)
+    return {face, as_incidence(v).coefficient};
+  else
+    return {face, coefficient_as_integer(v)};
+}
+
+/// The derived complex of a kind of result and the correspondence of its cells with X's: view
+/// degree j is the degree degree(j) of the result (reduced: j − 1, cohomology: top − j, else
+/// j), its cells are X's cells of that dimension (reduced degree −1: the augmentation cell;
+/// relative: the cells not in A, in increasing order).
+template <cell_complex C>
+struct view {
+  derived_complex<derived_incidence<C>> cx;
+  certificate_kind kind = certificate_kind::absolute;
+  int top = -1;  ///< X's top dimension
+  static constexpr std::size_t npos = ~std::size_t{0};
+  std::vector<std::vector<std::size_t>> to_view, to_original;  ///< relative only
+  /// The degree of the result (and the index of the certificate's ranks and torsion) of view degree j.
+  int degree(int j) const {
+    return kind == certificate_kind::reduced ? j - 1 : kind == certificate_kind::cohomology ? top - j : j;
+  }
+  /// The view degree of degree k of the result (the inverse of degree).
+  int view_degree(int k) const { return kind == certificate_kind::reduced ? k + 1 : kind == certificate_kind::cohomology ? top - k : k; }
+  /// X's index of view cell i of view degree j (npos: out of range or in A).
+  std::size_t original(int j, std::size_t i) const {
+    if (kind != certificate_kind::relative) return i;
+    const auto& m = to_original[static_cast<std::size_t>(j)];
+    return i < m.size() ? m[i] : npos;
+  }
+  /// The view index of X's cell i of view degree j (npos: out of range or in A).
+  std::size_t inside(int j, std::size_t i) const {
+    if (kind != certificate_kind::relative) return i < cx.cell_count(j) ? i : npos;
+    const auto& m = to_view[static_cast<std::size_t>(j)];
+    return i < m.size() ? m[i] : npos;
+  }
+  /// How the checker names groups, cells and maps, in the terms of the result.
+  naming names() const {
+    naming nm;
+    const certificate_kind kd = kind;
+    const int t = top;
+    const view* self = this;
+    nm.degree = [self](int j) { return self->degree(j); };
+    nm.map_degree = nm.degree;
+    switch (kd) {
+      case certificate_kind::reduced:
+        nm.cycle = "a reduced cycle";
+        nm.group = [](int j) { return "H̃_" + std::to_string(j - 1); };
+        nm.cell = [](int j, std::size_t i) { return j == 0 ? std::string("the augmentation cell") : std::to_string(j - 1) + "-cell " + std::to_string(i); };
+        nm.map = [](int j) { return j == 1 ? std::string("ε (the augmentation)") : "∂_" + std::to_string(j - 1); };
+        break;
+      case certificate_kind::relative:
+        nm.cycle = "a relative cycle (its boundary lies in A)";
+        nm.boundary = "boundary off A";
+        nm.group = [](int j) { return "H_" + std::to_string(j) + "(X, A)"; };
+        nm.cell = [self](int j, std::size_t i) { return std::to_string(j) + "-cell " + std::to_string(self->original(j, i)); };
+        nm.map = [](int j) { return "∂_" + std::to_string(j) + " of C(X)/C(A)"; };
+        break;
+      case certificate_kind::cohomology:
+        nm.cycle = "a cocycle", nm.boundary = "coboundary", nm.cocycle = "a cycle (modulo its order, for torsion)",
+        nm.coboundary = "boundary";
+        nm.group = [t](int j) { return "H^" + std::to_string(t - j); };
+        nm.cell = [t](int j, std::size_t i) { return std::to_string(t - j) + "-cell " + std::to_string(i); };
+        nm.map = [t](int j) { return "δ_" + std::to_string(t - j); };
+        break;
+      default: break;
+    }
+    return nm;
+  }
+};
+
+/// Builds the derived complex of `kind` (not absolute). Relative: `marks` (marks[k][i] for
+/// X's i-th k-cell) must have X's shape and be closed under faces (every face with a non-zero
+/// incidence number of a marked cell is marked) — checked here, as the quotient C(X)/C(A) is a
+/// chain complex only then. Returns false with the reason otherwise.
+template <cell_complex C>
+bool build_view(const C& c, certificate_kind kind, const std::vector<std::vector<bool>>* marks, view<C>& v, std::string& why) {
+  using Inc = derived_incidence<C>;
+  v.kind = kind;
+  v.top = lacuna::top_dimension(c);
+  const int top = v.top;
+  auto& x = v.cx;
+  auto n = [&](int k) { return lacuna::cell_count(c, k); };
+  auto nonzero = [](const auto& t) { return !(coefficient_as_integer(t) == integer(0)); };
+  if (kind == certificate_kind::reduced) {
+    if (top < 0) {
+      why = "reduced homology of the empty complex is not certified";
+      return false;
+    }
+    x.top = top + 1;
+    x.start.assign(static_cast<std::size_t>(top) + 2, {});
+    x.terms.assign(static_cast<std::size_t>(top) + 2, {});
+    x.start[0] = {0, 1};
+    for (int k = 0; k <= top; ++k) {
+      auto& s = x.start[static_cast<std::size_t>(k) + 1];
+      auto& tm = x.terms[static_cast<std::size_t>(k) + 1];
+      s.push_back(0);
+      for (std::size_t i = 0; i < n(k); ++i) {
+        if (k == 0)
+          tm.push_back(derived_term<Inc>(0, incidence{0, 1}));
+        else
+          for (auto&& t : lacuna::boundary(c, k, i)) tm.push_back(derived_term<Inc>(incidence_face(t), t));
+        s.push_back(tm.size());
+      }
+    }
+    return true;
+  }
+  x.top = top;
+  x.start.assign(static_cast<std::size_t>(top + 1), {});
+  x.terms.assign(static_cast<std::size_t>(top + 1), {});
+  if (kind == certificate_kind::relative) {
+    const auto& a = *marks;
+    if (static_cast<int>(a.size()) != top + 1) {
+      why = "the subcomplex's marks have " + std::to_string(a.size()) + " dimensions, the complex " + std::to_string(top + 1);
+      return false;
+    }
+    v.to_view.assign(static_cast<std::size_t>(top + 1), {});
+    v.to_original.assign(static_cast<std::size_t>(top + 1), {});
+    for (int k = 0; k <= top; ++k) {
+      const auto& ak = a[static_cast<std::size_t>(k)];
+      if (ak.size() != n(k)) {
+        why = "the subcomplex's marks name " + std::to_string(ak.size()) + " " + std::to_string(k) + "-cells, the complex has " +
+              std::to_string(n(k));
+        return false;
+      }
+      auto& tv = v.to_view[static_cast<std::size_t>(k)];
+      auto& to = v.to_original[static_cast<std::size_t>(k)];
+      tv.assign(n(k), view<C>::npos);
+      for (std::size_t i = 0; i < n(k); ++i)
+        if (!ak[i]) tv[i] = to.size(), to.push_back(i);
+    }
+    for (int k = 0; k <= top; ++k) {
+      auto& s = x.start[static_cast<std::size_t>(k)];
+      auto& tm = x.terms[static_cast<std::size_t>(k)];
+      s.push_back(0);
+      for (std::size_t i = 0; i < n(k); ++i) {
+        const bool in_a = a[static_cast<std::size_t>(k)][i];
+        if (k > 0)
+          for (auto&& t : lacuna::boundary(c, k, i)) {
+            const std::size_t f = incidence_face(t);
+            const bool face_in_a = f < n(k - 1) && a[static_cast<std::size_t>(k) - 1][f];
+            if (in_a && !face_in_a && nonzero(t)) {
+              why = "the subcomplex is not closed under faces: " + std::to_string(k) + "-cell " + std::to_string(i) +
+                    " is in it, its face " + std::to_string(k - 1) + "-cell " + std::to_string(f) + " is not";
+              return false;
+            }
+            if (!in_a && !face_in_a) tm.push_back(derived_term<Inc>(f < n(k - 1) ? v.to_view[static_cast<std::size_t>(k) - 1][f] : f, t));
+          }
+        if (!in_a) s.push_back(tm.size());
+      }
+    }
+    return true;
+  }
+  // cohomology: view degree j holds X's (top − j)-cells; the boundary of one is its coboundary.
+  for (int j = 0; j <= top; ++j) {
+    const int k = top - j;
+    auto& s = x.start[static_cast<std::size_t>(j)];
+    auto& tm = x.terms[static_cast<std::size_t>(j)];
+    s.assign(n(k) + 1, 0);
+    if (j == 0) continue;
+    for (std::size_t q = 0; q < n(k + 1); ++q)
+      for (auto&& t : lacuna::boundary(c, k + 1, q))
+        if (incidence_face(t) < n(k)) ++s[incidence_face(t) + 1];
+    for (std::size_t i = 0; i < n(k); ++i) s[i + 1] += s[i];
+    tm.assign(s[n(k)], derived_term<Inc>(0, incidence{0, 0}));
+    std::vector<std::size_t> fill(s.begin(), s.end() - 1);
+    for (std::size_t q = 0; q < n(k + 1); ++q)
+      for (auto&& t : lacuna::boundary(c, k + 1, q))
+        if (incidence_face(t) < n(k)) tm[fill[incidence_face(t)]++] = derived_term<Inc>(q, t);
+  }
+  return true;
+}
+
+/// A chain of the result's degree `k` (X's cells) as a chain of view degree j; relative:
+/// terms on cells of A dropped (they are zero in the quotient). False with the reason when a
+/// term is out of range or the dimension is not k.
+template <cell_complex C, class R>
+bool chain_into(const view<C>& v, const chain<R>& ch, int k, int j, chain<R>& out, std::string& why) {
+  out = {j, {}};
+  if (ch.dimension != k) {
+    why = "has dimension " + std::to_string(ch.dimension) + ", not " + std::to_string(k);
+    return false;
+  }
+  for (const auto& t : ch.terms) {
+    const std::size_t i = v.inside(j, t.cell);
+    if (i == view<C>::npos) {
+      if (v.kind == certificate_kind::relative && j >= 0 && j <= v.top &&
+          t.cell < v.to_view[static_cast<std::size_t>(j)].size())
+        continue;  // a cell of A
+      why = "names " + std::to_string(k) + "-cell " + std::to_string(t.cell) + ", out of range";
+      return false;
+    }
+    out.terms.push_back({i, t.coefficient});
+  }
+  return true;
+}
+
+/// Cells of X (view degree j) as view cells; false if one is out of range or in A.
+template <cell_complex C>
+bool cells_into(const view<C>& v, const std::vector<std::size_t>& in, int j, std::vector<std::size_t>& out, std::string& why) {
+  out.clear();
+  for (std::size_t i : in) {
+    const std::size_t x = v.inside(j, i);
+    if (x == view<C>::npos) {
+      why = std::to_string(v.degree(j)) + "-cell " + std::to_string(i) +
+            (v.kind == certificate_kind::relative ? " is out of range or in the subcomplex" : " is out of range");
+      return false;
+    }
+    out.push_back(x);
+  }
+  return true;
+}
+
+/// The certificate of a reduced, relative or cohomology result (layout of
+/// homology_certificate) as a certificate of absolute homology of the view. False with the
+/// reason (and the degree) on a layout that does not fit.
+template <cell_complex C, class R>
+bool certificate_into(const view<C>& v, const homology_certificate<R>& in, homology_certificate<R>& out, std::string& why, int& at) {
+  const int top = v.top, T = v.cx.top;
+  at = -1;
+  if (static_cast<int>(in.groups.size()) != top + 1 || static_cast<int>(in.ranks.size()) != top + 1 ||
+      (!in.torsion.empty() && static_cast<int>(in.torsion.size()) != top + 1)) {
+    why = "the certificate has " + std::to_string(in.groups.size()) + " groups, " + std::to_string(in.ranks.size()) +
+          " rank witnesses and " + std::to_string(in.torsion.size()) + " torsion witnesses; the complex has dimension " +
+          std::to_string(top);
+    return false;
+  }
+  const naming nm = v.names();
+  out = {};
+  out.groups.resize(static_cast<std::size_t>(T + 1));
+  out.ranks.resize(static_cast<std::size_t>(T + 1));
+  for (int j = 0; j <= T; ++j) {
+    auto& g = out.groups[static_cast<std::size_t>(j)];
+    g.dimension = j;
+    const int k = v.degree(j);
+    if (k < 0 || k > top) continue;  // H̃_{−1}: zero, proved by the witnesses of ε
+    const auto& s = in.groups[static_cast<std::size_t>(k)];
+    at = k;
+    if (s.dimension != k) {
+      why = nm.group(j) + ": the group is labelled dimension " + std::to_string(s.dimension);
+      return false;
+    }
+    g.rank = s.rank;
+    g.torsion = s.torsion;
+    auto all = [&](const std::vector<chain<R>>& from, std::vector<chain<R>>& to, int kk, int jj, const char* what) {
+      to.resize(from.size());
+      for (std::size_t i = 0; i < from.size(); ++i)
+        if (!chain_into(v, from[i], kk, jj, to[i], why)) {
+          why = nm.group(j) + ": " + what + " " + std::to_string(i) + " " + why;
+          return false;
+        }
+      return true;
+    };
+    if (!all(s.generators, g.generators, k, j, "generator") || !all(s.cocycles, g.cocycles, k, j, "dual witness (cocycles)") ||
+        !all(s.bounding_chains, g.bounding_chains, v.degree(j + 1), j + 1, "bounding chain"))
+      return false;
+  }
+  for (int j = 1; j <= T; ++j) {
+    const int k = v.degree(j);
+    at = k;
+    const auto& s = in.ranks[static_cast<std::size_t>(k)];
+    auto& w = out.ranks[static_cast<std::size_t>(j)];
+    w.prime = s.prime;
+    if (!cells_into(v, s.rows, j - 1, w.rows, why) || !cells_into(v, s.columns, j, w.columns, why)) {
+      why = "the rank witness of " + nm.map(j) + ": " + why;
+      return false;
+    }
+  }
+  if (in.torsion.empty()) return true;
+  out.torsion.resize(static_cast<std::size_t>(T + 1));
+  for (int j = 0; j <= T; ++j) {
+    const int k = v.degree(j);
+    auto& w = out.torsion[static_cast<std::size_t>(j)];
+    if (k < 0) {  // H̃_{−1}: the 1×1 minor of ε that its rank witness names (ε = ±1 there)
+      w.pivot_rows = out.ranks[1].rows;
+      w.pivot_columns = out.ranks[1].columns;
+      w.minors.assign(1, {});
+      continue;
+    }
+    if (j == T) continue;  // the top view degree: ∂'_{T+1} = 0
+    at = k;
+    const auto& s = in.torsion[static_cast<std::size_t>(k)];
+    auto bad = [&] {
+      why = nm.group(j) + ": the torsion witness (minors of " + nm.map(j + 1) + "): " + why;
+      return false;
+    };
+    if (!cells_into(v, s.pivot_rows, j, w.pivot_rows, why) || !cells_into(v, s.pivot_columns, j + 1, w.pivot_columns, why)) return bad();
+    w.minors.resize(s.minors.size());
+    for (std::size_t i = 0; i < s.minors.size(); ++i)
+      if (!cells_into(v, s.minors[i].rows, j, w.minors[i].rows, why) ||
+          !cells_into(v, s.minors[i].columns, j + 1, w.minors[i].columns, why))
+        return bad();
+  }
+  return true;
+}
+
+/// The inverse of certificate_into: a certificate of the view's absolute homology in the
+/// layout of its kind, with X's cells.
+template <cell_complex C, class R>
+homology_certificate<R> certificate_from(const view<C>& v, const homology_certificate<R>& in) {
+  const int top = v.top;
+  homology_certificate<R> out;
+  out.kind = v.kind;
+  auto cells = [&](const std::vector<std::size_t>& from, int j) {
+    std::vector<std::size_t> to;
+    for (std::size_t i : from) to.push_back(v.original(j, i));
+    return to;
+  };
+  auto back = [&](const chain<R>& ch) {
+    chain<R> out_chain{v.degree(ch.dimension), {}};
+    for (const auto& t : ch.terms) out_chain.terms.push_back({v.original(ch.dimension, t.cell), t.coefficient});
+    return out_chain;
+  };
+  for (int k = 0; k <= top; ++k) {
+    const auto& g = in.groups[static_cast<std::size_t>(v.view_degree(k))];
+    certified_group<R> cg;
+    cg.dimension = k;
+    cg.rank = g.rank;
+    cg.torsion = g.torsion;
+    for (const auto& z : g.generators) cg.generators.push_back(back(z));
+    for (const auto& z : g.cocycles) cg.cocycles.push_back(back(z));
+    for (const auto& z : g.bounding_chains) cg.bounding_chains.push_back(back(z));
+    out.groups.push_back(std::move(cg));
+  }
+  out.ranks.resize(static_cast<std::size_t>(top + 1));
+  for (int j = 1; j <= v.cx.top; ++j) {
+    const auto& w = in.ranks[static_cast<std::size_t>(j)];
+    auto& o = out.ranks[static_cast<std::size_t>(v.degree(j))];
+    o.prime = w.prime;
+    o.rows = cells(w.rows, j - 1);
+    o.columns = cells(w.columns, j);
+  }
+  if (!in.torsion.empty()) {
+    out.torsion.resize(static_cast<std::size_t>(top + 1));
+    for (int j = 0; j < v.cx.top; ++j) {
+      const int k = v.degree(j);
+      if (k < 0) continue;
+      const auto& w = in.torsion[static_cast<std::size_t>(j)];
+      auto& o = out.torsion[static_cast<std::size_t>(k)];
+      o.pivot_rows = cells(w.pivot_rows, j);
+      o.pivot_columns = cells(w.pivot_columns, j + 1);
+      for (const auto& b : w.minors) o.minors.push_back({cells(b.rows, j), cells(b.columns, j + 1)});
+    }
+  }
+  return out;
+}
+
+/// check_certificate of any kind: absolute on c itself, the others on their derived complex.
+template <euclidean_domain R, cell_complex C>
+certificate_report check_kind(const C& c, const homology_certificate<R>& cert, const std::vector<std::vector<bool>>* marks) {
+  if (cert.kind == certificate_kind::absolute) return check_absolute(c, cert, naming{});
+  certificate_report rep;
+  auto refuse = [&](int k, std::string what) {
+    rep.ok = false;
+    rep.dimension = k;
+    rep.first_failure = std::move(what);
+    return rep;
+  };
+  if (cert.kind == certificate_kind::relative && !marks)
+    return refuse(-1, "a certificate of relative homology is checked against the subcomplex A, and none is given");
+  view<C> v;
+  std::string why;
+  if (!build_view(c, cert.kind, marks, v, why)) return refuse(-1, why);
+  homology_certificate<R> inside;
+  int at = -1;
+  if (!certificate_into(v, cert, inside, why, at)) return refuse(at, why);
+  const naming nm = v.names();
+  return check_absolute(v.cx, inside, nm);
+}
+
+}  // namespace detail::cert
+
+/// Checks a certificate against the complex c it claims to describe (see the top of this
+/// header and docs/certificates.md for what a passing check proves). R models
+/// euclidean_domain (lacuna::integer, or a field); C models cell_complex. Never throws on a
+/// wrong certificate: the report names the first failure, its degree and generator.
+/// Reduced and cohomology certificates (cert.kind) are checked on the augmented and the dual
+/// complex; a relative one needs the subcomplex (the overload below) and fails without it.
+/// Complexity: a pass over the faces of faces of every cell (∂∂ = 0), linear in the size of
+/// the cells the witnesses meet, one pass over the (k+1)-cells per degree, and the
+/// eliminations mod p of the rank witnesses (plus, for the other kinds, one copy of the
+/// complex: the augmented, quotient or transposed boundaries).
+template <euclidean_domain R, cell_complex C>
+certificate_report check_certificate(const C& c, const homology_certificate<R>& cert) {
+  return detail::cert::check_kind(c, cert, nullptr);
+}
+
+/// Checks a certificate of the relative homology H_k(X, A) (cert.kind ==
+/// certificate_kind::relative), A the subcomplex of the cells marked in `subcomplex`
+/// (subcomplex[k][i] for the i-th k-cell, as relative_homology takes it). The check first
+/// verifies that the marks have c's shape and are closed under faces, then checks the
+/// witnesses on the quotient C(X)/C(A). A certificate of another kind is checked as by the
+/// overload above, with the marks ignored.
+template <euclidean_domain R, cell_complex C>
+certificate_report check_certificate(const C& c, const homology_certificate<R>& cert,
+                                     const std::vector<std::vector<bool>>& subcomplex) {
+  return detail::cert::check_kind(c, cert, &subcomplex);
 }
 
 }  // namespace lacuna

@@ -320,20 +320,10 @@ torsion_witness torsion_witness_of(const C& c, int k, const homology_basis<R>& b
   return w;
 }
 
-}  // namespace detail::certify
-
-/// The homology of c over R with generators, and a certificate of it: for every group, its
-/// generators, a cocycle per generator (identity pairing), a bounding chain per torsion
-/// generator, rank witnesses of the boundary maps and, over the integers, torsion witnesses
-/// (homology/certificate.hpp). R models certifiable_ring; C models cell_complex. options: as
-/// for homology(); generators, a kept basis and witnesses are switched on; reduced homology is
-/// refused (std::invalid_argument). Throws std::runtime_error if no torsion witness is found
-/// within its bound of tries (never returns a certificate that does not check).
-/// The result is what homology() with those options returns (the elimination route, without
-/// a Morse pre-reduction). check_certificate(c, r.certificate) verifies the certificate.
+/// certified_homology of absolute homology (below): the engine's elimination route, each
+/// witness obtained as the top of this header says.
 template <certifiable_ring R, cell_complex C>
-certified_homology_result<R> certified_homology(const C& c, homology_options options = {}) {
-  if (options.reduced) throw std::invalid_argument("lacuna::certified_homology: reduced homology is not certified");
+certified_homology_result<R> certified_absolute(const C& c, homology_options options) {
   options.generators = true;
   options.keep_basis = true;
   options.witnesses = true;
@@ -442,6 +432,90 @@ certified_homology_result<R> certified_homology(const C& c, homology_options opt
     }
   }
   return out;
+}
+
+/// A certificate of a reduced, relative or cohomology result: certified_absolute on the
+/// derived complex (homology/certificate.hpp, detail::cert::build_view: the augmented complex,
+/// the quotient C(X)/C(A), the dual complex whose boundaries are X's coboundaries), its
+/// witnesses read back in X's cells and in the layout of the kind. The result is the engine's
+/// own result of that kind (homology with options.reduced, relative_homology, cohomology, with
+/// generators); its groups must be the certified ones (std::logic_error otherwise: an engine
+/// fault, never a wrong certificate). Cost: certified_absolute on a copy of the complex (the
+/// coboundaries transposed, for cohomology), plus the engine's result.
+template <certifiable_ring R, cell_complex C>
+certified_homology_result<R> certified_kind(const C& c, certificate_kind kind, const std::vector<std::vector<bool>>* marks,
+                                            homology_options options) {
+  cert::view<C> v;
+  std::string why;
+  if (!cert::build_view(c, kind, marks, v, why)) throw std::invalid_argument("lacuna::certified_homology: " + why);
+  homology_options inner = options;
+  inner.reduced = false;
+  auto on_view = certified_absolute<R>(v.cx, inner);
+  certified_homology_result<R> out;
+  out.certificate = cert::certificate_from(v, on_view.certificate);
+  options.generators = true;
+  options.witnesses = false;  // the witnesses are the certificate's, from the derived complex
+  if (kind == certificate_kind::reduced) {
+    options.reduced = true;
+    out.result = homology<R>(c, options, sparse_elimination{});
+  } else if (kind == certificate_kind::relative) {
+    options.reduced = false;
+    out.result = relative_homology<R>(c, *marks, options, sparse_elimination{});
+  } else {
+    options.reduced = false;
+    out.result = cohomology<R>(c, options, sparse_elimination{});
+  }
+  const auto& groups = out.certificate.groups;
+  bool same = out.result.top_dimension() + 1 == static_cast<int>(groups.size());
+  for (std::size_t k = 0; same && k < groups.size(); ++k) {
+    const auto& a = out.result.groups[k];
+    same = a.rank == groups[k].rank && a.torsion.size() == groups[k].torsion.size();
+    for (std::size_t i = 0; same && i < a.torsion.size(); ++i) same = normalize(a.torsion[i]) == normalize(groups[k].torsion[i]);
+  }
+  if (!same)
+    throw std::logic_error(std::string("lacuna::certified_homology: the engine's ") + certificate_kind_name(kind) +
+                           " result differs from the groups certified on the derived complex");
+  return out;
+}
+
+}  // namespace detail::certify
+
+/// The homology of c over R with generators, and a certificate of it: for every group, its
+/// generators, a cocycle per generator (identity pairing), a bounding chain per torsion
+/// generator, rank witnesses of the boundary maps and, over the integers, torsion witnesses
+/// (homology/certificate.hpp). R models certifiable_ring; C models cell_complex. options: as
+/// for homology(); generators, a kept basis and witnesses are switched on. options.reduced:
+/// reduced homology, certified on the augmented complex (certificate_kind::reduced;
+/// std::invalid_argument for the empty complex). Throws std::runtime_error if no torsion
+/// witness is found within its bound of tries (never returns a certificate that does not
+/// check). The result is what homology() with those options returns (the elimination route,
+/// without a Morse pre-reduction). check_certificate(c, r.certificate) verifies the certificate.
+template <certifiable_ring R, cell_complex C>
+certified_homology_result<R> certified_homology(const C& c, homology_options options = {}) {
+  if (options.reduced) return detail::certify::certified_kind<R>(c, certificate_kind::reduced, nullptr, options);
+  return detail::certify::certified_absolute<R>(c, options);
+}
+
+/// The relative homology H_k(c, A) over R with generators and a certificate
+/// (certificate_kind::relative), A the subcomplex of the cells marked in `in_subcomplex` (as
+/// relative_homology takes it). The marks must have c's shape and be closed under faces
+/// (std::invalid_argument otherwise). check_certificate(c, r.certificate, in_subcomplex)
+/// verifies the certificate.
+template <certifiable_ring R, cell_complex C>
+certified_homology_result<R> certified_relative_homology(const C& c, const std::vector<std::vector<bool>>& in_subcomplex,
+                                                         homology_options options = {}) {
+  if (options.reduced) throw std::invalid_argument("lacuna::certified_relative_homology: relative homology is not augmented");
+  return detail::certify::certified_kind<R>(c, certificate_kind::relative, &in_subcomplex, options);
+}
+
+/// The cohomology H^k(c) over R with cocycle generators and a certificate
+/// (certificate_kind::cohomology): the witnesses of the cochain complex, ∂ and δ exchanged
+/// (homology/certificate.hpp, homology_certificate). check_certificate(c, r.certificate)
+/// verifies it.
+template <certifiable_ring R, cell_complex C>
+certified_homology_result<R> certified_cohomology(const C& c, homology_options options = {}) {
+  if (options.reduced) throw std::invalid_argument("lacuna::certified_cohomology: reduced cohomology is not offered");
+  return detail::certify::certified_kind<R>(c, certificate_kind::cohomology, nullptr, options);
 }
 
 }  // namespace lacuna

@@ -71,13 +71,17 @@ homology_result<R> relative_homology(const C& c, const std::vector<std::vector<b
                                      homology_options options = {}, const Algorithm& algorithm = {},
                                      const R& ring_one = one<R>()) {
   if (options.reduced) throw std::invalid_argument("lacuna: relative homology is not augmented");
+  auto marked = [](homology_result<R> r) {
+    r.relative = true;
+    return r;
+  };
   if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
-    return detail::homology_by_coboundaries<R>(c, options, algorithm, &in_subcomplex, ring_one);
+    return marked(detail::homology_by_coboundaries<R>(c, options, algorithm, &in_subcomplex, ring_one));
   } else {
     if constexpr (std::same_as<Algorithm, sparse_elimination>)
       if (detail::coboundary_route_by_default<R, C>(options, algorithm))
-        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, &in_subcomplex, ring_one);
-    return detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, ring_one);
+        return marked(detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, &in_subcomplex, ring_one));
+    return marked(detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, ring_one));
   }
 }
 

@@ -109,6 +109,8 @@ class homology_result {
   bool cohomology = false;
   /// True for reduced homology (reduced cohomology is not offered).
   bool reduced = false;
+  /// True for the homology of a pair (relative_homology).
+  bool relative = false;
 
   /// The group of degree k; throws std::out_of_range outside 0..top_dimension().
   const homology_group<R>& operator[](int k) const { return groups.at(static_cast<std::size_t>(k)); }

@@ -1,8 +1,11 @@
 // lacuna/homology/verify.hpp — a check of the groups and generators of a homology or
 // cohomology result, independent of the engine's elimination data where a certificate exists.
 //
-// Homology over a certifiable_ring (Z, Q, Z/p with p < 2^32 fixed at compile time), not
-// reduced — the certified check (detail::verify_by_certificate):
+// Homology, reduced homology, the homology of a pair (the overload with the subcomplex's marks)
+// and cohomology over a certifiable_ring (Z, Q, Z/p with p < 2^32 fixed at compile time) — the
+// certified check (detail::verify_by_certificate; for the other kinds than homology, steps 3
+// and 4 run on the derived complex that the certificate is checked on: augmented, quotient
+// C(X)/C(A) or dual, homology/certificate.hpp, the result's generators read as its chains):
 //   1. a certificate of the complex (certified_homology, homology/certify.hpp) is checked by
 //      check_certificate (homology/certificate.hpp), which shares no code with the engine. A
 //      passing check proves H_k ≅ R^r ⊕ ⊕ R/d_i for every k and that the certificate's
@@ -26,7 +29,7 @@
 // Nothing of the verdict rests on the engine's coordinates: only on what check_certificate
 // proved and on the complex's own boundaries.
 //
-// Cohomology, reduced homology and other rings (no certificate yet) — the older check
+// Rings that are not a certifiable_ring (no certificate yet) — the older check
 // (detail::verify_by_coordinates), which is not a proof:
 //   1. counts: rank free generators (order 0) then one per torsion factor, in order;
 //   2. cycles: ∂z = 0 for a homology generator (and ε(z) = 0 in degree 0 of reduced
@@ -341,52 +344,25 @@ verification_report verify_by_coordinates(const C& c, const homology_result<R>& 
 
 namespace detail {
 
-/// The certified check of a homology result (the top of this header): a certificate of the
-/// complex, produced by certified_homology and checked by check_certificate, then the result's
-/// claims compared with what it proves and its generators read in its cocycles.
-template <certifiable_ring R, cell_complex C>
-verification_report verify_by_certificate(const C& c, const homology_result<R>& result, verify_options options) {
-  verification_report rep;
+/// Steps 2-4 of the certified check on a complex cx whose certificate `cert` check_certificate
+/// has passed: the claimed groups (by degree of cx, generators as chains of cx) against the
+/// proved ones; failures named by nm (the report's dimension in the result's degrees).
+template <class R, cell_complex CX>
+void compare_with_certificate(const CX& c, const homology_certificate<R>& cert, const std::vector<homology_group<R>>& claimed,
+                              const cert::naming& nm, const verify_options& options, verification_report& rep) {
   auto fail = [&](int k, std::ptrdiff_t j, std::string what) {
     if (rep.ok) {
       rep.first_failure = std::move(what);
-      rep.dimension = k;
+      rep.dimension = k < 0 ? -1 : nm.degree(k);
       rep.generator = j;
     }
     rep.ok = false;
   };
   const int top = lacuna::top_dimension(c);
-  if (result.top_dimension() != top) {
-    fail(-1, -1, "the result has groups up to " + std::to_string(result.top_dimension()) +
-                     ", the complex has dimension " + std::to_string(top));
-    return rep;
-  }
-  // 1. A certificate of the complex's homology, checked by the checker alone: nothing below
-  // rests on the engine's elimination data, only on what check_certificate proved.
-  certified_homology_result<R> cr;
-  try {
-    cr = certified_homology<R>(c, {.control = options.control});
-  } catch (const std::exception& e) {
-    fail(-1, -1, std::string("no certificate of the complex's homology could be produced, so nothing is proved: ") + e.what());
-    return rep;
-  }
-  const auto& cert = cr.certificate;
-  {
-    const auto crep = check_certificate(c, cert);
-    rep.checks += crep.checks;
-    if (!crep.ok) {
-      fail(crep.dimension, crep.generator,
-           "the certificate of the complex's homology does not check, so nothing is proved: " + crep.first_failure);
-      return rep;
-    }
-  }
-  // By the check, for every k: H_k ≅ R^r ⊕ ⊕ R/d_i (r, d_i those of the certificate), and the
-  // certificate's cochains φ_j induce an isomorphism Φ: H_k → R^r ⊕ ⊕ R/d_i
-  // (docs/certificates.md, "What a passing check proves": Φ∘ι = id with ι onto, K = 0).
   for (int k = 0; k <= top; ++k) {
-    const auto& g = result[k];
+    const auto& g = claimed[static_cast<std::size_t>(k)];
     const auto& cg = cert.groups[static_cast<std::size_t>(k)];
-    const std::string H = "H_" + std::to_string(k);
+    const std::string H = nm.group(k);
     const std::size_t r = cg.rank, m = cg.torsion.size(), N = r + m;
     // 2. The claimed group against the proved one: the rank, then factor by factor.
     if (g.rank != r) {
@@ -439,8 +415,8 @@ verification_report verify_by_certificate(const C& c, const homology_result<R>& 
       if (!rep.ok) break;
       for (const auto& [cell, v] : cert::boundary_of(c, z))
         if (!(v == zero<R>())) {
-          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not a cycle (its boundary is " + verify_text(v) +
-                                                      " on " + std::to_string(k - 1) + "-cell " + std::to_string(cell) + ")");
+          fail(k, static_cast<std::ptrdiff_t>(j), label(j) + ": the generator is not " + nm.cycle + " (its " + nm.boundary + " is " + verify_text(v) +
+                                                      " on " + nm.cell(k - 1, cell) + ")");
           break;
         }
       ++rep.checks;
@@ -511,7 +487,7 @@ verification_report verify_by_certificate(const C& c, const homology_result<R>& 
           if (j < r) gl = lacuna::gcd(gl, x);
         if (!verify_is_unit(gl)) {
           fail(k, static_cast<std::ptrdiff_t>(l), label(l) + ": the generator's class is " + verify_text(normalize(gl)) +
-                                                      " times a class, so the generators do not span H_" + std::to_string(k));
+                                                      " times a class, so the generators do not span " + H);
           break;
         }
       }
@@ -533,7 +509,7 @@ verification_report verify_by_certificate(const C& c, const homology_result<R>& 
         std::size_t other = 0;
         while (image[other] != at) ++other;
         fail(k, static_cast<std::ptrdiff_t>(l), label(l) + ": the generator's class is a unit times that of generator " +
-                                                    std::to_string(other) + ", so the generators do not span H_" + std::to_string(k));
+                                                    std::to_string(other) + ", so the generators do not span " + H);
         break;
       }
       if (at < 0) monomial = false;
@@ -562,13 +538,94 @@ verification_report verify_by_certificate(const C& c, const homology_result<R>& 
     std::vector<std::vector<R>> dense(N, std::vector<R>(N, zero<R>()));
     for (std::size_t l = 0; l < N; ++l)
       for (const auto& [j, x] : coordinates[l]) dense[l][j] = x;
-    homology_group<R> claimed;
-    claimed.rank = r;
-    claimed.torsion = cg.torsion;
-    claimed.orders = g.orders;
-    if (auto bad = verify_basis(dense, claimed)) fail(k, -1, H + ": in the certified basis, " + *bad);
+    homology_group<R> group;
+    group.rank = r;
+    group.torsion = cg.torsion;
+    group.orders = g.orders;
+    if (auto bad = verify_basis(dense, group)) fail(k, -1, H + ": in the certified basis, " + *bad);
     ++rep.checks;
   }
+}
+
+
+/// The certified check of a homology result (the top of this header): a certificate of the
+/// complex, produced by certified_homology and checked by check_certificate, then the result's
+/// claims compared with what it proves and its generators read in its cocycles.
+template <certifiable_ring R, cell_complex C>
+verification_report verify_by_certificate(const C& c, const homology_result<R>& result, verify_options options,
+                                          const std::vector<std::vector<bool>>* marks) {
+  verification_report rep;
+  auto fail = [&](int k, std::ptrdiff_t j, std::string what) {
+    if (rep.ok) {
+      rep.first_failure = std::move(what);
+      rep.dimension = k;
+      rep.generator = j;
+    }
+    rep.ok = false;
+  };
+  const int top = lacuna::top_dimension(c);
+  if (result.top_dimension() != top) {
+    fail(-1, -1, "the result has groups up to " + std::to_string(result.top_dimension()) +
+                     ", the complex has dimension " + std::to_string(top));
+    return rep;
+  }
+  // 1. A certificate of the complex's homology, checked by the checker alone: nothing below
+  // rests on the engine's elimination data, only on what check_certificate proved.
+  const certificate_kind kind = result.cohomology ? certificate_kind::cohomology
+                                : result.reduced  ? certificate_kind::reduced
+                                : result.relative ? certificate_kind::relative
+                                                  : certificate_kind::absolute;
+  certified_homology_result<R> cr;
+  try {
+    const homology_options o{.reduced = kind == certificate_kind::reduced, .control = options.control};
+    cr = kind == certificate_kind::relative     ? certified_relative_homology<R>(c, *marks, o)
+         : kind == certificate_kind::cohomology ? certified_cohomology<R>(c, o)
+                                                : certified_homology<R>(c, o);
+  } catch (const std::exception& e) {
+    fail(-1, -1, std::string("no certificate of the complex's homology could be produced, so nothing is proved: ") + e.what());
+    return rep;
+  }
+  const auto& cert = cr.certificate;
+  {
+    const auto crep = marks ? check_certificate(c, cert, *marks) : check_certificate(c, cert);
+    rep.checks += crep.checks;
+    if (!crep.ok) {
+      fail(crep.dimension, crep.generator,
+           "the certificate of the complex's homology does not check, so nothing is proved: " + crep.first_failure);
+      return rep;
+    }
+  }
+  // By the check, for every k: H_k ≅ R^r ⊕ ⊕ R/d_i (r, d_i those of the certificate), and the
+  // certificate's cochains φ_j induce an isomorphism Φ: H_k → R^r ⊕ ⊕ R/d_i
+  // (docs/certificates.md, "What a passing check proves": Φ∘ι = id with ι onto, K = 0).
+  if (kind == certificate_kind::absolute) {
+    compare_with_certificate(c, cert, result.groups, cert::naming{}, options, rep);
+    return rep;
+  }
+  // The other kinds: the certificate and the result's generators on the derived complex
+  // (augmented, quotient or dual) that check_certificate checked.
+  cert::view<C> v;
+  std::string why;
+  homology_certificate<R> inside;
+  int at = -1;
+  if (!cert::build_view(c, kind, marks, v, why) || !cert::certificate_into(v, cert, inside, why, at)) {
+    fail(at, -1, "the certificate cannot be read on the derived complex: " + why);
+    return rep;
+  }
+  const cert::naming nm = v.names();
+  std::vector<homology_group<R>> claimed(static_cast<std::size_t>(v.cx.top + 1));
+  for (int j = 0; j <= v.cx.top && rep.ok; ++j) {
+    const int k = v.degree(j);
+    if (k < 0 || k > top) continue;  // H̃_{−1}: claimed zero
+    auto& g = claimed[static_cast<std::size_t>(j)];
+    g = result[k];
+    for (std::size_t i = 0; i < g.generators.size(); ++i)
+      if (!cert::chain_into(v, result[k].generators[i], k, j, g.generators[i], why)) {
+        fail(k, static_cast<std::ptrdiff_t>(i), nm.group(j) + ": generator " + std::to_string(i) + " " + why);
+        return rep;
+      }
+  }
+  compare_with_certificate(v.cx, inside, claimed, nm, options, rep);
   return rep;
 }
 
@@ -578,22 +635,41 @@ verification_report verify_by_certificate(const C& c, const homology_result<R>& 
 /// homology_options{.generators = true}) as described at the top of this header. R models
 /// euclidean_domain; C models cell_complex and must be the complex the result was computed
 /// from. Throws std::invalid_argument if the result has no generators.
-/// Homology over a certifiable_ring (not reduced): the certified check — the verdict rests
+/// Over a certifiable_ring (homology, reduced homology, cohomology): the certified check — the verdict rests
 /// only on check_certificate and the complex's own boundaries; a wrong group, factor, order or
 /// generator is refused at any size, and the report names the group (`dimension`) and the
 /// generator or torsion factor (`generator`: torsion factor i is rank + i). Cost: that of
 /// certified_homology and check_certificate (docs/certificates.md, "Cost"), plus a pass over
 /// each generator's cells; a dense (generators × generators) test only for generators that are
 /// not a signed permutation of the certified ones, and up to dense_generator_limit.
-/// Cohomology, reduced homology and other rings: the older check through the result's own
-/// coordinates (not a proof; the top of this header).
+/// Other rings: the older check through the result's own coordinates (not a proof; the top of
+/// this header). A relative result (relative_homology) is refused (std::invalid_argument):
+/// it is checked by the overload below, with its subcomplex.
 template <euclidean_domain R, cell_complex C>
 verification_report verify_generators(const C& c, const homology_result<R>& result, verify_options options = {}) {
   if (!result.has_basis()) throw std::invalid_argument("verify_generators: the result was computed without generators");
-  if constexpr (certifiable_ring<R>) {
-    if (!result.cohomology && !result.reduced) return detail::verify_by_certificate(c, result, options);
-  }
+  if (result.relative)
+    throw std::invalid_argument("verify_generators: a relative result is checked against its subcomplex (the overload "
+                                "that takes the marks)");
+  if constexpr (certifiable_ring<R>) return detail::verify_by_certificate(c, result, options, nullptr);
   return detail::verify_by_coordinates(c, result, options);
+}
+
+/// Checks the generators of a relative result H_k(c, A) (relative_homology with generators),
+/// A the subcomplex of the cells marked in `in_subcomplex`, as the overload above: over a
+/// certifiable_ring through a certificate of the pair (certified_relative_homology,
+/// check_certificate with the marks: the marks are checked to be a subcomplex), the
+/// generators read as chains of C(c)/C(A) (their terms on A are zero there). Other rings:
+/// std::invalid_argument (no check of relative results without a certificate).
+template <euclidean_domain R, cell_complex C>
+verification_report verify_generators(const C& c, const std::vector<std::vector<bool>>& in_subcomplex,
+                                      const homology_result<R>& result, verify_options options = {}) {
+  if (!result.has_basis()) throw std::invalid_argument("verify_generators: the result was computed without generators");
+  if (!result.relative) throw std::invalid_argument("verify_generators: the result is not the homology of a pair");
+  if constexpr (certifiable_ring<R>)
+    return detail::verify_by_certificate(c, result, options, &in_subcomplex);
+  else
+    throw std::invalid_argument("verify_generators: relative results are checked over the integers, Q and Z/p only");
 }
 
 }  // namespace lacuna

@@ -2,6 +2,9 @@
 // files: write_certificate_json and read_certificate_json. The layout is documented in
 // docs/certificates.md ("The certificate file"); cells are named as the tool names them
 // (lacuna::cell_name), so the file can be read against the input file by any program.
+// Certificates of reduced homology, of a pair and of cohomology (certificate_kind) add the
+// optional keys "kind", "augmented" and "subcomplex"; the keys of the first layout keep their
+// meaning, read in the kind's own degrees (docs/certificates.md, "The certificate file").
 //
 // Over the integers coefficients are JSON integers of any size; over Z/2 they are 0 or 1.
 // The reader is a small JSON parser of its own (objects, arrays, strings, integers; no
@@ -213,13 +216,27 @@ class parser {
 
 /// Writes a certificate of c's homology over R (lacuna::integer or z2) as JSON, in the layout
 /// of docs/certificates.md. `coefficients` is the text written under "coefficients" (Z, Z/2).
+/// A certificate of another kind than absolute homology (cert.kind) adds the optional keys
+/// "kind", "augmented" (reduced: the cell of degree −1 is named "*") and "subcomplex"
+/// (relative: the name of the subcomplex's file, `subcomplex`, for the reader's information).
 template <class R, cell_complex C>
   requires(std::same_as<R, integer> || std::same_as<R, z2>)
 void write_certificate_json(std::ostream& os, const C& c, const homology_certificate<R>& cert,
-                            const std::string& coefficients) {
+                            const std::string& coefficients, const std::string& subcomplex = {}) {
   using namespace detail::cert_json;
+  const bool coh = cert.kind == certificate_kind::cohomology;
+  auto name = [&](int k, std::size_t i) { return k < 0 ? std::string("*") : lacuna::cell_name(c, k, i); };
   os << "{\n  \"certificate\": \"lacuna homology certificate 1\",\n  \"coefficients\": ";
   string_out(os, coefficients);
+  if (cert.kind != certificate_kind::absolute) {
+    os << ",\n  \"kind\": ";
+    string_out(os, certificate_kind_name(cert.kind));
+  }
+  if (cert.kind == certificate_kind::reduced) os << ",\n  \"augmented\": true";
+  if (cert.kind == certificate_kind::relative && !subcomplex.empty()) {
+    os << ",\n  \"subcomplex\": ";
+    string_out(os, subcomplex);
+  }
   os << ",\n  \"cells\": [";
   for (int k = 0; k <= lacuna::top_dimension(c); ++k) os << (k ? ", " : "") << lacuna::cell_count(c, k);
   os << "],\n  \"groups\": [";
@@ -244,15 +261,20 @@ void write_certificate_json(std::ostream& os, const C& c, const homology_certifi
   }
   os << (cert.groups.empty() ? "]" : "\n  ]") << ",\n  \"rank_witnesses\": [";
   bool first = true;
-  for (std::size_t k = 1; k < cert.ranks.size(); ++k) {
+  // The maps witnessed: ∂_k for k = 1..top (reduced: also ε = ∂_0, rows "*"); cohomology δ_k
+  // for k = 0..top−1, rows the (k+1)-cells.
+  const std::size_t from = cert.kind == certificate_kind::reduced || coh ? 0 : 1;
+  const std::size_t to = coh && !cert.ranks.empty() ? cert.ranks.size() - 1 : cert.ranks.size();
+  for (std::size_t k = from; k < to; ++k) {
     const auto& w = cert.ranks[k];
+    const int row_dim = coh ? static_cast<int>(k) + 1 : static_cast<int>(k) - 1;
     os << (first ? "\n" : ",\n") << "    {\"dimension\": " << k << ", \"prime\": " << w.prime << ", \"pivots\": [";
     first = false;
     for (std::size_t i = 0; i < w.rows.size(); ++i) {
       os << (i ? ", [" : "[");
-      string_out(os, lacuna::cell_name(c, static_cast<int>(k) - 1, w.rows[i]));
+      string_out(os, name(row_dim, w.rows[i]));
       os << ", ";
-      string_out(os, lacuna::cell_name(c, static_cast<int>(k), w.columns[i]));
+      string_out(os, name(static_cast<int>(k), w.columns[i]));
       os << ']';
     }
     os << "]}";
@@ -273,14 +295,14 @@ void write_certificate_json(std::ostream& os, const C& c, const homology_certifi
     for (std::size_t k = 0; k < cert.torsion.size(); ++k) {
       const auto& w = cert.torsion[k];
       if (w.minors.empty() && w.pivot_rows.empty()) continue;
-      const int kk = static_cast<int>(k);
-      os << (first ? "\n" : ",\n") << "    {\"dimension\": " << k + 1 << ", \"pivots\": [";
+      const int kk = static_cast<int>(k), col_dim = coh ? kk - 1 : kk + 1;  // the map ∂_{k+1}, or δ_{k−1}
+      os << (first ? "\n" : ",\n") << "    {\"dimension\": " << col_dim << ", \"pivots\": [";
       first = false;
       for (std::size_t i = 0; i < w.pivot_rows.size(); ++i) {
         os << (i ? ", [" : "[");
         string_out(os, lacuna::cell_name(c, kk, w.pivot_rows[i]));
         os << ", ";
-        string_out(os, lacuna::cell_name(c, kk + 1, w.pivot_columns[i]));
+        string_out(os, lacuna::cell_name(c, col_dim, w.pivot_columns[i]));
         os << ']';
       }
       os << "],\n     \"minors\": [";
@@ -288,7 +310,7 @@ void write_certificate_json(std::ostream& os, const C& c, const homology_certifi
         os << (i ? ", " : "") << "{\"rows\": ";
         cells(kk, w.minors[i].rows);
         os << ", \"columns\": ";
-        cells(kk + 1, w.minors[i].columns);
+        cells(col_dim, w.minors[i].columns);
         os << '}';
       }
       os << "]}";
@@ -302,10 +324,12 @@ void write_certificate_json(std::ostream& os, const C& c, const homology_certifi
 /// cells are looked up by name in c. Throws certificate_format_error naming `file` for text
 /// that is not such a certificate (malformed JSON, a key missing, a cell that c does not
 /// have, a coefficient that is not an integer). Whether the certificate is right is for
-/// check_certificate to say.
+/// check_certificate to say. The optional "kind" sets cert.kind; `subcomplex`, if given,
+/// receives the optional "subcomplex" (the file a relative certificate was written for).
 template <class R, cell_complex C>
   requires(std::same_as<R, integer> || std::same_as<R, z2>)
-homology_certificate<R> read_certificate_json(std::istream& in, const C& c, const std::string& file) {
+homology_certificate<R> read_certificate_json(std::istream& in, const C& c, const std::string& file,
+                                              std::string* subcomplex = nullptr) {
   using namespace detail::cert_json;
   std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
   parser p(std::move(text), file);
@@ -333,9 +357,23 @@ homology_certificate<R> read_certificate_json(std::istream& in, const C& c, cons
       throw bad("expected a count, got \"" + v.text + "\"");
     return static_cast<std::size_t>(std::stoull(v.text));
   };
+  homology_certificate<R> cert;
+  if (const value* kv = root.find("kind")) {
+    if (kv->kind != value::string) throw bad("expected \"kind\" of the right kind");
+    bool known = false;
+    for (auto k : {certificate_kind::absolute, certificate_kind::reduced, certificate_kind::relative, certificate_kind::cohomology})
+      if (kv->text == certificate_kind_name(k)) cert.kind = k, known = true;
+    if (!known) throw bad("an unknown kind of certificate \"" + kv->text + "\"");
+  }
+  if (const value* sv = root.find("subcomplex"); sv && subcomplex) {
+    if (sv->kind != value::string) throw bad("expected \"subcomplex\" of the right kind");
+    *subcomplex = sv->text;
+  }
+  const bool coh = cert.kind == certificate_kind::cohomology, red = cert.kind == certificate_kind::reduced;
   const int top = lacuna::top_dimension(c);
   std::vector<std::unordered_map<std::string, std::size_t>> index(static_cast<std::size_t>(top + 1));
   auto cell = [&](int k, const value& name) -> std::size_t {
+    if (k == -1 && red && name.kind == value::string && name.text == "*") return 0;  // the augmentation cell
     if (k < 0 || k > top) throw bad("a chain of dimension " + std::to_string(k) + ", the complex has dimension " + std::to_string(top));
     auto& m = index[static_cast<std::size_t>(k)];
     if (m.empty())
@@ -357,7 +395,6 @@ homology_certificate<R> read_certificate_json(std::istream& in, const C& c, cons
     if (ch.terms.size() != before) throw bad("a chain names a cell twice, or has a zero coefficient");
     return ch;
   };
-  homology_certificate<R> cert;
   for (const auto& gv : need(root, "groups", value::array).items) {
     if (gv.kind != value::object) throw bad("expected a group object");
     certified_group<R> g;
@@ -372,11 +409,11 @@ homology_certificate<R> read_certificate_json(std::istream& in, const C& c, cons
       const R order = number(need(z, "order", value::number));
       const R expect = j < g.rank ? zero<R>() : (j - g.rank < g.torsion.size() ? g.torsion[j - g.rank] : zero<R>());
       if (!(order == expect))
-        throw bad("H_" + std::to_string(g.dimension) + " generator " + std::to_string(j) + " has order " +
+        throw bad((coh ? "H^" : "H_") + std::to_string(g.dimension) + " generator " + std::to_string(j) + " has order " +
                   coefficient_text(order) + ", the rank and torsion list give " + coefficient_text(expect));
       g.generators.push_back(chain_in(need(z, "chain", value::array), g.dimension));
       g.cocycles.push_back(chain_in(need(z, "cocycle", value::array), g.dimension));
-      if (const value* w = z.find("bounding_chain")) g.bounding_chains.push_back(chain_in(*w, g.dimension + 1));
+      if (const value* w = z.find("bounding_chain")) g.bounding_chains.push_back(chain_in(*w, coh ? g.dimension - 1 : g.dimension + 1));
     }
     cert.groups.push_back(std::move(g));
   }
@@ -384,12 +421,13 @@ homology_certificate<R> read_certificate_json(std::istream& in, const C& c, cons
   for (const auto& wv : need(root, "rank_witnesses", value::array).items) {
     if (wv.kind != value::object) throw bad("expected a rank witness object");
     const std::size_t k = count(need(wv, "dimension", value::number));
-    if (k < 1 || k > static_cast<std::size_t>(top)) throw bad("a rank witness of dimension " + std::to_string(k));
+    const std::size_t lo = red || coh ? 0 : 1, hi = coh ? static_cast<std::size_t>(top) - 1 : static_cast<std::size_t>(top);
+    if (top < 0 || k < lo || k > hi || (coh && top < 1)) throw bad("a rank witness of dimension " + std::to_string(k));
     auto& w = cert.ranks[k];
     w.prime = count(need(wv, "prime", value::number));
     for (const auto& pv : need(wv, "pivots", value::array).items) {
       if (pv.kind != value::array || pv.items.size() != 2) throw bad("expected a pivot [\"row cell\", \"column cell\"]");
-      w.rows.push_back(cell(static_cast<int>(k) - 1, pv.items[0]));
+      w.rows.push_back(cell(coh ? static_cast<int>(k) + 1 : static_cast<int>(k) - 1, pv.items[0]));
       w.columns.push_back(cell(static_cast<int>(k), pv.items[1]));
     }
   }
@@ -401,22 +439,25 @@ homology_certificate<R> read_certificate_json(std::istream& in, const C& c, cons
     std::vector<char> seen(static_cast<std::size_t>(top + 1), 0);
     for (const auto& wv : tv->items) {
       if (wv.kind != value::object) throw bad("expected a torsion witness object");
+      // "dimension": the map, ∂_d (group d − 1) or, for cohomology, δ_d (group d + 1)
       const std::size_t d = count(need(wv, "dimension", value::number));
-      if (d < 1 || d > static_cast<std::size_t>(top)) throw bad("a torsion witness of dimension " + std::to_string(d));
-      if (seen[d - 1]) throw bad("two torsion witnesses of dimension " + std::to_string(d));
-      seen[d - 1] = 1;
-      auto& w = cert.torsion[d - 1];
-      const int k = static_cast<int>(d) - 1;
+      const std::size_t g = coh ? d + 1 : d - 1;
+      if ((coh ? d + 1 > static_cast<std::size_t>(top) : d < 1 || d > static_cast<std::size_t>(top)))
+        throw bad("a torsion witness of dimension " + std::to_string(d));
+      if (seen[g]) throw bad("two torsion witnesses of dimension " + std::to_string(d));
+      seen[g] = 1;
+      auto& w = cert.torsion[g];
+      const int k = static_cast<int>(g), col = static_cast<int>(d);
       for (const auto& pv : need(wv, "pivots", value::array).items) {
         if (pv.kind != value::array || pv.items.size() != 2) throw bad("expected a pivot [\"row cell\", \"column cell\"]");
         w.pivot_rows.push_back(cell(k, pv.items[0]));
-        w.pivot_columns.push_back(cell(k + 1, pv.items[1]));
+        w.pivot_columns.push_back(cell(col, pv.items[1]));
       }
       for (const auto& mv : need(wv, "minors", value::array).items) {
         if (mv.kind != value::object) throw bad("expected a minor object {\"rows\": [...], \"columns\": [...]}");
         minor_block b;
         for (const auto& x : need(mv, "rows", value::array).items) b.rows.push_back(cell(k, x));
-        for (const auto& x : need(mv, "columns", value::array).items) b.columns.push_back(cell(k + 1, x));
+        for (const auto& x : need(mv, "columns", value::array).items) b.columns.push_back(cell(col, x));
         w.minors.push_back(std::move(b));
       }
     }
