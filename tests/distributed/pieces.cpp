@@ -120,6 +120,8 @@ enum class split {
   overlapping,   // round robin, and every facet also to the next rank
   first_only,    // everything on rank 0, the other pieces empty
   two_pieces,    // two pieces (ranks 0 and 1), the others empty: more ranks than pieces
+  three_holders, // round robin, and every facet also to the next two ranks: cells shared by 3
+  ends_only,     // round robin over the first and last ranks; the pieces between are empty
 };
 
 facet_list my_piece(const facet_list& all, split how) {
@@ -134,6 +136,8 @@ facet_list my_piece(const facet_list& all, split how) {
       case split::overlapping: take = to == r || (to + 1) % n == r; break;
       case split::first_only: take = r == 0; break;
       case split::two_pieces: take = static_cast<int>(i % static_cast<std::size_t>(std::min(n, 2))) == r; break;
+      case split::three_holders: take = to == r || (to + 1) % n == r || (to + 2) % n == r; break;
+      case split::ends_only: take = (i % 2 == 0) ? r == 0 : r == n - 1; break;
     }
     if (take) mine.push_back(all[i]);
   }
@@ -147,10 +151,10 @@ const split all_splits[] = {split::round_robin, split::blocks, split::overlappin
 template <class R>
 lacuna::homology_result<R> in_pieces(const facet_list& all, split how, const R& unit,
                                      lacuna::distributed::pieces_residual* residual = nullptr,
-                                     lacuna::homology_options options = {}) {
+                                     lacuna::homology_options options = {}, bool tree = true) {
   const auto piece = lacuna::distributed::make_piece(MPI_COMM_WORLD, my_piece(all, how));
   return lacuna::distributed::pieces_homology<R>(MPI_COMM_WORLD, piece, options, lacuna::sparse_elimination{}, unit,
-                                                 residual);
+                                                 residual, {.reduction_tree = tree});
 }
 
 /// On rank 0: the same groups (rank and torsion in every degree) as the one-process engine on
@@ -304,6 +308,77 @@ TEST_CASE("pieces: generators are refused, on every rank") {
   const auto piece = lacuna::distributed::make_piece(MPI_COMM_WORLD, my_piece(projective_plane(), split::round_robin));
   CHECK_THROWS_AS(lacuna::distributed::pieces_homology<lacuna::integer>(MPI_COMM_WORLD, piece, {.generators = true}),
                   lacuna::distributed::distributed_error);
+}
+
+// The reduction tree (complex_pieces.hpp): the residuals merged pairwise and reduced again,
+// where cells are held by two or three ranks and pieces between are empty.
+
+const split tree_splits[] = {split::round_robin, split::blocks, split::overlapping, split::three_holders,
+                             split::ends_only, split::two_pieces};
+
+/// On rank 0: the same groups with the tree on and off.
+template <class R>
+void check_tree_against_gather(const facet_list& all, split how, const R& unit, lacuna::homology_options options = {}) {
+  lacuna::distributed::pieces_residual on, off;
+  const auto a = in_pieces(all, how, unit, &on, options, true);
+  const auto b = in_pieces(all, how, unit, &off, options, false);
+  if (this_rank() != 0) return;
+  REQUIRE(a.groups.size() == b.groups.size());
+  for (std::size_t k = 0; k < a.groups.size(); ++k) {
+    CAPTURE(k);
+    CHECK(a.groups[k].rank == b.groups[k].rank);
+    CHECK(a.groups[k].torsion == b.groups[k].torsion);
+  }
+  CHECK(on.cells == off.cells);
+  // with two ranks or more the root's last merge covers every rank, so no cell is kept for a
+  // rank outside and the re-reduction runs until no unit pair is left (its loop ends only
+  // when a pass finds none; int64 overflow cannot occur on these small complexes)
+  if (rank_count() > 1)
+    for (int k = 1; k <= on.residual.top_dimension(); ++k)
+      for (std::size_t i = 0; i < on.residual.cell_count(k); ++i)
+        for (const auto& t : on.residual.small_boundary(k, i)) {
+          CAPTURE(on.residual.cell_name(k, i));
+          CHECK(t.coefficient != 1);
+          CHECK(t.coefficient != -1);
+        }
+}
+
+TEST_CASE("pieces tree: textbook groups when cycles and torsion span several pieces") {
+  const lacuna::integer one = lacuna::one<lacuna::integer>();
+  for (const auto how : tree_splits) {
+    CAPTURE(static_cast<int>(how));
+    // Hatcher §2.1 (from memory): H(T^2) = Z, Z^2, Z; H(Klein bottle) = Z, Z ⊕ Z/2, 0;
+    // H(RP^2) = Z, Z/2, 0; Example 2.40: H(M(Z/3, 1)) = Z, Z/3, 0.
+    for (const bool tree : {true, false}) {
+      CAPTURE(tree);
+      check_integral(in_pieces(grid_surface(false), how, one, nullptr, {}, tree), {{1, {}}, {2, {}}, {1, {}}});
+      check_integral(in_pieces(grid_surface(true), how, one, nullptr, {}, tree), {{1, {}}, {1, {2}}, {0, {}}});
+      check_integral(in_pieces(projective_plane(), how, one, nullptr, {}, tree), {{1, {}}, {0, {2}}, {0, {}}});
+      check_integral(in_pieces(moore_space_3(), how, one, nullptr, {}, tree), {{1, {}}, {0, {3}}, {0, {}}});
+      check_integral(in_pieces(three_sphere(), how, one, nullptr, {}, tree), {{1, {}}, {0, {}}, {0, {}}, {1, {}}});
+    }
+  }
+}
+
+TEST_CASE("pieces tree: the one-process engine's groups, and the same with the tree on and off") {
+  for (const auto how : tree_splits) {
+    CAPTURE(static_cast<int>(how));
+    for (const auto& all : {grid_surface(false), grid_surface(true), projective_plane(), moore_space_3()}) {
+      check_against_one_process(all, how, lacuna::one<lacuna::integer>());
+      check_against_one_process(all, how, lacuna::mod_p_dynamic(1, 3));
+      check_tree_against_gather(all, how, lacuna::one<lacuna::integer>());
+      check_tree_against_gather(all, how, lacuna::one<lacuna::z2>());
+    }
+  }
+  for (unsigned seed = 21; seed <= 30; ++seed) {
+    CAPTURE(seed);
+    const auto all = random_complex(seed, 10 + static_cast<int>(seed % 3), 18, 5);
+    for (const auto how : tree_splits) {
+      CAPTURE(static_cast<int>(how));
+      check_against_one_process(all, how, lacuna::one<lacuna::integer>());
+      check_tree_against_gather(all, how, lacuna::one<lacuna::integer>(), {.reduced = true});
+    }
+  }
 }
 
 }  // namespace pieces_test

@@ -35,16 +35,35 @@
 // or exhaustion on any rank ends the call on every rank with the same distributed_error naming
 // the rank, the phase and the message ("FILE:LINE: problem" for a bad piece file).
 //
-// The finish. The shared cells (sent once, by the lowest rank holding them, with their
-// simplicial boundaries) and every rank's remaining private cells are gathered on the root,
-// built into a lacuna::cell_list by name (a simplex's name is its labels in increasing order)
-// and handed to lacuna::homology. The groups are those of the union complex, proved by the
+// The reduction tree (pieces_reduce_options::reduction_tree, on by default; the rounds of
+// slab_reduction_tree.hpp, root 0, after Lewis & Zomorodian 2014 and Bauer, Kerber &
+// Reininghaus 2014). The hashing also gives, for each shared cell, the lowest and the highest
+// rank holding it. Each rank's residual is its remaining private cells and every shared cell it
+// holds (with its simplicial boundary and holder range). Round s = 0 .. ceil(log2 P) - 1: rank
+// v with v mod 2^(s+1) == 0 receives the residual of rank v + 2^s, glues the two by name (a
+// cell both hold is kept once) and reduces again the cells private to the group
+// [v, min(v + 2^(s+1), P) - 1], with the re-reduction of slab_reduction_tree.hpp
+// (residual_reducer: KMS 1998 unit pairs, int64 with every step checked, a step that would
+// overflow not done). A shared cell is private to the group iff all its holders lie in it,
+// i.e. its lowest and highest holder do (the group is a run of consecutive ranks). A cell held
+// outside the group is never paired and its boundary never changes: a step changes only the
+// cofaces of the two cells it pairs, both private to the group, while every face of a cell
+// held by rank r is held by r too, so no cell held outside is such a coface. A later merge
+// thus glues the same cells the other ranks hold. Each merge is a chain-homotopy equivalence over
+// Z, as in the first reduction. An empty residual received holds no cell, so nothing becomes
+// private by it and the merge is skipped.
+//
+// The finish. The root's residual (with the tree: its last merge's; without: the shared cells,
+// sent once, by the lowest rank holding them, with their simplicial boundaries, and every
+// rank's remaining private cells, gathered in one step) is built into a lacuna::cell_list by
+// name (a simplex's name is its labels in increasing order) and handed to lacuna::homology. The groups are those of the union complex, proved by the
 // chain-homotopy equivalence above and by the engine's own exactness (homology/routes.hpp).
 // The cell counts (for the Euler characteristic and the report) are the union's: each rank
 // counts its private cells and the shared cells it sends, summed over the ranks.
 #pragma once
 
 #include <lacuna/distributed/collective_error.hpp>
+#include <lacuna/distributed/slab_reduction_tree.hpp>
 #include <lacuna/complex/cell_list.hpp>
 #include <lacuna/complex/errors.hpp>
 #include <lacuna/complex/simplicial_complex.hpp>
@@ -110,9 +129,15 @@ inline int message_size(std::size_t n, const char* what) {
   return static_cast<int>(n);
 }
 
+/// The lowest and the highest rank holding a simplex; {-1, -1} if it is private.
+struct holder_range {
+  int lowest = -1;
+  int highest = -1;
+};
+
 /// Who holds each key: for every key of this rank (distinct on the rank, none holding '\n'),
-/// the lowest rank holding it if two ranks or more do, else -1. Collective.
-inline std::vector<int> shared_holders(MPI_Comm comm, const std::vector<std::string>& keys) {
+/// the lowest and highest ranks holding it if two ranks or more do, else {-1, -1}. Collective.
+inline std::vector<holder_range> shared_holders(MPI_Comm comm, const std::vector<std::string>& keys) {
   int rank = 0, size = 1;
   MPI_Comm_rank(comm, &rank);
   MPI_Comm_size(comm, &size);
@@ -156,6 +181,7 @@ inline std::vector<int> shared_holders(MPI_Comm comm, const std::vector<std::str
   struct tally {
     int ranks = 0;
     int lowest = INT_MAX;
+    int highest = -1;
   };
   std::unordered_map<std::string_view, tally> home;
   std::vector<std::vector<std::string_view>> from(P);
@@ -169,6 +195,7 @@ inline std::vector<int> shared_holders(MPI_Comm comm, const std::vector<std::str
       auto& t = home[key];
       ++t.ranks;
       t.lowest = std::min(t.lowest, static_cast<int>(s));
+      t.highest = std::max(t.highest, static_cast<int>(s));
     }
   }
   std::vector<int> answer_counts(P), answer_at(P), reply_counts(P), reply_at(P);
@@ -178,21 +205,24 @@ inline std::vector<int> shared_holders(MPI_Comm comm, const std::vector<std::str
     for (const auto key : from[s]) {
       const auto& t = home[key];
       answers.push_back(t.ranks > 1 ? t.lowest : -1);
+      answers.push_back(t.ranks > 1 ? t.highest : -1);
     }
-    answer_counts[s] = static_cast<int>(from[s].size());
+    answer_counts[s] = static_cast<int>(2 * from[s].size());
   }
-  std::vector<int> replies(keys.size());
+  std::vector<int> replies(2 * keys.size());
   for (std::size_t d = 0, at = 0; d < P; ++d) {
-    reply_counts[d] = static_cast<int>(sent[d].size());
+    reply_counts[d] = static_cast<int>(2 * sent[d].size());
     reply_at[d] = static_cast<int>(at);
-    at += sent[d].size();
+    at += 2 * sent[d].size();
   }
   MPI_Alltoallv(answers.data(), answer_counts.data(), answer_at.data(), MPI_INT, replies.data(), reply_counts.data(),
                 reply_at.data(), MPI_INT, comm);
-  std::vector<int> holders(keys.size());
+  std::vector<holder_range> holders(keys.size());
   for (std::size_t d = 0; d < P; ++d)
-    for (std::size_t j = 0; j < sent[d].size(); ++j)
-      holders[sent[d][j]] = replies[static_cast<std::size_t>(reply_at[d]) + j];
+    for (std::size_t j = 0; j < sent[d].size(); ++j) {
+      const auto at = static_cast<std::size_t>(reply_at[d]) + 2 * j;
+      holders[sent[d][j]] = {replies[at], replies[at + 1]};
+    }
   return holders;
 }
 
@@ -234,6 +264,105 @@ inline std::int64_t coefficient_of(const std::vector<term>& c, std::uint32_t fac
 inline void erase_face(std::vector<term>& c, std::uint32_t face) {
   const auto it = std::lower_bound(c.begin(), c.end(), face, [](const term& t, std::uint32_t f) { return t.face < f; });
   if (it != c.end() && it->face == face) c.erase(it);
+}
+
+/// One record of a residual in text: dimension, name, holder range, boundary (coefficient,
+/// face name). Written as lines "k", "name", "lowest highest", "n", then n lines "c face".
+struct record {
+  std::size_t k = 0;
+  std::string_view name;
+  holder_range holders;
+  std::vector<std::pair<std::int64_t, std::string_view>> terms;
+};
+
+inline void write_record(std::string& out, std::size_t k, std::string_view name, holder_range h) {
+  out += std::to_string(k);
+  out += '\n';
+  out += name;
+  out += '\n';
+  out += std::to_string(h.lowest) + ' ' + std::to_string(h.highest) + '\n';
+}
+
+/// The records of `text` (views into it).
+inline std::vector<record> parse_records(std::string_view rest) {
+  std::vector<record> out;
+  const auto line = [&rest] {
+    const auto end = rest.find('\n');
+    if (end == std::string_view::npos) throw std::runtime_error("lacuna: a residual record is cut short");
+    const auto l = rest.substr(0, end);
+    rest.remove_prefix(end + 1);
+    return l;
+  };
+  const auto number = [](std::string_view s) { return std::stoll(std::string(s)); };
+  while (!rest.empty()) {
+    record r;
+    r.k = static_cast<std::size_t>(number(line()));
+    r.name = line();
+    const auto h = line();
+    const auto space = h.find(' ');
+    r.holders = {static_cast<int>(number(h.substr(0, space))), static_cast<int>(number(h.substr(space + 1)))};
+    const auto n = static_cast<std::size_t>(number(line()));
+    for (std::size_t j = 0; j < n; ++j) {
+      const auto l = line();
+      const auto sp = l.find(' ');
+      r.terms.emplace_back(number(l.substr(0, sp)), l.substr(sp + 1));
+    }
+    out.push_back(std::move(r));
+  }
+  return out;
+}
+
+/// A merge of the reduction tree: the residual records `text` of the ranks [lo, hi] (a cell
+/// held twice is kept once) reduced again by the re-reduction of slab_reduction_tree.hpp
+/// (Kaczynski–Mrozek–Ślusarek unit pairs, int64 with overflow checks), keeping every cell a
+/// rank outside [lo, hi] holds (a shared cell with a holder below lo or above hi). Such a
+/// cell's faces are held by the same ranks, so they are kept too and its boundary is never
+/// changed: the ranks outside still see it as it is (the argument of the file comment).
+inline std::string merge_records(const std::string& text, int lo, int hi, int top) {
+  const auto records = parse_records(text);
+  std::unordered_map<std::string_view, std::uint64_t> id;
+  std::vector<const record*> cell;  // by id
+  for (const auto& r : records)
+    if (id.emplace(r.name, cell.size()).second) cell.push_back(&r);
+  std::vector<std::int64_t> words;
+  for (std::size_t i = 0; i < cell.size(); ++i) {
+    const auto& r = *cell[i];
+    words.push_back(static_cast<std::int64_t>(r.k));
+    words.push_back(static_cast<std::int64_t>(i));
+    words.push_back(0);
+    words.push_back(static_cast<std::int64_t>(r.terms.size()));
+    for (const auto& [c, f] : r.terms) {
+      const auto it = id.find(f);
+      if (it == id.end())
+        throw std::logic_error("lacuna: reduce_pieces: the face '" + std::string(f) + "' of '" + std::string(r.name) +
+                               "' reached no residual of the merge (please report this)");
+      words.push_back(static_cast<std::int64_t>(it->second));
+      words.push_back(c);
+    }
+  }
+  lacuna::distributed::detail::residual_reducer red(
+      words,
+      [&](std::uint64_t i) {
+        const auto h = cell[static_cast<std::size_t>(i)]->holders;
+        return h.lowest >= 0 && (h.lowest < lo || h.highest > hi);
+      },
+      top);
+  red.reduce();
+  std::vector<std::int64_t> left;
+  red.write(left);
+  std::string out;
+  lacuna::distributed::detail::for_each_record(
+      left,
+      [&](std::size_t at) {
+        const auto& r = *cell[static_cast<std::size_t>(left[at + 1])];
+        write_record(out, r.k, r.name, r.holders);
+        const auto n = static_cast<std::size_t>(left[at + 3]);
+        out += std::to_string(n) + '\n';
+        for (std::size_t t = 0; t < n; ++t)
+          out += std::to_string(left[at + 5 + 2 * t]) + ' ' + std::string(cell[static_cast<std::size_t>(left[at + 4 + 2 * t])]->name) + '\n';
+      },
+      top);
+  return out;
 }
 
 }  // namespace pieces_detail
@@ -290,6 +419,13 @@ piece_complex make_piece(MPI_Comm comm, Facets&& facets, const piece_options& op
   return piece;
 }
 
+/// How reduce_pieces merges the residuals.
+struct pieces_reduce_options {
+  /// true: merge the residuals pairwise in a reduction tree, reducing again at each merge;
+  /// false: gather them on the root in one step (the engine reduces the rest).
+  bool reduction_tree = true;
+};
+
 /// What reduce_pieces leaves: the residual complex (on the root; empty elsewhere) and the cell
 /// counts of the union complex (on every rank).
 struct pieces_residual {
@@ -305,7 +441,7 @@ struct pieces_residual {
 /// Reduces the union of the pieces (one per rank of comm) to a residual complex on rank 0; see
 /// the top of this header. `piece` must be numbered in label order (read_piece and make_piece
 /// do that). Collective; errors are distributed_error on every rank.
-inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) {
+inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece, const pieces_reduce_options& options = {}) {
   using pieces_detail::term;
   int rank = 0, size = 1;
   MPI_Comm_rank(comm, &rank);
@@ -317,17 +453,22 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
   int top = piece.top_dimension(), global_top = -1;
   MPI_Allreduce(&top, &global_top, 1, MPI_INT, MPI_MAX, comm);
   const auto dims = static_cast<std::size_t>(top + 1);
-  // holder[k][i]: the lowest rank holding the simplex if it is shared, else -1
+  // holder[k][i]: the lowest rank holding the simplex if it is shared, else -1; range[k][i]:
+  // the lowest and highest
   std::vector<std::vector<int>> holder(dims);
+  std::vector<std::vector<pieces_detail::holder_range>> range(dims);
   {
     std::vector<std::string> keys(piece.labels());
-    if (dims > 0) holder[0] = pieces_detail::shared_holders(comm, keys);
+    if (dims > 0) range[0] = pieces_detail::shared_holders(comm, keys);
     else pieces_detail::shared_holders(comm, {});
+    if (dims > 0)
+      for (const auto& h : range[0]) holder[0].push_back(h.lowest);
     for (std::size_t k = 1; k < static_cast<std::size_t>(global_top + 1); ++k) {
       keys.clear();
       std::vector<std::size_t> asked;
       if (k < dims) {
         holder[k].assign(piece.cell_count(static_cast<int>(k)), -1);
+        range[k].assign(piece.cell_count(static_cast<int>(k)), {});
         for (std::size_t i = 0; i < holder[k].size(); ++i) {
           const auto vs = piece.vertices(static_cast<int>(k), i);
           if (std::all_of(vs.begin(), vs.end(), [&](auto v) { return holder[0][v] >= 0; })) {
@@ -337,11 +478,14 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
         }
       }
       const auto h = pieces_detail::shared_holders(comm, keys);  // every rank, every dimension
-      for (std::size_t j = 0; j < asked.size(); ++j) holder[k][asked[j]] = h[j];
+      for (std::size_t j = 0; j < asked.size(); ++j) {
+        holder[k][asked[j]] = h[j].lowest;
+        range[k][asked[j]] = h[j];
+      }
     }
   }
   pieces_residual out;
-  std::string records;  // this rank's cells for the root: k, name, n, then n lines "coefficient face"
+  std::string records;  // this rank's cells (pieces_detail::record)
   std::vector<std::uint64_t> counted(static_cast<std::size_t>(global_top + 1), 0);
   collective_phase(comm, "reducing its piece", [&] {
     // private cells: boundaries (private and shared faces), cofaces among private cells
@@ -413,14 +557,16 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
         std::vector<std::uint32_t>().swap(co);
       }
     // what this rank sends: its remaining private cells and the shared cells it holds first
+    // (with the tree: every shared cell it holds; the merges keep each once)
     for (std::size_t k = 0; k < dims; ++k)
       for (std::size_t i = 0; i < bd[k].size(); ++i) {
         const bool shared = holder[k][i] >= 0;
-        if (shared ? holder[k][i] != rank : false) continue;
-        ++counted[k];
+        const bool first = !shared || holder[k][i] == rank;
+        if (first) ++counted[k];
         if (!shared && !alive[k][i]) continue;
-        ++out.residual_cells;
-        records += std::to_string(k) + '\n' + piece.cell_name(static_cast<int>(k), i) + '\n';
+        if (!first && !options.reduction_tree) continue;
+        if (first) ++out.residual_cells;
+        pieces_detail::write_record(records, k, piece.cell_name(static_cast<int>(k), i), range[k][i]);
         if (shared) {
           const auto sb = piece.boundary(static_cast<int>(k), i);
           records += std::to_string(sb.size()) + '\n';
@@ -438,6 +584,41 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
   MPI_Allreduce(counted.data(), out.cells.data(), static_cast<int>(counted.size()), MPI_UINT64_T, MPI_SUM, comm);
   std::uint64_t left = out.residual_cells;
   MPI_Allreduce(&left, &out.residual_cells, 1, MPI_UINT64_T, MPI_SUM, comm);
+  std::string all;
+  if (options.reduction_tree) {
+    // the reduction tree (the rounds of slab_reduction_tree.hpp, root 0): at round s the rank
+    // v with v mod 2^(s+1) == 0 receives the residual of v + 2^s and merges the two, its group
+    // becoming the ranks [v, min(v + 2^(s+1), size) - 1]
+    for (int step = 1; step < size; step *= 2) {
+      const bool sender = rank % (2 * step) == step;
+      const bool receiver = rank % (2 * step) == 0 && rank + step < size;
+      const int partner = sender ? rank - step : rank + step;
+      std::uint64_t count = records.size();
+      collective_phase(comm, "sending its residual up the reduction tree", [&] {
+        if (sender) pieces_detail::message_size(records.size(), "the residual complex sent up the reduction tree");
+      });
+      if (sender) check_mpi(MPI_Send(&count, 1, MPI_UINT64_T, partner, 0, comm), "MPI_Send (residual size)");
+      if (receiver) check_mpi(MPI_Recv(&count, 1, MPI_UINT64_T, partner, 0, comm, MPI_STATUS_IGNORE), "MPI_Recv (residual size)");
+      std::string child;
+      collective_phase(comm, "receiving a residual in the reduction tree", [&] {
+        if (receiver) child.resize(static_cast<std::size_t>(count));
+      });
+      if (sender) {
+        check_mpi(MPI_Send(records.data(), static_cast<int>(count), MPI_CHAR, partner, 1, comm), "MPI_Send (residual)");
+        std::string().swap(records);
+      }
+      if (receiver)
+        check_mpi(MPI_Recv(child.data(), static_cast<int>(count), MPI_CHAR, partner, 1, comm, MPI_STATUS_IGNORE), "MPI_Recv (residual)");
+      collective_phase(comm, "merging residuals in the reduction tree", [&] {
+        // an empty child holds no cell, so no cell of this group becomes private by the merge
+        if (!receiver || child.empty()) return;
+        records += child;
+        std::string().swap(child);
+        records = pieces_detail::merge_records(records, rank, std::min(rank + 2 * step, size) - 1, global_top);
+      });
+    }
+    if (rank == 0) all = std::move(records);
+  } else {
   // the gather to the root
   const int mine = static_cast<int>(records.size());
   std::vector<int> lengths(static_cast<std::size_t>(size)), at(static_cast<std::size_t>(size));
@@ -449,35 +630,14 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
       total += static_cast<std::size_t>(lengths[s]);
     }
   collective_phase(comm, "gathering the residual complexes", [&] { pieces_detail::message_size(total, "the residual complex gathered on rank 0"); });
-  std::string all(rank == 0 ? total : 0, '\0');
+  all.assign(rank == 0 ? total : 0, '\0');
   MPI_Gatherv(records.data(), mine, MPI_CHAR, all.data(), lengths.data(), at.data(), MPI_CHAR, 0, comm);
+  }
   collective_phase(comm, "gluing the residual complexes", [&] {
     if (rank != 0) return;
     // records by dimension, then cells added dimension by dimension (faces first)
-    struct record {
-      std::string_view name;
-      std::vector<std::pair<std::int64_t, std::string_view>> terms;
-    };
-    std::vector<std::vector<record>> by_dim(static_cast<std::size_t>(global_top + 1));
-    std::string_view rest(all);
-    const auto line = [&rest] {
-      const auto end = rest.find('\n');
-      const auto l = rest.substr(0, end);
-      rest.remove_prefix(end + 1);
-      return l;
-    };
-    const auto number = [](std::string_view s) { return std::stoll(std::string(s)); };
-    while (!rest.empty()) {
-      const auto k = static_cast<std::size_t>(number(line()));
-      record r{line(), {}};
-      const auto n = static_cast<std::size_t>(number(line()));
-      for (std::size_t j = 0; j < n; ++j) {
-        const auto l = line();
-        const auto space = l.find(' ');
-        r.terms.emplace_back(number(l.substr(0, space)), l.substr(space + 1));
-      }
-      by_dim.at(k).push_back(std::move(r));
-    }
+    std::vector<std::vector<pieces_detail::record>> by_dim(static_cast<std::size_t>(global_top + 1));
+    for (auto& r : pieces_detail::parse_records(all)) by_dim.at(r.k).push_back(std::move(r));
     std::unordered_map<std::string_view, std::size_t> below, here;
     for (std::size_t k = 0; k < by_dim.size(); ++k) {
       here.clear();
@@ -506,14 +666,14 @@ inline pieces_residual reduce_pieces(MPI_Comm comm, const piece_complex& piece) 
 template <euclidean_domain R, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> pieces_homology(MPI_Comm comm, const piece_complex& piece, homology_options options = {},
                                    const Algorithm& algorithm = {}, const R& ring_one = one<R>(),
-                                   pieces_residual* residual = nullptr) {
+                                   pieces_residual* residual = nullptr, const pieces_reduce_options& reduce = {}) {
   int rank = 0;
   MPI_Comm_rank(comm, &rank);
   collective_phase(comm, "checking the options", [&] {
     if (options.generators || options.witnesses || options.keep_basis.value_or(false))
       throw std::invalid_argument("lacuna: generators are not offered for a complex in pieces");
   });
-  auto r = reduce_pieces(comm, piece);
+  auto r = reduce_pieces(comm, piece, reduce);
   homology_result<R> h;
   collective_phase(comm, "computing the homology of the residual complex", [&] {
     if (rank != 0) return;

@@ -117,13 +117,14 @@ struct grid_numbering {
 };
 
 /// Walks the records of a residual, checking their shape: f(at) for the offset of each record.
+/// Cells are of dimension 0 .. max_dimension (3 for volumes).
 template <class F>
-void for_each_record(const std::vector<std::int64_t>& all, F&& f) {
+void for_each_record(const std::vector<std::int64_t>& all, F&& f, std::int64_t max_dimension = 3) {
   for (std::size_t at = 0; at < all.size();) {
     if (at + 4 > all.size()) throw std::runtime_error("lacuna: a residual record is cut short");
     const auto k = all[at];
     const auto terms = all[at + 3];
-    if (k < 0 || k > 3 || terms < 0 || static_cast<std::uint64_t>(terms) > (all.size() - at - 4) / 2)
+    if (k < 0 || k > max_dimension || terms < 0 || static_cast<std::uint64_t>(terms) > (all.size() - at - 4) / 2)
       throw std::runtime_error("lacuna: a residual record is malformed");
     f(at);
     at += 4 + 2 * static_cast<std::size_t>(terms);
@@ -209,11 +210,11 @@ class residual_reducer {
  public:
   using term_t = std::pair<std::uint64_t, std::int64_t>;  // (face grid id, coefficient)
 
-  /// Reads the records of `all` (a cell held twice is kept once); interface(id) tells the
-  /// cells that must stay. Throws std::runtime_error for malformed records or a face no
-  /// record names.
+  /// Reads the records of `all` (a cell held twice is kept once; cells of dimension at most
+  /// max_dimension); interface(id) tells the cells that must stay. Throws std::runtime_error
+  /// for malformed records or a face no record names.
   template <class Interface>
-  residual_reducer(const std::vector<std::int64_t>& all, Interface&& interface) {
+  residual_reducer(const std::vector<std::int64_t>& all, Interface&& interface, std::int64_t max_dimension = 3) {
     for_each_record(all, [&](std::size_t at) {
       const auto id = static_cast<std::uint64_t>(all[at + 1]);
       if (cells_.count(id)) return;
@@ -225,7 +226,7 @@ class residual_reducer {
       for (std::size_t t = 0; t < n; ++t) c.boundary.emplace_back(static_cast<std::uint64_t>(all[at + 4 + 2 * t]), all[at + 5 + 2 * t]);
       std::sort(c.boundary.begin(), c.boundary.end());
       cells_.emplace(id, std::move(c));
-    });
+    }, max_dimension);
     for (const auto& [id, c] : cells_)
       for (const auto& [face, coef] : c.boundary) {
         const auto f = cells_.find(face);
