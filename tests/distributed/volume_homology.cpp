@@ -22,6 +22,7 @@
 #include <lacuna/ring/mod_p.hpp>
 
 #include "cubical/volume_support.hpp"
+#include "distributed/volume_files.hpp"
 
 #include <mpi.h>
 #include <unistd.h>
@@ -69,51 +70,9 @@ written_volume write_shared(const lacuna_volumes::volume& v, const std::string& 
   return w;
 }
 
-lacuna_volumes::volume make_volume(std::array<std::size_t, 3> n, auto inside) {
-  lacuna_volumes::volume v{n, std::vector<std::uint8_t>(n[0] * n[1] * n[2], 0)};
-  for (std::size_t z = 0; z < n[2]; ++z)
-    for (std::size_t y = 0; y < n[1]; ++y)
-      for (std::size_t x = 0; x < n[0]; ++x) v.voxels[x + n[0] * (y + n[1] * z)] = inside(x, y, z) ? 1 : 0;
-  return v;
-}
-
-// Euler characteristic from the 2x2x2 configuration around every vertex (Toriwaki & Yonekura
-// 2002): the cell spanning v-e..v (e a set of axes) is present iff a voxel v-s with s ⊇ e is
-// foreground; it is counted once, at its highest vertex v, with sign (-1)^|e|.
-std::int64_t local_euler(const lacuna_volumes::volume& v) {
-  const auto n = v.extents;
-  auto fg = [&](std::ptrdiff_t x, std::ptrdiff_t y, std::ptrdiff_t z) {
-    if (x < 0 || y < 0 || z < 0 || x >= static_cast<std::ptrdiff_t>(n[0]) || y >= static_cast<std::ptrdiff_t>(n[1]) ||
-        z >= static_cast<std::ptrdiff_t>(n[2]))
-      return false;
-    return v.voxels[static_cast<std::size_t>(x) + n[0] * (static_cast<std::size_t>(y) + n[1] * static_cast<std::size_t>(z))] != 0;
-  };
-  std::int64_t chi = 0;
-  for (std::ptrdiff_t z = 0; z <= static_cast<std::ptrdiff_t>(n[2]); ++z)
-    for (std::ptrdiff_t y = 0; y <= static_cast<std::ptrdiff_t>(n[1]); ++y)
-      for (std::ptrdiff_t x = 0; x <= static_cast<std::ptrdiff_t>(n[0]); ++x) {
-        unsigned config = 0;
-        for (unsigned s = 0; s < 8; ++s)
-          if (fg(x - (s & 1), y - ((s >> 1) & 1), z - ((s >> 2) & 1))) config |= 1u << s;
-        for (unsigned e = 0; e < 8; ++e) {
-          bool present = false;
-          for (unsigned s = 0; s < 8; ++s)
-            if ((s & e) == e && ((config >> s) & 1)) present = true;
-          if (present) chi += (std::popcount(e) % 2 == 0) ? 1 : -1;
-        }
-      }
-  return chi;
-}
-
-// Runs checks made on one rank only: a failed REQUIRE (recorded as a failure) must not end the
-// test case on that rank alone, or the ranks' collective calls would no longer match.
-template <class F>
-void on_this_rank(F&& checks) {
-  try {
-    checks();
-  } catch (...) {
-  }
-}
+using distributed_volume_files::euler_of;
+using distributed_volume_files::on_one_rank;
+using distributed_volume_files::volume_of;
 
 template <class R>
 void check_same_groups(const lacuna::homology_result<R>& a, const lacuna::homology_result<R>& b) {
@@ -132,7 +91,7 @@ void check_volume(const lacuna_volumes::volume& v, const std::string& stem, std:
   CHECK(truth.b0 == expected_betti[0]);
   CHECK(truth.b1 == expected_betti[1]);
   CHECK(truth.b2 == expected_betti[2]);
-  CHECK(local_euler(v) == truth.euler);
+  CHECK(euler_of(v) == truth.euler);
   const auto whole = lacuna::io::read_nrrd<3>(file.path);
   const auto one_z = lacuna::homology<lacuna::integer>(whole);
   const auto one_2 = lacuna::homology<lacuna::mod_p<2>>(whole);
@@ -155,7 +114,7 @@ void check_volume(const lacuna_volumes::volume& v, const std::string& stem, std:
     CHECK(r2.cells == one_cells);
     CHECK(alternating == truth.euler);
     if (!rz.has_result) continue;
-    on_this_rank([&] {
+    on_one_rank([&] {
     check_same_groups(rz.result, one_z);
     check_same_groups(r2.result, one_2);
     const auto b = rz.result.betti_numbers();
@@ -174,7 +133,7 @@ void check_volume(const lacuna_volumes::volume& v, const std::string& stem, std:
 TEST_CASE("a solid torus cut through its tunnel: (Z, Z, 0) on every number of ranks") {
   // a square ring in the y-z plane: every slab along z cuts it, and the middle slabs hold only
   // two separate bars of it
-  const auto v = make_volume({3, 10, 12}, [](std::size_t x, std::size_t y, std::size_t z) {
+  const auto v = volume_of({3, 10, 12}, [](std::size_t x, std::size_t y, std::size_t z) {
     const bool in_square = y >= 1 && y <= 8 && z >= 1 && z <= 10;
     const bool in_hole = y >= 3 && y <= 6 && z >= 3 && z <= 8;
     return x == 1 && in_square && !in_hole;
@@ -183,7 +142,7 @@ TEST_CASE("a solid torus cut through its tunnel: (Z, Z, 0) on every number of ra
 }
 
 TEST_CASE("a hollow cube cut through its void: (Z, 0, Z)") {
-  const auto v = make_volume({9, 8, 11}, [](std::size_t x, std::size_t y, std::size_t z) {
+  const auto v = volume_of({9, 8, 11}, [](std::size_t x, std::size_t y, std::size_t z) {
     const bool outer = x >= 1 && x <= 7 && y >= 1 && y <= 6 && z >= 1 && z <= 9;
     const bool inner = x >= 3 && x <= 5 && y >= 3 && y <= 4 && z >= 3 && z <= 7;
     return outer && !inner;
@@ -192,7 +151,7 @@ TEST_CASE("a hollow cube cut through its void: (Z, 0, Z)") {
 }
 
 TEST_CASE("nested shells with a core: b0 = 3, b2 = 2") {
-  const auto v = make_volume({13, 13, 13}, [](std::size_t x, std::size_t y, std::size_t z) {
+  const auto v = volume_of({13, 13, 13}, [](std::size_t x, std::size_t y, std::size_t z) {
     const std::size_t d = std::max({x > 6 ? x - 6 : 6 - x, y > 6 ? y - 6 : 6 - y, z > 6 ? z - 6 : 6 - z});
     return d == 6 || d == 3 || d == 0;  // cube shells at Chebyshev distance 6 and 3, and the centre voxel
   });
@@ -200,12 +159,12 @@ TEST_CASE("nested shells with a core: b0 = 3, b2 = 2") {
 }
 
 TEST_CASE("blocks with no foreground: two solids far apart along the cut axis") {
-  const auto v = make_volume({4, 4, 16}, [](std::size_t, std::size_t, std::size_t z) { return z <= 1 || z >= 14; });
+  const auto v = volume_of({4, 4, 16}, [](std::size_t, std::size_t, std::size_t z) { return z <= 1 || z >= 14; });
   check_volume(v, "apart", {2, 0, 0});
 }
 
 TEST_CASE("more ranks than voxel layers: an annulus two layers thick") {
-  const auto v = make_volume({8, 8, 2}, [](std::size_t x, std::size_t y, std::size_t) {
+  const auto v = volume_of({8, 8, 2}, [](std::size_t x, std::size_t y, std::size_t) {
     const bool outer = x >= 1 && x <= 6 && y >= 1 && y <= 6;
     const bool hole = x >= 3 && x <= 4 && y >= 3 && y <= 4;
     return outer && !hole;
@@ -214,12 +173,12 @@ TEST_CASE("more ranks than voxel layers: an annulus two layers thick") {
 }
 
 TEST_CASE("an empty volume has no groups, as in one process") {
-  const auto v = make_volume({3, 3, 5}, [](std::size_t, std::size_t, std::size_t) { return false; });
+  const auto v = volume_of({3, 3, 5}, [](std::size_t, std::size_t, std::size_t) { return false; });
   const auto file = write_shared(v, "empty");
   const auto one = lacuna::homology<lacuna::integer>(lacuna::io::read_nrrd<3>(file.path));
   const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, file.path, {.cubical_duality = false});
   CHECK(r.cells.empty());  // the empty complex: no cell counts, as the one-process complex has none
-  if (r.has_result) on_this_rank([&] { check_same_groups(r.result, one); });
+  if (r.has_result) on_one_rank([&] { check_same_groups(r.result, one); });
 }
 
 TEST_CASE("porous volumes (blurred noise at its median): the one-process groups, duality, local Euler") {
@@ -253,7 +212,7 @@ TEST_CASE("a threshold on 16-bit samples selects the same foreground as one proc
   const auto one = lacuna::homology<lacuna::integer>(lacuna::io::read_nrrd<3>(path, {.threshold = 300}));
   const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, path, {.threshold = 300, .cubical_duality = false});
   if (r.has_result)
-    on_this_rank([&] {
+    on_one_rank([&] {
       check_same_groups(r.result, one);
       CHECK(r.result.betti_numbers() == std::vector<std::size_t>{1, 1, 0, 0});  // a slab with one tunnel
     });
@@ -262,7 +221,7 @@ TEST_CASE("a threshold on 16-bit samples selects the same foreground as one proc
 }
 
 TEST_CASE("bad input ends the run on every rank with one error naming the rank") {
-  const auto v = make_volume({4, 4, 8}, [](std::size_t x, std::size_t, std::size_t) { return x == 1; });
+  const auto v = volume_of({4, 4, 8}, [](std::size_t x, std::size_t, std::size_t) { return x == 1; });
   const auto path = shared_path("truncated");
   if (world_rank() == 0) {
     lacuna_volumes::write_nrrd(path.string(), v);
@@ -360,7 +319,7 @@ void check_generators(const lacuna_volumes::volume& v, const std::string& stem, 
   const auto r = lacuna::distributed::volume_homology<lacuna::integer>(MPI_COMM_WORLD, file.path,
                                                                        {.blocks_per_rank = per_rank, .homology = with});
   if (!r.has_result) return;
-  on_this_rank([&] {
+  on_one_rank([&] {
   REQUIRE(r.generators.size() == r.result.groups.size());
   for (std::size_t k = 0; k < r.generators.size(); ++k) {
     CAPTURE(k);
@@ -398,13 +357,13 @@ void check_generators(const lacuna_volumes::volume& v, const std::string& stem, 
 TEST_CASE("generators mapped back to the voxels: cycles of the one-process complex in a basis of its classes") {
   for (std::size_t per_rank : {1u, 2u}) {
     CAPTURE(per_rank);
-    check_generators(make_volume({3, 10, 12},
+    check_generators(volume_of({3, 10, 12},
                                  [](std::size_t x, std::size_t y, std::size_t z) {
                                    const bool sq = y >= 1 && y <= 8 && z >= 1 && z <= 10, hole = y >= 3 && y <= 6 && z >= 3 && z <= 8;
                                    return x == 1 && sq && !hole;
                                  }),
                      "gen_torus", per_rank);
-    check_generators(make_volume({13, 13, 13},
+    check_generators(volume_of({13, 13, 13},
                                  [](std::size_t x, std::size_t y, std::size_t z) {
                                    const std::size_t d = std::max({x > 6 ? x - 6 : 6 - x, y > 6 ? y - 6 : 6 - y, z > 6 ? z - 6 : 6 - z});
                                    return d == 6 || d == 3 || d == 0;
