@@ -16,15 +16,6 @@ using namespace cli_test;
 
 namespace {
 
-std::filesystem::path checker() { return std::filesystem::path(LACUNA_BINARY_DIR) / "certificate_check"; }
-
-std::string slurp(const std::string& path) {
-  std::ifstream f(path, std::ios::binary);
-  std::stringstream s;
-  s << f.rdbuf();
-  return s.str();
-}
-
 result check(const std::string& file, const std::string& cert) { return run_program(checker().string(), {file, cert}); }
 
 // Hatcher 2002, §2.1 (from memory): RP^2 has H_1 = Z/2; the Klein bottle Z + Z/2.

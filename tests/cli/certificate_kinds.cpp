@@ -16,15 +16,6 @@ using namespace cli_test;
 
 namespace {
 
-std::filesystem::path checker() { return std::filesystem::path(LACUNA_BINARY_DIR) / "certificate_check"; }
-
-std::string slurp(const std::string& path) {
-  std::ifstream f(path, std::ios::binary);
-  std::stringstream s;
-  s << f.rdbuf();
-  return s.str();
-}
-
 result check(std::vector<std::string> args) { return run_program(checker().string(), args); }
 
 // RP^2 as a CW complex (Hatcher 2002, Example 2.42, from memory: H_1 = Z/2).

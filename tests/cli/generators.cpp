@@ -24,13 +24,6 @@ namespace {
 using terms = std::vector<std::pair<big, std::string>>;
 using model = std::map<int, std::map<std::string, terms>>;
 
-std::string slurp(const std::string& path) {
-  std::ifstream f(path, std::ios::binary);
-  std::stringstream s;
-  s << f.rdbuf();
-  return s.str();
-}
-
 std::vector<std::string> lines_without_comments(const std::string& text) {
   std::vector<std::string> out;
   std::istringstream in(text);

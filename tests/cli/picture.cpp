@@ -165,13 +165,6 @@ bool inside(const std::vector<point>& poly, double px, double py) {
   return in;
 }
 
-std::string slurp(const std::string& path) {
-  std::ifstream f(path, std::ios::binary);
-  std::stringstream s;
-  s << f.rdbuf();
-  return s.str();
-}
-
 /// Runs --picture on `im` with `extra` options and checks the picture against the pixels;
 /// returns beta_1 as the test computed it.
 int check_picture(const image& im, const std::vector<std::string>& extra = {}) {

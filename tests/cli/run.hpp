@@ -22,6 +22,7 @@
 #include <filesystem>
 #include <fstream>
 #include <optional>
+#include <sstream>
 #include <stdexcept>
 #include <string>
 #include <string_view>
@@ -32,6 +33,15 @@ extern char** environ;
 namespace cli_test {
 
 inline std::filesystem::path tool() { return std::filesystem::path(LACUNA_BINARY_DIR) / "lacuna"; }
+/// The standalone certificate checker (examples/certificate_check.cpp).
+inline std::filesystem::path checker() { return std::filesystem::path(LACUNA_BINARY_DIR) / "certificate_check"; }
+/// The bytes of a file the tool wrote (empty when it cannot be read).
+inline std::string slurp(const std::string& path) {
+  std::ifstream f(path, std::ios::binary);
+  std::stringstream s;
+  s << f.rdbuf();
+  return s.str();
+}
 inline std::filesystem::path data(const std::string& name) {
   return std::filesystem::path(LACUNA_TEST_DATA_DIR) / "cli" / name;
 }
