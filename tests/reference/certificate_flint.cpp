@@ -22,22 +22,6 @@ namespace reference_certificate_flint_test {
 
 using namespace flint_test;
 
-/// FLINT's determinant of the minor of m on these rows and columns.
-cpp_int flint_minor_determinant(const bmatrix& m, const std::vector<std::size_t>& rows, const std::vector<std::size_t>& cols) {
-  const std::size_t n = rows.size();
-  fmpz_mat_t A;
-  fmpz_mat_init(A, static_cast<slong>(n), static_cast<slong>(n));
-  for (std::size_t i = 0; i < n; ++i)
-    for (std::size_t j = 0; j < n; ++j) fmpz_set_str(fmpz_mat_entry(A, i, j), m.a[rows[i]][cols[j]].str().c_str(), 10);
-  fmpz_t d;
-  fmpz_init(d);
-  fmpz_mat_det(d, A);
-  const cpp_int out(fmpz_text(d));
-  fmpz_clear(d);
-  fmpz_mat_clear(A);
-  return out;
-}
-
 /// Certifies c over Z, checks the certificate, and compares every torsion witness with FLINT.
 /// Returns the number of groups with torsion.
 template <class C>

@@ -23,28 +23,6 @@ namespace reference_certificate_kinds_flint_test {
 using namespace flint_test;
 using marks_t = std::vector<std::vector<bool>>;
 
-cpp_int flint_det(const bmatrix& m, const std::vector<std::size_t>& rows, const std::vector<std::size_t>& cols) {
-  const std::size_t n = rows.size();
-  fmpz_mat_t A;
-  fmpz_mat_init(A, static_cast<slong>(n), static_cast<slong>(n));
-  for (std::size_t i = 0; i < n; ++i)
-    for (std::size_t j = 0; j < n; ++j) fmpz_set_str(fmpz_mat_entry(A, i, j), m.a[rows[i]][cols[j]].str().c_str(), 10);
-  fmpz_t d;
-  fmpz_init(d);
-  fmpz_mat_det(d, A);
-  const cpp_int out(fmpz_text(d));
-  fmpz_clear(d);
-  fmpz_mat_clear(A);
-  return out;
-}
-
-bmatrix transpose(const bmatrix& m) {
-  bmatrix t(m.cols, m.rows);
-  for (std::size_t i = 0; i < m.rows; ++i)
-    for (std::size_t j = 0; j < m.cols; ++j) t.a[j][i] = m.a[i][j];
-  return t;
-}
-
 /// ∂_k of c with the rows and columns of the cells marked in a set to zero (the quotient's).
 template <class C>
 bmatrix quotient_boundary(const C& c, int k, const marks_t& a) {
@@ -100,7 +78,7 @@ int agrees_with_flint(const C& c, const marks_t* a) {
       cols.insert(cols.end(), b.columns.begin(), b.columns.end());
       REQUIRE(rows.size() == up.size());
       REQUIRE(cols.size() == up.size());
-      gcd = boost::multiprecision::gcd(gcd, flint_det(into[static_cast<std::size_t>(k)], rows, cols));
+      gcd = boost::multiprecision::gcd(gcd, flint_minor_determinant(into[static_cast<std::size_t>(k)], rows, cols));
     }
     if (gcd < 0) gcd = -gcd;
     CHECK(gcd == flint_product);

@@ -71,6 +71,30 @@ inline std::vector<std::string> flint_invariants(const bmatrix& m) {
   return out;
 }
 
+/// FLINT's determinant of the minor of m on these rows and columns.
+inline cpp_int flint_minor_determinant(const bmatrix& m, const std::vector<std::size_t>& rows, const std::vector<std::size_t>& cols) {
+  const std::size_t n = rows.size();
+  fmpz_mat_t A;
+  fmpz_mat_init(A, static_cast<slong>(n), static_cast<slong>(n));
+  for (std::size_t i = 0; i < n; ++i)
+    for (std::size_t j = 0; j < n; ++j) fmpz_set_str(fmpz_mat_entry(A, i, j), m.a[rows[i]][cols[j]].str().c_str(), 10);
+  fmpz_t d;
+  fmpz_init(d);
+  fmpz_mat_det(d, A);
+  const cpp_int out(fmpz_text(d));
+  fmpz_clear(d);
+  fmpz_mat_clear(A);
+  return out;
+}
+
+/// The transpose of m.
+inline bmatrix transpose(const bmatrix& m) {
+  bmatrix t(m.cols, m.rows);
+  for (std::size_t i = 0; i < m.rows; ++i)
+    for (std::size_t j = 0; j < m.cols; ++j) t.a[j][i] = m.a[i][j];
+  return t;
+}
+
 /// FLINT's rank of A mod p (nmod_mat_rank), p a word-size prime.
 inline std::size_t flint_rank_mod(const bmatrix& m, std::uint64_t p) {
   if (m.rows == 0 || m.cols == 0) return 0;
