@@ -55,18 +55,6 @@ std::vector<group> certified(const C& c) {
   return gs;
 }
 
-/// A cell list with H_1 = Z ⊕ Z/2 ⊕ Z/4 ⊕ Z/12: loops a..d at one vertex, 2-cells attached
-/// along 2b, 4c and 12d (the cellular chain complex gives the groups at once).
-cell_list torsion_mix() {
-  cell_list c;
-  c.add_cell(0, "v");
-  for (const char* e : {"a", "b", "c", "d"}) c.add_cell(1, e, {{0, 1}, {0, -1}});
-  c.add_cell(2, "B", {{1, 2}});
-  c.add_cell(2, "C", {{2, 4}});
-  c.add_cell(2, "D", {{3, 12}});
-  return c;
-}
-
 /// A circle of n vertices and n edges.
 cell_list polygon(std::size_t n) {
   cell_list c;
@@ -114,7 +102,7 @@ TEST_CASE("certificates of textbook spaces over Z check valid and give the textb
   // The dunce hat is contractible (Zeeman 1964): Z, 0, 0.
   CHECK(certified<integer>(dunce_hat()) == std::vector<group>{{1, {}}, {0, {}}, {0, {}}});
   // Invariant factors of Z/2 + Z/4 + Z/12 (structure theorem): 2 | 4 | 12.
-  CHECK(certified<integer>(torsion_mix()) == std::vector<group>{{1, {}}, {1, {"2", "4", "12"}}, {0, {}}});
+  CHECK(certified<integer>(torsion_2_4_12()) == std::vector<group>{{1, {}}, {1, {"2", "4", "12"}}, {0, {}}});
   // The matching complex of K_7: H_1 = Z/3 (Bouc 1992, from memory).
   CHECK(certified<integer>(matching_complex(7))[1] == group{0, {"3"}});
 }
@@ -162,7 +150,7 @@ TEST_CASE("mutations of certificates are rejected, naming the group and factor")
   CHECK(mutations_rejected(cell_list::klein_bottle()) >= 8);
   CHECK(mutations_rejected(six_vertex_rp2()) >= 5);
   CHECK(mutations_rejected(seven_vertex_torus()) >= 5);
-  CHECK(mutations_rejected(torsion_mix()) >= 10);
+  CHECK(mutations_rejected(torsion_2_4_12()) >= 10);
   CHECK(mutations_rejected(cell_list::real_projective_space(5)) >= 5);
   // The size at which the coordinates-based check accepted Z/4 for Z/2.
   CHECK(mutations_rejected(lacuna::product(six_vertex_rp2(), polygon(35))) >= 10);
@@ -224,7 +212,7 @@ TEST_CASE("a torsion summand left out with its generator is refused by the torsi
   refused_for_torsion(m7, summand_dropped(m7, 1), 1, "3", "1");
   // Z + Z/2 + Z/4 + Z/12 (the cellular chain complex of torsion_mix) with the Z/2 left out:
   // the order 96 of the torsion against 48.
-  refused_for_torsion(torsion_mix(), summand_dropped(torsion_mix(), 1), 1, "96", "48");
+  refused_for_torsion(torsion_2_4_12(), summand_dropped(torsion_2_4_12(), 1), 1, "96", "48");
 }
 
 TEST_CASE("a torsion witness needs several minors when no one minor has the gcd") {

@@ -42,18 +42,6 @@ cell_list points(int n) {
   return c;
 }
 
-/// H_1 = Z ⊕ Z/2 ⊕ Z/4 ⊕ Z/12 (loops at one vertex, 2-cells along 2b, 4c, 12d), as in
-/// certificate.cpp.
-cell_list torsion_mix() {
-  cell_list c;
-  c.add_cell(0, "v");
-  for (const char* e : {"a", "b", "c", "d"}) c.add_cell(1, e, {{0, 1}, {0, -1}});
-  c.add_cell(2, "B", {{1, 2}});
-  c.add_cell(2, "C", {{2, 4}});
-  c.add_cell(2, "D", {{3, 12}});
-  return c;
-}
-
 template <class R, class C>
 std::vector<group> reduced(const C& c) {
   const auto r = lacuna::certified_homology<R>(c, {.reduced = true});
@@ -103,7 +91,7 @@ TEST_CASE("certificates of reduced homology: a point, S^0 and textbook spaces") 
   // RP^2: H̃ = 0, Z/2, 0; torus 0, Z^2, Z (Hatcher 2002, Example 2.42 and §2.1, from memory).
   CHECK(reduced<integer>(six_vertex_rp2()) == std::vector<group>{{0, {}}, {0, {"2"}}, {0, {}}});
   CHECK(reduced<integer>(seven_vertex_torus()) == std::vector<group>{{0, {}}, {2, {}}, {1, {}}});
-  CHECK(reduced<integer>(torsion_mix()) == std::vector<group>{{0, {}}, {1, {"2", "4", "12"}}, {0, {}}});
+  CHECK(reduced<integer>(torsion_2_4_12()) == std::vector<group>{{0, {}}, {1, {"2", "4", "12"}}, {0, {}}});
   // Over Z/2: RP^2 has H̃ = 0, Z/2, Z/2 (universal coefficients).
   CHECK(reduced<lacuna::z2>(six_vertex_rp2()) == std::vector<group>{{0, {}}, {1, {}}, {1, {}}});
   // The empty complex has no reduced certificate (H̃_{−1}(∅) = Z has no degree in the layout).
@@ -158,7 +146,7 @@ TEST_CASE("certificates of cohomology: the universal coefficient theorem's group
   CHECK(certified_cohomology_groups<integer>(cell_list::projective_plane()) == std::vector<group>{{1, {}}, {0, {}}, {0, {"2"}}});
   CHECK(certified_cohomology_groups<integer>(cell_list::klein_bottle()) == std::vector<group>{{1, {}}, {1, {}}, {0, {"2"}}});
   CHECK(certified_cohomology_groups<integer>(seven_vertex_torus()) == std::vector<group>{{1, {}}, {2, {}}, {1, {}}});
-  CHECK(certified_cohomology_groups<integer>(torsion_mix()) == std::vector<group>{{1, {}}, {1, {}}, {0, {"2", "4", "12"}}});
+  CHECK(certified_cohomology_groups<integer>(torsion_2_4_12()) == std::vector<group>{{1, {}}, {1, {}}, {0, {"2", "4", "12"}}});
   // RP^5: Z, 0, Z/2, 0, Z/2, Z (UCT from H_* = Z, Z/2, 0, Z/2, 0, Z).
   CHECK(certified_cohomology_groups<integer>(cell_list::real_projective_space(5)) ==
         std::vector<group>{{1, {}}, {0, {}}, {0, {"2"}}, {0, {}}, {0, {"2"}}, {1, {}}});
@@ -184,7 +172,7 @@ int kind_mutations_rejected(const C& c, certificate_kind kind, const marks_t* a 
 TEST_CASE("mutations of reduced, relative and cohomology certificates are rejected, naming the group and factor") {
   CHECK(kind_mutations_rejected(six_vertex_rp2(), certificate_kind::reduced) >= 5);
   CHECK(kind_mutations_rejected(seven_vertex_torus(), certificate_kind::reduced) >= 5);
-  CHECK(kind_mutations_rejected(torsion_mix(), certificate_kind::reduced) >= 10);
+  CHECK(kind_mutations_rejected(torsion_2_4_12(), certificate_kind::reduced) >= 10);
   const auto m = five_vertex_moebius();
   const auto rim = marks_of(m, moebius_rim());
   CHECK(kind_mutations_rejected(m, certificate_kind::relative, &rim) >= 5);
@@ -196,7 +184,7 @@ TEST_CASE("mutations of reduced, relative and cohomology certificates are reject
   CHECK(kind_mutations_rejected(t, certificate_kind::relative, &t_point) >= 5);
   CHECK(kind_mutations_rejected(six_vertex_rp2(), certificate_kind::cohomology) >= 5);
   CHECK(kind_mutations_rejected(cell_list::klein_bottle(), certificate_kind::cohomology) >= 8);
-  CHECK(kind_mutations_rejected(torsion_mix(), certificate_kind::cohomology) >= 10);
+  CHECK(kind_mutations_rejected(torsion_2_4_12(), certificate_kind::cohomology) >= 10);
   CHECK(kind_mutations_rejected(cell_list::real_projective_space(5), certificate_kind::cohomology) >= 5);
 }
 

@@ -249,4 +249,16 @@ inline void check_free_block_unimodular(const std::vector<std::vector<integer>>&
   for (const auto& d : s.diagonal) CHECK(d == integer(1));
 }
 
+/// A cell list with H_1 = Z ⊕ Z/2 ⊕ Z/4 ⊕ Z/12 and H_2 = 0: loops a..d at one vertex, 2-cells
+/// attached along 2b, 4c and 12d (the cellular chain complex gives the groups at once).
+inline lacuna::cell_list torsion_2_4_12() {
+  lacuna::cell_list c;
+  c.add_cell(0, "v");
+  for (const char* e : {"a", "b", "c", "d"}) c.add_cell(1, e, {{0, 1}, {0, -1}});
+  c.add_cell(2, "B", {{1, 2}});
+  c.add_cell(2, "C", {{2, 4}});
+  c.add_cell(2, "D", {{3, 12}});
+  return c;
+}
+
 }  // namespace lacuna_test

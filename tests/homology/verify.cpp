@@ -159,18 +159,6 @@ TEST_CASE("verify_generators refuses H_1 = Z + Z/4 for Z + Z/2 at every size") {
   }
 }
 
-/// H_1 = Z + Z/2 + Z/4 + Z/12: loops a..d at one vertex, 2-cells along 2b, 4c and 12d (the
-/// cellular chain complex gives the groups at once).
-cell_list three_torsion_factors() {
-  cell_list c;
-  c.add_cell(0, "v");
-  for (const char* e : {"a", "b", "c", "d"}) c.add_cell(1, e, {{0, 1}, {0, -1}});
-  c.add_cell(2, "B", {{1, 2}});
-  c.add_cell(2, "C", {{2, 4}});
-  c.add_cell(2, "D", {{3, 12}});
-  return c;
-}
-
 TEST_CASE("verify_generators refuses every mutation of a result, naming the group and factor") {
   using verify_mutations::result_mutations_rejected;
   // RP^2 x S^1 (Künneth, above), the torus (H_1 = Z^2, Hatcher 2002 Example 2.36), RP^2 x RP^2
@@ -178,7 +166,7 @@ TEST_CASE("verify_generators refuses every mutation of a result, naming the grou
   CHECK(result_mutations_rejected(lacuna::product(six_vertex_rp2(), circle_of(35))) >= 9);
   CHECK(result_mutations_rejected(seven_vertex_torus()) >= 6);
   CHECK(result_mutations_rejected(lacuna::product(six_vertex_rp2(), six_vertex_rp2())) >= 5);
-  CHECK(result_mutations_rejected(three_torsion_factors()) >= 11);
+  CHECK(result_mutations_rejected(torsion_2_4_12()) >= 11);
 }
 
 TEST_CASE("verify_generators: a torsion summand left out is named, and another basis is accepted") {
@@ -228,7 +216,7 @@ TEST_CASE("verify_generators checks reduced, relative and cohomology results thr
   // Hatcher 2002, Theorem 3.2); the cell list of three torsion factors has H^2 = Z/2 + Z/4 + Z/12.
   CHECK(kind_result_mutations_rejected(six_vertex_rp2(), certificate_kind::reduced) >= 4);
   CHECK(kind_result_mutations_rejected(seven_vertex_torus(), certificate_kind::reduced) >= 5);
-  CHECK(kind_result_mutations_rejected(three_torsion_factors(), certificate_kind::reduced) >= 10);
+  CHECK(kind_result_mutations_rejected(torsion_2_4_12(), certificate_kind::reduced) >= 10);
   const auto m = five_vertex_moebius();
   const auto rim = marks_of(m, moebius_rim());
   CHECK(kind_result_mutations_rejected(m, certificate_kind::relative, &rim) >= 4);
@@ -237,7 +225,7 @@ TEST_CASE("verify_generators checks reduced, relative and cohomology results thr
   CHECK(kind_result_mutations_rejected(t, certificate_kind::relative, &point) >= 5);
   CHECK(kind_result_mutations_rejected(six_vertex_rp2(), certificate_kind::cohomology) >= 4);
   CHECK(kind_result_mutations_rejected(cell_list::klein_bottle(), certificate_kind::cohomology) >= 6);
-  CHECK(kind_result_mutations_rejected(three_torsion_factors(), certificate_kind::cohomology) >= 8);
+  CHECK(kind_result_mutations_rejected(torsion_2_4_12(), certificate_kind::cohomology) >= 8);
   // H^2(RP^2) = Z/2 claimed as Z/4: refused, naming H^2 and its torsion factor 0.
   const auto rp2 = six_vertex_rp2();
   auto h = lacuna::cohomology<integer>(rp2, {.generators = true});
