@@ -246,9 +246,9 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
   // over the ring, so the invariant factors are |U| ones followed by those of B.
   // The column is held dense here: each step then costs the length of the pivot column
   // only, not of the (filling) deferred column.
-  // With 64-bit working coefficients a Rest column may pass 64 bits (M(K_13), level 5:
-  // thousands of its 24 123 deferred columns do) while the unit pivots, reduced ±1
-  // columns, stay small: such a column alone is reduced again from its start over
+  // With 64-bit working coefficients a Rest column may pass 64 bits (M(K_13), level 5: some
+  // of its 24 123 deferred columns do) while the unit pivots, formed without overflow and
+  // with lows ±1, fit: such a column alone is reduced again from its start over
   // lacuna::integer (same operations, exact), instead of the whole route restarting.
   using rest_t = rest_coefficient<W>;
   out.rest.reserve(deferred_columns.size());
