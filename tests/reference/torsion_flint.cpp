@@ -97,4 +97,28 @@ TEST_CASE("a reduction beyond 64 bits: checked_int64 throws, lacuna::integer giv
         flint_test::flint_homology(c));
 }
 
+TEST_CASE("a deferred column beyond 64 bits: reduced alone over lacuna::integer, FLINT's factors") {
+  // δ_1 has columns a = (c0: 2^40, c1: 1) and x = (c1: 2^40, c2: 2): a becomes the unit pivot
+  // of row c1, x is deferred (its low 2 is not a unit), and reducing x against a makes the
+  // entry of row c0 −2^80. The 64-bit pass must not throw: that column alone is redone over
+  // lacuna::integer. Expected: FLINT's Smith form of ∂_2 (ones and 2, since gcd(2^80, 2) = 2).
+  lacuna::cell_list c;
+  c.add_cell(0, "v");
+  const auto a = c.add_cell(1, "a", {{0, 1}, {0, -1}});
+  const auto x = c.add_cell(1, "x", {{0, 1}, {0, -1}});
+  const std::int64_t big = std::int64_t{1} << 40;
+  c.add_cell(2, "c0", {{a, big}});
+  c.add_cell(2, "c1", {{a, 1}, {x, big}});
+  c.add_cell(2, "c2", {{x, 2}});
+  const auto rc = lacuna::elimination_workspace<lacuna::checked_int64>::build(c);
+  const auto inv = lacuna::reduce_coboundaries<integer>(rc);
+  REQUIRE(inv.size() >= 2);
+  CHECK(inv[1].deferred == 1);
+  CHECK(inv[1].widened == 1);  // the path under test was taken
+  CHECK(route_invariants<lacuna::checked_int64>(c) == flint_all(c));
+  CHECK(route_invariants<integer>(c) == flint_all(c));
+  CHECK(lacuna_test::groups_of(lacuna::homology<integer>(c, {}, lacuna::coboundary_reduction{})) ==
+        flint_test::flint_homology(c));
+}
+
 }  // namespace reference_torsion_flint_test

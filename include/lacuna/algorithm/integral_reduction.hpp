@@ -44,6 +44,7 @@
 #include <lacuna/ring/integer.hpp>
 
 #include <algorithm>
+#include <type_traits>
 #include <cstdint>
 #include <limits>
 #include <span>
@@ -75,6 +76,7 @@ struct coboundary_invariants {
   std::size_t unit_pivots = 0;   ///< |U|
   std::size_t cleared = 0;       ///< columns skipped by clearing
   std::size_t deferred = 0;      ///< |Rest| (columns with a non-unit low)
+  std::size_t widened = 0;       ///< Rest columns reduced over lacuna::integer (past 64 bits)
   /// The shape of the matrix given to finish_remainder.
   std::size_t remainder_rows = 0, remainder_cols = 0;  ///< the matrix given to finish_remainder
 };
@@ -162,11 +164,17 @@ namespace detail {
 /// sorted by row; skip[j] set: the column is cleared). Returns the number of unit pivots |U|,
 /// the rows that are their lows, and the deferred columns reduced fully against U (Rest': no
 /// entry in a row of `pivot_rows`).
+/// The coefficients of Rest': W itself, except that 64-bit working coefficients give way to
+/// lacuna::integer there (a deferred column may pass 64 bits while the unit pivots never do).
+template <class W>
+using rest_coefficient = std::conditional_t<std::same_as<W, checked_int64>, integer, W>;
+
 template <class W>
 struct unit_pass_result {
   std::size_t units = 0, cleared = 0, deferred = 0;
+  std::size_t widened = 0;  ///< Rest columns whose reduction passed 64 bits and was redone over lacuna::integer
   std::vector<bool> pivot_rows;
-  std::vector<coboundary_column<W>> rest;
+  std::vector<coboundary_column<rest_coefficient<W>>> rest;
 };
 
 template <class W, class Column>
@@ -178,6 +186,7 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
   out.pivot_rows.assign(nrow, false);
   std::vector<std::int64_t> pivot_of_row(nrow, -1);  // row -> position in `pivots`
   std::vector<col_t> pivots;
+  std::vector<col_t> deferred_columns;  // Rest, as the pass leaves them
   col_t work, scratch;
   // Columns in index order: measured faster than the reverse order on M(K_11) (1.4 s
   // against 3.7 s), and the low at the largest row faster than at the smallest.
@@ -214,14 +223,14 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
         out.pivot_rows[low.index] = true;
         pivots.push_back(std::move(work));
       } else {
-        out.rest.push_back(std::move(work));
+        deferred_columns.push_back(std::move(work));
       }
       work = col_t{};
       break;
     }
   }
   out.units = pivots.size();
-  out.deferred = out.rest.size();
+  out.deferred = deferred_columns.size();
 
   // finish_level: reduce every Rest column fully against U, from the bottom up (a pivot
   // column has no entry below its low, so each step only changes rows above the one it
@@ -237,27 +246,68 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
   // over the ring, so the invariant factors are |U| ones followed by those of B.
   // The column is held dense here: each step then costs the length of the pivot column
   // only, not of the (filling) deferred column.
-  if (!out.rest.empty()) {
+  // With 64-bit working coefficients a Rest column may pass 64 bits (M(K_13), level 5: some
+  // of its 24 123 deferred columns do) while the unit pivots, formed without overflow and
+  // with lows ±1, fit: such a column alone is reduced again from its start over
+  // lacuna::integer (same operations, exact), instead of the whole route restarting.
+  using rest_t = rest_coefficient<W>;
+  out.rest.reserve(deferred_columns.size());
+  if (!deferred_columns.empty()) {
+    if (control) control->report("reducing deferred columns", 0, deferred_columns.size());
     std::vector<W> acc(nrow, zero<W>());
-    for (auto& c : out.rest) {
+    std::vector<integer> wide;  // the dense column over lacuna::integer (W = checked_int64 only)
+    for (auto& c : deferred_columns) {
       if (control) control->check();
-      if (c.empty()) continue;
-      for (const auto& e : c) acc[e.index] = e.value;
-      for (std::size_t r = c.back().index + 1; r-- > 0;) {
-        if (acc[r] == zero<W>()) continue;
-        const std::int64_t p = pivot_of_row[r];
-        if (p < 0) continue;
-        const col_t& P = pivots[static_cast<std::size_t>(p)];
-        const W q = divide_by_unit(acc[r], P.back().value);
-        for (const auto& e : P) acc[e.index] -= q * e.value;
+      coboundary_column<rest_t> reduced;
+      if (c.empty()) {
+        out.rest.push_back(std::move(reduced));
+        continue;
       }
-      c.clear();
-      for (std::size_t r = 0; r < nrow; ++r)
-        if (!(acc[r] == zero<W>())) {
-          c.push_back({static_cast<std::uint32_t>(r), std::move(acc[r])});
-          acc[r] = zero<W>();
+      const std::size_t top = c.back().index + 1;
+      bool done = false;
+      try {
+        for (const auto& e : c) acc[e.index] = e.value;
+        for (std::size_t r = top; r-- > 0;) {
+          if (acc[r] == zero<W>()) continue;
+          const std::int64_t p = pivot_of_row[r];
+          if (p < 0) continue;
+          const col_t& P = pivots[static_cast<std::size_t>(p)];
+          const W q = divide_by_unit(acc[r], P.back().value);
+          for (const auto& e : P) acc[e.index] -= q * e.value;
         }
+        done = true;
+      } catch (const coefficient_overflow&) {
+        if constexpr (!std::same_as<W, checked_int64>) throw;
+        std::fill(acc.begin(), acc.begin() + static_cast<std::ptrdiff_t>(top), zero<W>());
+      }
+      if (done) {
+        for (std::size_t r = 0; r < top; ++r)
+          if (!(acc[r] == zero<W>())) {
+            reduced.push_back({static_cast<std::uint32_t>(r), rest_t(working_to_ring<rest_t>(acc[r]))});
+            acc[r] = zero<W>();
+          }
+      } else if constexpr (std::same_as<W, checked_int64>) {
+        ++out.widened;
+        if (wide.empty()) wide.assign(nrow, integer(0));
+        for (const auto& e : c) wide[e.index] = integer(e.value.v);
+        for (std::size_t r = top; r-- > 0;) {
+          if (wide[r] == integer(0)) continue;
+          const std::int64_t p = pivot_of_row[r];
+          if (p < 0) continue;
+          const col_t& P = pivots[static_cast<std::size_t>(p)];
+          const integer q = P.back().value.v == 1 ? wide[r] : -wide[r];  // the low is ±1
+          for (const auto& e : P) wide[e.index] -= q * integer(e.value.v);
+        }
+        for (std::size_t r = 0; r < top; ++r)
+          if (!(wide[r] == integer(0))) {
+            reduced.push_back({static_cast<std::uint32_t>(r), std::move(wide[r])});
+            wide[r] = integer(0);
+          }
+      }
+      col_t().swap(c);
+      out.rest.push_back(std::move(reduced));
     }
+    if (control) control->report("reducing deferred columns", deferred_columns.size(), deferred_columns.size());
   }
   return out;
 }
@@ -365,6 +415,7 @@ std::vector<coboundary_invariants<R>> reduce_coboundaries(const elimination_work
     res.unit_pivots = pass.units;
     res.cleared = pass.cleared;
     res.deferred = pass.deferred;
+    res.widened = pass.widened;
     sparse_matrix<R> B = detail::compact_remainder<R>(pass.rest, nrow);
     const std::size_t units = pass.units;
     res.remainder_rows = B.rows;
