@@ -196,8 +196,7 @@ class Run:
             x = twin.read_complex(self.path(file))
             marks = None
             if sub:
-                twin.x_path_global[0] = self.path(file)
-                marks = twin.read_marks(x, self.path(sub))
+                marks = twin.read_marks(x, self.path(file), self.path(sub))
             d = twin.Derived(x, kind, marks)
             for what, mutated in mutate(cert, d, coefficients):
                 name = f"{file} {kind} over {coefficients}, {what}"
