@@ -24,6 +24,7 @@ import sys
 import tempfile
 
 HERE = os.path.dirname(os.path.abspath(__file__))
+sys.dont_write_bytecode = True  # the source tree is not written to
 sys.path.insert(0, HERE)
 import certificate_check as twin  # noqa: E402
 
