@@ -19,6 +19,7 @@ packages=(
   libopenmpi-dev        # the MPI part (include/lacuna/distributed/, lacuna-mpi, tests/distributed/)
   openmpi-bin           # mpiexec, which runs the tests of the MPI part
   dpkg-dev              # cpack -G DEB: dpkg-shlibdeps finds the tool's library dependencies
+  python3               # tests/python: the second checker of certificates (standard library only)
 )
 
 missing=()

@@ -435,13 +435,17 @@ certified_homology_result<R> certified_absolute(const C& c, homology_options opt
 }
 
 /// A certificate of a reduced, relative or cohomology result: certified_absolute on the
-/// derived complex (homology/certificate.hpp, detail::cert::build_view: the augmented complex,
+/// derived complex D (homology/certificate.hpp, detail::cert::build_view: the augmented complex,
 /// the quotient C(X)/C(A), the dual complex whose boundaries are X's coboundaries), its
-/// witnesses read back in X's cells and in the layout of the kind. The result is the engine's
-/// own result of that kind (homology with options.reduced, relative_homology, cohomology, with
-/// generators); its groups must be the certified ones (std::logic_error otherwise: an engine
-/// fault, never a wrong certificate). Cost: certified_absolute on a copy of the complex (the
-/// coboundaries transposed, for cohomology), plus the engine's result.
+/// witnesses read back in X's cells and in the layout of the kind. The result of the kind is
+/// built from the same run, without running the engine again: each of the three kinds *is*
+/// the homology of D by definition (docs/certificates.md, "Reduced, relative and cohomology"),
+/// so its groups are the certified groups, its generators the certificate's (D's generators
+/// read back in X's cells), and coordinates() uses the elimination basis of D, whose levels are
+/// the result's levels: view degree k + 1 for reduced degree k (level_offset_ = −1), top − k for
+/// cohomology degree k (levels numbered from the top), and for a pair X's cells renumbered into
+/// D's (from_original: the cells of A map to −1, zero in the quotient). Cost: certified_absolute
+/// on a copy of the complex (the coboundaries transposed, for cohomology).
 template <certifiable_ring R, cell_complex C>
 certified_homology_result<R> certified_kind(const C& c, certificate_kind kind, const std::vector<std::vector<bool>>* marks,
                                             homology_options options) {
@@ -453,28 +457,44 @@ certified_homology_result<R> certified_kind(const C& c, certificate_kind kind, c
   auto on_view = certified_absolute<R>(v.cx, inner);
   certified_homology_result<R> out;
   out.certificate = cert::certificate_from(v, on_view.certificate);
-  options.generators = true;
-  options.witnesses = false;  // the witnesses are the certificate's, from the derived complex
-  if (kind == certificate_kind::reduced) {
-    options.reduced = true;
-    out.result = homology<R>(c, options, sparse_elimination{});
-  } else if (kind == certificate_kind::relative) {
-    options.reduced = false;
-    out.result = relative_homology<R>(c, *marks, options, sparse_elimination{});
-  } else {
-    options.reduced = false;
-    out.result = cohomology<R>(c, options, sparse_elimination{});
+  auto& res = out.result;
+  res.reduced = kind == certificate_kind::reduced;
+  res.relative = kind == certificate_kind::relative;
+  res.cohomology = kind == certificate_kind::cohomology;
+  for (const auto& cg : out.certificate.groups) {
+    homology_group<R> g;
+    g.dimension = cg.dimension;
+    g.rank = cg.rank;
+    g.torsion = cg.torsion;
+    g.generators = cg.generators;
+    g.orders.assign(cg.rank, zero<R>());
+    g.orders.insert(g.orders.end(), cg.torsion.begin(), cg.torsion.end());
+    g.bounding_chains = cg.bounding_chains;  // witnesses are on, as for certified_homology
+    res.groups.push_back(std::move(g));
   }
-  const auto& groups = out.certificate.groups;
-  bool same = out.result.top_dimension() + 1 == static_cast<int>(groups.size());
-  for (std::size_t k = 0; same && k < groups.size(); ++k) {
-    const auto& a = out.result.groups[k];
-    same = a.rank == groups[k].rank && a.torsion.size() == groups[k].torsion.size();
-    for (std::size_t i = 0; same && i < a.torsion.size(); ++i) same = normalize(a.torsion[i]) == normalize(groups[k].torsion[i]);
+  const int top = lacuna::top_dimension(c);
+  res.top_ = top;
+  res.level_offset_ = res.reduced ? -1 : 0;
+  res.ring_one_ = on_view.result.ring_one_;
+  res.basis_ = std::move(on_view.result.basis_);
+  if (!res.basis_ || on_view.result.project_)
+    throw std::logic_error("lacuna::certified_homology: the engine kept no elimination basis of the derived complex");
+  if (res.relative) {
+    // D's level k holds X's k-cells outside A, renumbered: coordinates() reads a chain of X
+    // through this map, as the engine's relative result does.
+    auto& from = res.basis_->from_original;
+    from.resize(static_cast<std::size_t>(top + 1));
+    for (int k = 0; k <= top; ++k) {
+      const std::size_t n = lacuna::cell_count(c, k);
+      auto& f = from[static_cast<std::size_t>(k)];
+      std::vector<std::int64_t> on_view_cells;  // D's own renumbering, if the engine made one
+      on_view_cells.swap(f);
+      f.assign(n, -1);
+      for (std::size_t i = 0; i < n; ++i)
+        if (const std::size_t j = v.inside(k, i); j != cert::view<C>::npos)
+          f[i] = on_view_cells.empty() ? static_cast<std::int64_t>(j) : on_view_cells[j];
+    }
   }
-  if (!same)
-    throw std::logic_error(std::string("lacuna::certified_homology: the engine's ") + certificate_kind_name(kind) +
-                           " result differs from the groups certified on the derived complex");
   return out;
 }
 
@@ -489,7 +509,8 @@ certified_homology_result<R> certified_kind(const C& c, certificate_kind kind, c
 /// std::invalid_argument for the empty complex). Throws std::runtime_error if no torsion
 /// witness is found within its bound of tries (never returns a certificate that does not
 /// check). The result is what homology() with those options returns (the elimination route,
-/// without a Morse pre-reduction). check_certificate(c, r.certificate) verifies the certificate.
+/// without a Morse pre-reduction); with options.reduced, it is built from the one run on the
+/// augmented complex (the certified groups, the certificate's generators; see certified_kind). check_certificate(c, r.certificate) verifies the certificate.
 template <certifiable_ring R, cell_complex C>
 certified_homology_result<R> certified_homology(const C& c, homology_options options = {}) {
   if (options.reduced) return detail::certify::certified_kind<R>(c, certificate_kind::reduced, nullptr, options);
