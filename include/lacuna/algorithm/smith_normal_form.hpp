@@ -16,6 +16,7 @@
 #include <lacuna/algorithm/dense_smith.hpp>
 #include <lacuna/algorithm/modular_smith.hpp>
 #include <lacuna/algorithm/smith_invariants.hpp>
+#include <lacuna/algorithm/stages.hpp>
 #include <lacuna/algorithm/unit_elimination.hpp>
 #include <lacuna/chain/checked_coefficient.hpp>
 #include <lacuna/chain/run_control.hpp>
@@ -95,9 +96,46 @@ struct sparse_elimination {
     }
     return e;
   }
+
+  /// The stages this variant runs (algorithm/stages.hpp), its fields applied: lacuna::homology
+  /// with sparse_elimination{...} is lacuna::homology with stages(), one code path. To replace
+  /// a stage, keep the others from here, e.g.
+  ///   auto s = sparse_elimination{}.stages();
+  ///   staged_elimination<my_pre, decltype(s.eliminate), decltype(s.core), decltype(s.route)>{
+  ///       .eliminate = s.eliminate, .core = s.core, .route = s.route}
+  default_route stages() const { return stages_of(effective_elimination()); }
+
+  /// The stages for elimination options `e` (with this variant's route choice): with
+  /// set-aside, the zero-fill pivots and set-aside first (zero_fill_reduction), then, when
+  /// `e` asks for Markowitz pivots after them (markowitz and second_pass), the elimination of
+  /// what is left; without set-aside, no pre-reduction and a single elimination with the
+  /// pivot kinds of `e`. Either way the pivots are those eliminate_unit_pivots(e) takes.
+  default_route stages_of(const elimination_options& e) const {
+    default_route s;
+    if (e.set_aside) {
+      s.pre = {.coreductions = e.coreductions, .collapses = e.collapses};
+      if (e.markowitz && e.second_pass)
+        s.eliminate = {.coreductions = e.coreductions, .collapses = e.collapses, .markowitz = true};
+      else
+        s.eliminate = {.coreductions = false, .collapses = false, .markowitz = false};
+    } else {
+      s.pre = {.coreductions = false, .collapses = false};
+      s.eliminate = {.coreductions = e.coreductions, .collapses = e.collapses, .markowitz = e.markowitz};
+    }
+    const bool default_reduction = reduction == pre_reduction::coreductions_and_collapses;
+    s.route = {.cubical_duality = cubical_duality && (default_reduction || reduction == pre_reduction::morse),
+               .coboundary = allow_coboundary_route && default_reduction,
+               .morse = reduction == pre_reduction::morse,
+               .field_column_reduction = field_column_reduction};
+    return s;
+  }
 };
 /// The reference variant: dense Smith forms of whole matrices. For small inputs only.
-struct dense_elimination {};
+struct dense_elimination {
+  /// Its stages (algorithm/stages.hpp): no reduction, the Smith form of each whole boundary
+  /// matrix, no route choice.
+  staged_elimination<no_reduction, no_reduction, smith_core> stages() const { return {}; }
+};
 
 template <class P>
 concept smith_algorithm = std::same_as<P, sparse_elimination> || std::same_as<P, dense_elimination>;
@@ -108,11 +146,16 @@ smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimina
                                  const run_control* control) {
   auto rc = elimination_workspace<W>::from_matrix(A, convert);
   auto opt = alg.effective_elimination();
-  opt.set_aside = false;
-  opt.record = false;
-  opt.control = control;
-  const auto stats = eliminate_unit_pivots(rc, opt);
-  const std::size_t pivots = stats.coreductions + stats.collapses + stats.markowitz;
+  opt.set_aside = false;  // a matrix has no cells to set aside
+  const auto stages = alg.stages_of(opt);
+  elimination_log<W>* const no_log = nullptr;
+  stages.pre.reduce(rc, no_log, control);
+  stages.eliminate.reduce(rc, no_log, control);
+  // Every pivot eliminated one column (and one row) with a unit incidence: that many unit
+  // invariant factors.
+  std::size_t pivots = 0;
+  for (std::uint32_t j = 0; j < A.cols; ++j)
+    if (!rc.alive(1, j)) ++pivots;
   // The core: surviving rows and columns that still meet a non-zero entry.
   std::vector<std::int64_t> rpos(A.rows, -1), cpos(A.cols, -1);
   std::size_t nr = 0, nc = 0;
@@ -129,19 +172,12 @@ smith_invariants<R> sparse_smith(const sparse_matrix<R>& A, const sparse_elimina
         else
           core(static_cast<std::size_t>(rpos[e.index]), static_cast<std::size_t>(cpos[j])) = e.value;
       }
+  // The core stage (smith_core: modular over the integers when its proofs go through, else
+  // the dense Smith form).
+  auto s = stages.core.invariants(std::move(core), control);
   smith_invariants<R> out;
-  if constexpr (std::same_as<R, integer>) {  // modular, when its proofs go through
-    if (prefer_modular_smith(core))
-      if (auto s = modular_smith_invariants(core, control)) {
-        out.factors.assign(pivots, one<R>());
-        out.factors.insert(out.factors.end(), s->factors.begin(), s->factors.end());
-        out.rank = out.factors.size();
-        return out;
-      }
-  }
-  const auto d = dense_smith_form(std::move(core), {.control = control});
   out.factors.assign(pivots, one<R>());
-  out.factors.insert(out.factors.end(), d.diagonal.begin(), d.diagonal.end());
+  out.factors.insert(out.factors.end(), s.factors.begin(), s.factors.end());
   out.rank = out.factors.size();
   return out;
 }

@@ -86,6 +86,11 @@ struct elimination_log {
   std::vector<sparse_entry<R>> affected;
   /// The entries that elimination_step::pivot_begin and pivot_end delimit.
   std::vector<sparse_entry<R>> pivot;
+  /// Set by the caller before an elimination: whether the steps also record each pivot's
+  /// boundary (`pivot`; needed to push chains into the reduced complex, e.g. for coordinates).
+  /// The reduction stages of algorithm/stages.hpp pass it on as
+  /// elimination_options::record_pivots.
+  bool pivots_wanted = true;
 };
 
 /// Counts of what an elimination did, per kind of pivot.
@@ -165,7 +170,8 @@ class unit_eliminator {
  public:
   unit_eliminator(elimination_workspace<R>& rc, const elimination_options& opt, elimination_log<R>* log,
                   const Rule& rule = {})
-      : rc_(rc), opt_(opt), log_(log), rule_(rule), ticker_(opt.control, "eliminating unit pivots", total_cells(rc)) {}
+      : rc_(rc), opt_(opt), log_(log), rule_(rule), ticker_(opt.control, "eliminating unit pivots", total_cells(rc),
+                                                              eliminated_cells(rc, opt.control)) {}
 
   elimination_statistics run() {
     const int nl = rc_.levels();
@@ -213,6 +219,15 @@ class unit_eliminator {
   static std::uint64_t total_cells(const elimination_workspace<R>& rc) {
     std::uint64_t n = 0;
     for (int L = 0; L < rc.levels(); ++L) n += rc.size(L);
+    return n;
+  }
+  // Cells an earlier elimination removed (its progress counted them), when progress is
+  // reported: a later stage of a pipeline continues the count instead of starting at zero.
+  static std::uint64_t eliminated_cells(const elimination_workspace<R>& rc, const run_control* control) {
+    if (!control || !control->progress) return 0;
+    std::uint64_t n = 0;
+    for (int L = 0; L < rc.levels(); ++L)
+      for (std::uint32_t i = 0; i < rc.size(L); ++i) n += rc.cell_state(L, i) == st::eliminated;
     return n;
   }
 

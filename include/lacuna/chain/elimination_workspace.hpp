@@ -40,8 +40,8 @@ namespace lacuna {
 template <class R>
 using sparse_entry = term<std::uint32_t, R>;
 
-/// How to build a elimination_workspace from a cell complex.
-struct reducible_build_options {
+/// How to build an elimination_workspace from a cell complex.
+struct workspace_build_options {
   bool augmented = false;  ///< add the empty cell in dimension -1 (reduced homology)
   bool dual = false;       ///< coboundaries as boundaries: level L = dimension top - L
   /// Cells to leave out, for the quotient chain complex C(X)/C(A) (relative homology):
@@ -53,6 +53,10 @@ struct reducible_build_options {
   /// Stop request (checked every 4096 cells, from either thread); may be null.
   const run_control* control = nullptr;
 };
+
+/// The former name of workspace_build_options (it built a reducible_complex, now
+/// elimination_workspace).
+using reducible_build_options [[deprecated("lacuna: use workspace_build_options")]] = workspace_build_options;
 
 /// A mutable sparse chain complex. R models commutative_ring (the working coefficients).
 template <class R>
@@ -141,7 +145,7 @@ class elimination_workspace {
   /// unit. `ring_one` is the one of R; it matters for rings whose modulus lives in the elements
   /// (mod_p_dynamic: pass a bound one, mod_p_dynamic(1, p)).
   template <cell_complex C>
-  static elimination_workspace build(const C& c, reducible_build_options opt = {}, const R& ring_one = one<R>()) {
+  static elimination_workspace build(const C& c, workspace_build_options opt = {}, const R& ring_one = one<R>()) {
     if (opt.dual && opt.augmented) throw std::invalid_argument("elimination_workspace: dual and augmented together");
     elimination_workspace rc;
     const int top = lacuna::top_dimension(c);

@@ -95,9 +95,11 @@ namespace detail {
 /// 4096 steps it checks the stop request). A null control makes it a counter only.
 class progress_ticker {
  public:
-  progress_ticker(const run_control* control, std::string_view phase, std::uint64_t total)
-      : control_(control), phase_(phase), total_(total), step_(std::max<std::uint64_t>(total / 256, 1)) {
-    if (control_) control_->report(phase_, 0, total_);
+  /// `already`: units of the phase an earlier step did (the count starts there).
+  progress_ticker(const run_control* control, std::string_view phase, std::uint64_t total, std::uint64_t already = 0)
+      : control_(control), phase_(phase), total_(total), step_(std::max<std::uint64_t>(total / 256, 1)),
+        done_(already), next_report_(already) {
+    if (control_) control_->report(phase_, std::min(done_, total_), total_);
   }
   /// n more steps done.
   void operator()(std::uint64_t n = 1) {

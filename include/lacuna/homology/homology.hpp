@@ -23,15 +23,18 @@
 
 namespace lacuna {
 
-// ---- variants (policy values, from lacuna/algorithm/smith_normal_form.hpp) ---------------
-//   sparse_elimination{}  the default: unit pivots eliminated on the whole chain complex,
-//                         then dense Smith forms of the small core;
+// ---- variants (policy values, from lacuna/algorithm/smith_normal_form.hpp and stages.hpp) ----
+//   sparse_elimination{}  the default: the route choice (automatic_route: duality for
+//                         volumes, the coboundary route over Z and Q, field ranks over Z/p),
+//                         else unit pivots eliminated on the whole chain complex, then Smith
+//                         forms of the small core. It runs as its stages() — default_route,
+//                         a staged_elimination — through the same code as the user's own.
 //   dense_elimination{}   the reference for small complexes: dense Smith forms of the whole
-//                         boundary matrices.
+//                         boundary matrices (its stages(): no reduction, smith_core).
 //   coboundary_reduction{} ranks and torsion by unit-pivot reduction of the coboundaries
 //                         with clearing (lacuna/algorithm/integral_reduction.hpp); what it
 //                         cannot give (generators, a basis, cohomology) runs sparse_elimination{}.
-//   staged_elimination<Pre, Eliminate, Core>{} the elimination route with its stages named,
+//   staged_elimination<Pre, Eliminate, Core, Route>{} the computation with its stages named,
 //                         the user's own among them (lacuna/algorithm/stages.hpp).
 template <class P>
 concept homology_algorithm = smith_algorithm<P> || std::same_as<P, coboundary_reduction> || staged_algorithm<P>;
@@ -51,15 +54,10 @@ homology_result<R> homology(const C& c, homology_options options = {}, const Alg
                             const R& ring_one = one<R>()) {
   if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
     return detail::homology_by_coboundaries<R>(c, options, algorithm, nullptr, ring_one);
+  } else if constexpr (smith_algorithm<Algorithm>) {
+    return detail::staged_homology<R>(c, options, algorithm.stages(), false, nullptr, ring_one);
   } else {
-    if constexpr (std::same_as<Algorithm, sparse_elimination>) {
-      if (auto r = detail::duality_homology<R>(c, options, algorithm, false, ring_one)) return std::move(*r);
-      if (detail::coboundary_route_by_default<R, C>(options, algorithm))
-        return detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, nullptr, ring_one);
-      if (algorithm.reduction == pre_reduction::morse)
-        if (auto r = detail::morse_homology<R>(c, options, algorithm, false, ring_one)) return std::move(*r);
-    }
-    return detail::assemble<R>(c, options, algorithm, false, nullptr, ring_one);
+    return detail::staged_homology<R>(c, options, algorithm, false, nullptr, ring_one);
   }
 }
 
@@ -77,11 +75,10 @@ homology_result<R> relative_homology(const C& c, const std::vector<std::vector<b
   };
   if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
     return marked(detail::homology_by_coboundaries<R>(c, options, algorithm, &in_subcomplex, ring_one));
+  } else if constexpr (smith_algorithm<Algorithm>) {
+    return marked(detail::staged_homology<R>(c, options, algorithm.stages(), false, &in_subcomplex, ring_one));
   } else {
-    if constexpr (std::same_as<Algorithm, sparse_elimination>)
-      if (detail::coboundary_route_by_default<R, C>(options, algorithm))
-        return marked(detail::homology_by_coboundaries<R>(c, options, coboundary_reduction{}, &in_subcomplex, ring_one));
-    return marked(detail::assemble<R>(c, options, algorithm, false, &in_subcomplex, ring_one));
+    return marked(detail::staged_homology<R>(c, options, algorithm, false, &in_subcomplex, ring_one));
   }
 }
 
@@ -90,15 +87,12 @@ homology_result<R> relative_homology(const C& c, const std::vector<std::vector<b
 template <euclidean_domain R, cell_complex C, homology_algorithm Algorithm = sparse_elimination>
 homology_result<R> cohomology(const C& c, homology_options options = {}, const Algorithm& algorithm = {},
                               const R& ring_one = one<R>()) {
-  if constexpr (std::same_as<Algorithm, coboundary_reduction>) {
-    return detail::assemble<R>(c, options, sparse_elimination{}, true, nullptr, ring_one);  // not on this route
+  if constexpr (std::same_as<Algorithm, coboundary_reduction>) {  // not on this route: the default one
+    return detail::staged_homology<R>(c, options, sparse_elimination{}.stages(), true, nullptr, ring_one);
+  } else if constexpr (smith_algorithm<Algorithm>) {
+    return detail::staged_homology<R>(c, options, algorithm.stages(), true, nullptr, ring_one);
   } else {
-    if constexpr (std::same_as<Algorithm, sparse_elimination>) {
-      if (auto r = detail::duality_homology<R>(c, options, algorithm, true, ring_one)) return std::move(*r);
-      if (algorithm.reduction == pre_reduction::morse)
-        if (auto r = detail::morse_homology<R>(c, options, algorithm, true, ring_one)) return std::move(*r);
-    }
-    return detail::assemble<R>(c, options, algorithm, true, nullptr, ring_one);
+    return detail::staged_homology<R>(c, options, algorithm, true, nullptr, ring_one);
   }
 }
 

@@ -1,7 +1,9 @@
 // lacuna/homology/routes.hpp — the routes behind lacuna::homology, relative_homology and
 // cohomology (homology/homology.hpp is the front that chooses among them).
 //
-// Routes (docs/homology.md, "How the engine works"); each one is exact. Groups only (no
+// Routes (docs/homology.md, "How the engine works"); each one is exact. Which one runs is
+// the route choice of the algorithm (a route_selector, algorithm/stages.hpp; staged_homology
+// at the end of this header asks it); the built-in automatic_route picks, for groups only (no
 // generators, no basis):
 //   * images and volumes of dimension <= 3, any ring: two voxel labellings and the Euler
 //     characteristic (algorithm/cubical_duality.hpp; such complexes have no torsion);
@@ -10,10 +12,11 @@
 //   * over Z/2 and Z/p: column reductions with clearing (algorithm/field_ranks.hpp).
 // Everything else (generators, coordinates, relative groups of volumes, other variants): the
 // route below.
-// The route below: the complex is indexed into a elimination_workspace over working coefficients
-// W, reduced by eliminate_unit_pivots (the seam where other pre-reductions slot in), and the
-// small core that is left is finished by Smith forms (modular ones where they pay and only
-// groups are asked for, algorithm/modular_smith.hpp; else dense ones with transforms):
+// The route below: the complex is indexed into an elimination_workspace over working
+// coefficients W, reduced by the algorithm's reduction stages (pre, then eliminate; the
+// built-in ones call eliminate_unit_pivots), and the small core that is left is finished by
+// its core stage when only groups are asked for (smith_core: modular Smith forms where they
+// pay, algorithm/modular_smith.hpp), else by dense Smith forms with transforms:
 //   D_k = boundary out of level k, U D_k V = diag(d_1..d_r): ker D_k = V[:, r..];
 //   M = (V^-1 D_{k+1})[r.., :], U' M V' = diag(e_1..e_s): H_k = Z^{n_k - r - s} + sum Z/e_i,
 //   generators = V[:, r..] U'^-1, one per column (columns with a unit e_i are boundaries).
@@ -51,11 +54,13 @@
 #include <lacuna/ring/integer.hpp>
 #include <lacuna/ring/rational.hpp>
 
+#include <algorithm>
 #include <cstdint>
 #include <memory>
 #include <optional>
 #include <stdexcept>
 #include <string>
+#include <string_view>
 #include <type_traits>
 #include <vector>
 
@@ -232,7 +237,7 @@ void require_boundary_squared_zero(const elimination_workspace<W>& rc, const C& 
 /// R), with the ∂∂ = 0 precondition checked and the phase "building the chain complex"
 /// reported to build.control (not null).
 template <class R, class W, cell_complex C>
-elimination_workspace<W> build_checked_complex(const C& c, const reducible_build_options& build, const R& ring_one) {
+elimination_workspace<W> build_checked_complex(const C& c, const workspace_build_options& build, const R& ring_one) {
   build.control->report("building the chain complex", 0, 1);
   elimination_workspace<W> rc;
   if constexpr (std::same_as<R, W>)
@@ -244,43 +249,50 @@ elimination_workspace<W> build_checked_complex(const C& c, const reducible_build
   return rc;
 }
 
-/// The whole computation at one working coefficient type W.
+/// The whole computation at one working coefficient type W, on the elimination route or,
+/// with `field_ranks` (the route choice's homology_route::field_ranks), by column reductions
+/// over the field when no log is needed.
 template <class R, class W, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels(const C& c, const homology_options& opt, const Algorithm& alg,
-                                            reducible_build_options build, std::shared_ptr<homology_basis<R>>* basis,
-                                            const R& ring_one) {
+                                            workspace_build_options build, std::shared_ptr<homology_basis<R>>* basis,
+                                            const R& ring_one, bool field_ranks) {
   const run_control* control = &opt.control;
   build.control = control;
   elimination_workspace<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   elimination_log<W> log;
   const bool keep = opt.keep_basis.value_or(false);
   const bool want_log = opt.generators || keep;
-  if constexpr (std::same_as<Algorithm, sparse_elimination> && std::same_as<R, W> && has_fast_column_reduction<R>)
-    if (alg.field_column_reduction && !want_log) {  // over Z/2, Z/p: algorithm/field_ranks.hpp
+  log.pivots_wanted = keep;
+  if constexpr (std::same_as<R, W> && has_fast_column_reduction<R>)
+    if (field_ranks && !want_log) {  // over Z/2, Z/p: algorithm/field_ranks.hpp
       // No coreductions or collapses first: measured slower than reducing at once (docs/performance.md).
       const auto betti = field_betti_numbers(rc, nullptr, {.control = control});
       std::vector<level_result<R>> out(betti.size());
       for (std::size_t L = 0; L < betti.size(); ++L) out[L].rank = betti[L];
       return out;
     }
-  if constexpr (std::same_as<Algorithm, sparse_elimination>) {
-    auto eo = alg.effective_elimination();
-    eo.record = want_log;
-    eo.record_pivots = keep;
-    eo.control = control;
-    eliminate_unit_pivots(rc, eo, want_log ? &log : nullptr);
-  } else if constexpr (staged_algorithm<Algorithm>) {  // the stages of algorithm/stages.hpp
-    control->report("eliminating unit pivots", 0, 1);
-    alg.pre.reduce(rc, want_log ? &log : nullptr, control);
-    alg.eliminate.reduce(rc, want_log ? &log : nullptr, control);
-    control->report("eliminating unit pivots", 1, 1);
+  // The reduction stages (algorithm/stages.hpp). The built-in ones report the phase
+  // "eliminating unit pivots" themselves, each closing it; the caller sees one phase: its
+  // reports never go back, and it closes once, after the last stage.
+  {
+    constexpr std::string_view phase = "eliminating unit pivots";
+    std::uint64_t total = 0, shown = 0;
+    for (int L = 0; L < rc.levels(); ++L) total += rc.size(L);
+    run_control stages_control = *control;
+    if (control->progress)
+      stages_control.progress = [&](const progress_report& r) {
+        if (r.phase != phase) return control->progress(r);
+        if (r.total == 0 || r.done >= r.total) return;  // a stage closing: not yet the phase
+        shown = std::max(shown, r.done);
+        control->progress(progress_report{phase, shown, r.total});
+      };
+    alg.pre.reduce(rc, want_log ? &log : nullptr, &stages_control);
+    alg.eliminate.reduce(rc, want_log ? &log : nullptr, &stages_control);
+    control->report(phase, total, total);
   }
   std::vector<level_coordinates<R>> lb;
   std::vector<level_result<R>> levels;
-  if constexpr (staged_algorithm<Algorithm>)
-    levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
-  else
-    levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses);
+  levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators) {
     control->report("lifting generators", 0, 1);
@@ -321,34 +333,33 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   return levels;
 }
 
-/// Whether the integers run at checked 64-bit working coefficients first: sparse_elimination,
-/// and staged_elimination whose reduction stages are generic in the working coefficients.
+/// Whether the integers run at checked 64-bit working coefficients first: when the
+/// reduction stages are generic in the working coefficients (the built-in ones are).
 template <class Algorithm>
-inline constexpr bool fast_integer_path = std::same_as<Algorithm, sparse_elimination>;
-template <class Pre, class Eliminate, class Core>
-inline constexpr bool fast_integer_path<staged_elimination<Pre, Eliminate, Core>> =
+inline constexpr bool fast_integer_path = false;
+template <class Pre, class Eliminate, class Core, class Route>
+inline constexpr bool fast_integer_path<staged_elimination<Pre, Eliminate, Core, Route>> =
     reduction_stage<Pre, checked_int64> && reduction_stage<Eliminate, checked_int64>;
 
 template <class R, cell_complex C, class Algorithm>
 std::vector<level_result<R>> compute_levels_any(const C& c, const homology_options& opt, const Algorithm& alg,
-                                                reducible_build_options build,
-                                                std::shared_ptr<homology_basis<R>>* basis, const R& ring_one) {
-  if constexpr (staged_algorithm<Algorithm>) {
-    static_assert(reduction_stage<decltype(alg.pre), R>,
-                  "lacuna: the pre-reduction stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
-    static_assert(reduction_stage<decltype(alg.eliminate), R>,
-                  "lacuna: the elimination stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
-    static_assert(core_stage<decltype(alg.core), R>,
-                  "lacuna: the core stage does not model core_stage at this ring (algorithm/stages.hpp)");
-  }
+                                                workspace_build_options build,
+                                                std::shared_ptr<homology_basis<R>>* basis, const R& ring_one,
+                                                bool field_ranks) {
+  static_assert(reduction_stage<decltype(alg.pre), R>,
+                "lacuna: the pre-reduction stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
+  static_assert(reduction_stage<decltype(alg.eliminate), R>,
+                "lacuna: the elimination stage does not model reduction_stage at this ring (algorithm/stages.hpp)");
+  static_assert(core_stage<decltype(alg.core), R>,
+                "lacuna: the core stage does not model core_stage at this ring (algorithm/stages.hpp)");
   if constexpr (std::same_as<R, integer> && fast_integer_path<Algorithm>) {
     try {
-      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, ring_one);
+      return compute_levels<R, checked_int64>(c, opt, alg, build, basis, ring_one, field_ranks);
     } catch (const coefficient_overflow&) {
       // Widen: repeat with coefficients that cannot overflow.
     }
   }
-  return compute_levels<R, R>(c, opt, alg, build, basis, ring_one);
+  return compute_levels<R, R>(c, opt, alg, build, basis, ring_one, field_ranks);
 }
 
 }  // namespace detail
@@ -356,11 +367,11 @@ std::vector<level_result<R>> compute_levels_any(const C& c, const homology_optio
 namespace detail {
 template <euclidean_domain R, cell_complex C, class Algorithm>
 homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& alg, bool is_cohomology,
-                            const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
+                            const std::vector<std::vector<bool>>* excluded, const R& ring_one, bool field_ranks) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (is_cohomology && opt.reduced) throw std::invalid_argument("lacuna: reduced cohomology is not offered; use reduced homology");
   if (is_cohomology && opt.witnesses) throw std::invalid_argument("lacuna: witnesses are offered for homology, not cohomology");
-  reducible_build_options b{.augmented = opt.reduced, .dual = is_cohomology, .excluded = excluded, .threads = opt.threads};
+  workspace_build_options b{.augmented = opt.reduced, .dual = is_cohomology, .excluded = excluded, .threads = opt.threads};
   homology_result<R> res;
   res.cohomology = is_cohomology;
   res.reduced = opt.reduced;
@@ -368,7 +379,7 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
   const int top = lacuna::top_dimension(c);
   res.top_ = top;
   res.ring_one_ = ring_one;
-  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, ring_one);
+  auto levels = compute_levels_any<R>(c, opt, alg, b, &res.basis_, ring_one, field_ranks);
   for (int k = 0; k <= top; ++k) {
     const int L = is_cohomology ? top - k : k - res.level_offset_;
     auto& lr = levels[static_cast<std::size_t>(L)];
@@ -396,26 +407,29 @@ homology_result<R> assemble(const C& c, homology_options opt, const Algorithm& a
 namespace detail {
 
 /// The algebra on a Morse complex m of c (pre_reduction::morse): generators are lifted to
-/// c, and with a basis, coordinates() first projects a cycle of c to m.
-template <euclidean_domain R, class M, class Lift, class Project>
-homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const sparse_elimination& alg, bool is_cohomology,
+/// c, and with a basis, coordinates() first projects a cycle of c to m. The route choice is
+/// asked again on m, with algebra_only (field ranks or the elimination).
+template <euclidean_domain R, class M, class Algorithm, class Lift, class Project>
+homology_result<R> on_morse_complex(const M& m, const homology_options& opt, const Algorithm& alg, bool is_cohomology,
                                     const R& ring_one, Lift lift, Project project) {
-  homology_result<R> res = assemble<R>(m, opt, alg, is_cohomology, nullptr, ring_one);
+  const route_request q{.generators = opt.generators, .keep_basis = opt.keep_basis.value_or(opt.generators),
+                        .reduced = opt.reduced, .cohomology = is_cohomology, .relative = false, .algebra_only = true};
+  const bool field_ranks = alg.route.template select<R>(m, q) == homology_route::field_ranks;
+  homology_result<R> res = assemble<R>(m, opt, alg, is_cohomology, nullptr, ring_one, field_ranks);
   for (auto& g : res.groups)
     for (auto& z : g.generators) z = lift(z);
   if (res.basis_) res.project_ = std::move(project);
   return res;
 }
 
-/// pre_reduction::morse; nullopt when it does not apply (relative homology, cohomology with
-/// generators, a Morse incidence beyond 64 bits): the caller then runs without it.
-template <euclidean_domain R, cell_complex C>
-std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, sparse_elimination alg, bool is_cohomology,
+/// The Morse route (pre_reduction::morse); nullopt when it does not apply (cohomology with
+/// generators, witnesses, a Morse incidence beyond 64 bits): the caller then runs without it.
+template <euclidean_domain R, cell_complex C, class Algorithm>
+std::optional<homology_result<R>> morse_homology(const C& c, homology_options opt, const Algorithm& alg, bool is_cohomology,
                                                  const R& ring_one) {
   if (!opt.keep_basis.has_value()) opt.keep_basis = opt.generators;
   if (is_cohomology && (opt.generators || *opt.keep_basis)) return std::nullopt;
   if (opt.witnesses) return std::nullopt;  // bounding chains are lifted through the elimination log only
-  alg.reduction = pre_reduction::coreductions_and_collapses;
   try {
     if constexpr (has_implicit_morse_complex<C>) {
       constexpr std::size_t D = C::dimension;
@@ -444,45 +458,19 @@ namespace detail {
 
 // ---- the coboundary route (coboundary_reduction; docs/homology.md) ------------------------
 
-/// Whether homology() with sparse_elimination takes the coboundary route by default: over the
-/// integers, ranks and torsion only, the default pre-reduction, and not an image or volume.
-/// Measured (docs/performance.md, bench_torsion and bench_homology): on simplicial complexes
-/// and cell lists the route is as fast or faster (matching complex of K_11: minutes -> under a
-/// second), while on cubical volumes the implicit Morse matching of the old route stays ahead.
-/// Over Q the same rule holds: the ranks over Q are the free ranks over Z, so the rationals
-/// take the integral route (exact, with integral working coefficients) instead of a Smith
-/// form over Q, whose fractions grow (matching complex of K_11 over Q: minutes before).
-template <class R, class C>
-bool coboundary_route_by_default(const homology_options& opt, const sparse_elimination& alg) {
-  if constexpr (!(std::same_as<R, integer> || std::same_as<R, rational>) || has_implicit_morse_complex<C>) {
-    return false;
-  } else {
-    return alg.allow_coboundary_route && alg.reduction == pre_reduction::coreductions_and_collapses &&
-           !opt.generators && !opt.keep_basis.value_or(false);
-  }
-}
-
 // ---- the duality route of images and volumes (algorithm/cubical_duality.hpp) ---------------
-
-template <class C>
-inline constexpr std::size_t duality_dimension = 0;
-template <std::size_t D>
-inline constexpr std::size_t duality_dimension<cubical_complex<D>> = D <= 3 ? D : 0;
 
 /// The groups of an image or volume by labelling (cubical_betti_numbers): ranks only, since
 /// a compact subset of R^D, D <= 3, has torsion-free homology, so the groups over any R are
 /// free of those ranks, and so are the cohomology groups (universal coefficients). nullopt
-/// when the route does not apply (generators or a basis asked for, another variant, a
+/// when the route does not apply (another complex, generators or a basis asked for, a
 /// reduced group of the empty image).
 template <euclidean_domain R, cell_complex C>
-std::optional<homology_result<R>> duality_homology(const C& c, const homology_options& opt,
-                                                   const sparse_elimination& alg, bool cohomology, const R& ring_one) {
+std::optional<homology_result<R>> duality_homology(const C& c, const homology_options& opt, bool cohomology,
+                                                   const R& ring_one) {
   if constexpr (duality_dimension<C> == 0) {
     return std::nullopt;
   } else {
-    if (!alg.cubical_duality ||
-        (alg.reduction != pre_reduction::coreductions_and_collapses && alg.reduction != pre_reduction::morse))
-      return std::nullopt;
     if (opt.generators || opt.keep_basis.value_or(false)) return std::nullopt;
     if (opt.reduced && c.top_dimension() < 0) return std::nullopt;
     auto b = cubical_betti_numbers(c, &opt.control);
@@ -511,7 +499,7 @@ template <class R, class W, cell_complex C>
 homology_result<R> coboundary_groups(const C& c, const homology_options& opt, const coboundary_reduction& alg,
                                      const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   const run_control* control = &opt.control;
-  const reducible_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded,
+  const workspace_build_options build{.augmented = opt.reduced, .dual = false, .excluded = excluded,
                                       .threads = opt.threads, .control = control};
   const elimination_workspace<W> rc = build_checked_complex<R, W>(c, build, ring_one);
   const auto inv = reduce_coboundaries<R>(rc, alg, control);
@@ -539,7 +527,8 @@ template <class R, cell_complex C>
 homology_result<R> homology_by_coboundaries(const C& c, const homology_options& opt, const coboundary_reduction& alg,
                                             const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
   if (opt.generators || opt.keep_basis.value_or(false))
-    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}, false, excluded, ring_one);
+    return assemble<R>(c, opt, sparse_elimination{.allow_coboundary_route = false}.stages(), false, excluded, ring_one,
+                       false);
   if constexpr (std::same_as<R, rational>) {
     // H_k(C; Q) = H_k(C; Z) ⊗ Q (universal coefficients; Q is flat over Z): its dimension is
     // the free rank over Z, and torsion vanishes. The boundary coefficients are integers.
@@ -565,6 +554,45 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
     }
   }
   return coboundary_groups<R, R>(c, opt, alg, excluded, ring_one);
+}
+
+// ---- the route choice ----------------------------------------------------------------------
+
+/// homology (excluded null, not cohomology), relative_homology (excluded: the subcomplex) or
+/// cohomology of c with the stages of `alg` (a staged_elimination; sparse_elimination{} runs
+/// as its stages()): the route selector names the route, and a route that does not apply to
+/// the request is replaced by the algebra (the selector asked again with algebra_only).
+template <euclidean_domain R, cell_complex C, class Algorithm>
+homology_result<R> staged_homology(const C& c, const homology_options& opt, const Algorithm& alg, bool is_cohomology,
+                                   const std::vector<std::vector<bool>>* excluded, const R& ring_one) {
+  static_assert(route_selector<decltype(alg.route), R, C>,
+                "lacuna: the route stage does not model route_selector at this ring and complex (algorithm/stages.hpp)");
+  route_request q{.generators = opt.generators, .keep_basis = opt.keep_basis.value_or(opt.generators),
+                  .reduced = opt.reduced, .cohomology = is_cohomology, .relative = excluded != nullptr,
+                  .algebra_only = false};
+  switch (alg.route.template select<R>(c, q)) {
+    case homology_route::duality:
+      if (!excluded)
+        if (auto r = duality_homology<R>(c, opt, is_cohomology, ring_one)) return std::move(*r);
+      break;
+    case homology_route::coboundary:
+      if (!is_cohomology && !q.generators && !q.keep_basis)
+        return homology_by_coboundaries<R>(c, opt, coboundary_reduction{}, excluded, ring_one);
+      break;
+    case homology_route::morse:
+      if (!excluded)
+        if (auto r = morse_homology<R>(c, opt, alg, is_cohomology, ring_one)) return std::move(*r);
+      break;
+    case homology_route::field_ranks:
+      if constexpr (has_fast_column_reduction<R>)
+        if (!q.generators && !q.keep_basis) return assemble<R>(c, opt, alg, is_cohomology, excluded, ring_one, true);
+      break;
+    case homology_route::elimination:
+      return assemble<R>(c, opt, alg, is_cohomology, excluded, ring_one, false);
+  }
+  q.algebra_only = true;
+  return assemble<R>(c, opt, alg, is_cohomology, excluded, ring_one,
+                     alg.route.template select<R>(c, q) == homology_route::field_ranks);
 }
 
 }  // namespace detail
