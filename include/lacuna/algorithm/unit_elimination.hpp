@@ -394,7 +394,7 @@ class unit_eliminator {
       if (opt_.record_pivots) {
         auto& pv = log_->pivot;
         if (pv.size() + pivot_.size() > pv.capacity())  // by a quarter, not double (see run)
-          pv.reserve(std::max(pv.size() + pivot_.size(), pv.capacity() + pv.capacity() / 4));
+          pv.reserve(std::max({pv.size() + pivot_.size(), pv.capacity() + pv.capacity() / 4, std::size_t{4096}}));
         pv.insert(pv.end(), pivot_.begin(), pivot_.end());
       }
       log_->steps.back().pivot_end = log_->pivot.size();
