@@ -175,6 +175,20 @@ class unit_eliminator {
 
   elimination_statistics run() {
     const int nl = rc_.levels();
+    // The log's arrays are reserved at once, so that they are not copied while they grow (at
+    // the last doubling an array holds 3 times its size, and keeps up to twice it): a pivot
+    // takes two cells, so a fresh log has at most half the cells as steps; the boundaries
+    // recorded are those of the pivots' cells, as many entries as the boundaries hold in all
+    // while the elimination fills nothing in (grown by a quarter when it does: record_pivot).
+    if (log_ && log_->steps.empty()) {
+      log_->steps.reserve(static_cast<std::size_t>(total_cells(rc_) / 2));
+      if (opt_.record_pivots && log_->pivot.empty()) {
+        std::size_t entries = 0;
+        for (int L = 1; L < nl; ++L)
+          for (std::uint32_t i = 0; i < rc_.size(L); ++i) entries += rc_.boundary(L, i).size();
+        log_->pivot.reserve(entries);
+      }
+    }
     active_count_.resize(static_cast<std::size_t>(nl));
     empty_.resize(static_cast<std::size_t>(nl));
     for (int L = 0; L < nl; ++L) {
@@ -392,7 +406,12 @@ class unit_eliminator {
     rc_.release_cofaces(L - 1, b);
     if (log_) {
       log_->steps.push_back({L, a, b, c, inv, log_->affected.size(), 0, log_->pivot.size(), 0});
-      if (opt_.record_pivots) log_->pivot.insert(log_->pivot.end(), pivot_.begin(), pivot_.end());
+      if (opt_.record_pivots) {
+        auto& pv = log_->pivot;
+        if (pv.size() + pivot_.size() > pv.capacity())  // by a quarter, not double (see run)
+          pv.reserve(std::max({pv.size() + pivot_.size(), pv.capacity() + pv.capacity() / 4, std::size_t{4096}}));
+        pv.insert(pv.end(), pivot_.begin(), pivot_.end());
+      }
       log_->steps.back().pivot_end = log_->pivot.size();
     }
     rc_.cell_state(L, a) = st::eliminated;  // a is no longer a candidate for anything

@@ -121,6 +121,13 @@ class elimination_workspace {
   void clear_cofaces(int level, std::uint32_t i) { cob_[index(level)].clear(i); }
   /// Gives up the storage of a coface list.
   void release_cofaces(int level, std::uint32_t i) { cob_[index(level)].release(i); }
+  /// Gives up the storage of every boundary and coface list at once; the levels, sizes, states
+  /// and index maps stay. For a caller that needs only those after a reduction (the maps of
+  /// the elimination log are read from the log, not from here).
+  void release_incidences() {
+    for (auto& b : bd_) b = slotted_lists<entry>();
+    for (auto& c : cob_) c = slotted_lists<std::uint32_t>();
+  }
   /// The bytes held by the boundaries, coface lists and states.
   std::size_t memory_bytes() const {
     std::size_t n = 0;

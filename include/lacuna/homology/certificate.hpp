@@ -296,7 +296,10 @@ bool minor_nonsingular(const C& c, int k, const rank_witness& w, std::string& wh
     return r;
   };
   // Reduced pivot columns: entries at pivot indices >= their own; the first is the pivot.
-  std::vector<std::vector<std::pair<std::uint32_t, std::uint64_t>>> reduced(n);
+  // One array, pivot i's entries [start[i], start[i+1]) (column i is pivot i: appended in order).
+  std::vector<std::pair<std::uint32_t, std::uint64_t>> reduced;
+  std::vector<std::size_t> start{0};
+  start.reserve(n + 1);
   std::vector<std::uint64_t> pivot_inverse(n, 0);
   std::vector<std::uint64_t> acc(n, 0);
   std::vector<char> seen(n, 0);
@@ -327,17 +330,18 @@ bool minor_nonsingular(const C& c, int k, const rank_witness& w, std::string& wh
       heap.pop_back();
       if (acc[t] == 0) continue;
       const std::uint64_t f = acc[t] * pivot_inverse[t] % p;
-      for (const auto& [u, val] : reduced[t]) {
+      for (std::size_t e = start[t]; e < start[t + 1]; ++e) {
+        const auto [u, val] = reduced[e];
         touch(u);
         acc[u] = (acc[u] + p - f * val % p) % p;
       }
     }
     const bool ok = acc[i] != 0;
     if (ok) {
-      auto& r = reduced[i];
-      r.push_back({static_cast<std::uint32_t>(i), acc[i]});
+      reduced.push_back({static_cast<std::uint32_t>(i), acc[i]});
       for (std::uint32_t u : touched)
-        if (u > i && acc[u] != 0) r.push_back({u, acc[u]});
+        if (u > i && acc[u] != 0) reduced.push_back({u, acc[u]});
+      start.push_back(reduced.size());
       pivot_inverse[i] = inverse(acc[i]);
     }
     for (std::uint32_t u : touched) acc[u] = 0, seen[u] = 0;
@@ -394,7 +398,12 @@ bool exact_schur(const C& c, int d, const std::vector<std::size_t>& pivot_rows, 
       used[x] = 1;
     }
   }
-  std::vector<std::vector<std::pair<std::uint32_t, I>>> reduced(u);  // reduced pivot columns, pivot entry first
+  // The reduced pivot columns one after the other, pivot entry first: pivot t's entries are
+  // [start[t], start[t+1]) of `reduced` (one array, not a vector per pivot: on a volume of
+  // 10^8 cells the per-vector overhead was the largest part of this step's memory).
+  std::vector<std::pair<std::uint32_t, I>> reduced;
+  std::vector<std::size_t> start{0};
+  start.reserve(u + 1);
   std::vector<I> acc(u + m, I(0));
   std::vector<char> seen(u + m, 0);
   std::vector<std::uint32_t> touched, heap;
@@ -425,20 +434,21 @@ bool exact_schur(const C& c, int d, const std::vector<std::size_t>& pivot_rows, 
       const std::uint32_t t = heap.back();
       heap.pop_back();
       if (acc[t] == I(0)) continue;
-      const I f = acc[t] * reduced[t].front().second;  // the pivot is ±1: its own inverse
-      for (const auto& [q, val] : reduced[t]) {
+      const I f = acc[t] * reduced[start[t]].second;  // the pivot is ±1: its own inverse
+      for (std::size_t e = start[t]; e < start[t + 1]; ++e) {
+        const std::uint32_t q = reduced[e].first;
         touch(q);
-        acc[q] -= f * val;
+        acc[q] -= f * reduced[e].second;
       }
     }
     bool ok = true;
     if (j < u) {
       ok = acc[j] == I(1) || acc[j] == I(-1);
-      if (ok) {
-        auto& r = reduced[j];
-        r.push_back({static_cast<std::uint32_t>(j), acc[j]});
+      if (ok) {  // column j is pivot j: appended in order
+        reduced.push_back({static_cast<std::uint32_t>(j), acc[j]});
         for (std::uint32_t q : touched)
-          if (q > j && !(acc[q] == I(0))) r.push_back({q, acc[q]});
+          if (q > j && !(acc[q] == I(0))) reduced.push_back({q, acc[q]});
+        start.push_back(reduced.size());
       } else {
         why = "pivot " + std::to_string(j) + " (" + std::to_string(d - 1) + "-cell " + std::to_string(pivot_rows[j]) + ", " +
               std::to_string(d) + "-cell " + std::to_string(pivot_columns[j]) + ") is " + text(acc[j]) +

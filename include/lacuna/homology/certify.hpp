@@ -134,9 +134,11 @@ bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::ui
   const std::size_t units = w.rows.size();
   std::vector<std::size_t> universe = w.rows;  // rows of the minor: unit pivot rows, then core rows
   for (std::uint32_t r : basis.levels[L - 1].core) universe.push_back(r);
-  std::unordered_map<std::size_t, std::uint32_t> pos;
-  pos.reserve(universe.size());
-  for (std::size_t i = 0; i < universe.size(); ++i) pos.emplace(universe[i], static_cast<std::uint32_t>(i));
+  // (k-1)-cell -> its position in the universe: one array over the level (4 bytes a cell; a
+  // hash map took some 50 bytes a row, the peak of this step on large volumes)
+  constexpr std::uint32_t none = ~std::uint32_t{0};
+  std::vector<std::uint32_t> pos(lacuna::cell_count(c, k - 1), none);
+  for (std::size_t i = 0; i < universe.size(); ++i) pos[universe[i]] = static_cast<std::uint32_t>(i);
   std::vector<std::int64_t> pivot_at(universe.size(), -1);  // position -> pivot index
   for (std::size_t i = 0; i < units; ++i) pivot_at[i] = static_cast<std::int64_t>(i);
   auto inverse = [p](std::uint64_t x) {
@@ -145,8 +147,11 @@ bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::ui
       if (e & 1) r = r * b % p;
     return r;
   };
-  std::vector<std::vector<std::pair<std::uint32_t, std::uint64_t>>> reduced;  // by pivot: (position, value)
-  std::vector<std::uint32_t> pivot_pos;                                       // by pivot: its position
+  // The reduced pivot columns, one after the other (by pivot t: entries [start[t], start[t+1])
+  // of `reduced`, (position, value), the pivot's own entry first).
+  std::vector<std::pair<std::uint32_t, std::uint64_t>> reduced;
+  std::vector<std::size_t> start{0};
+  std::vector<std::uint32_t> pivot_pos;  // by pivot: its position
   std::vector<std::uint64_t> acc(universe.size(), 0);
   std::vector<char> seen(universe.size(), 0);
   std::vector<std::uint32_t> touched;
@@ -156,7 +161,7 @@ bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::ui
   for (std::uint32_t col : basis.levels[L].core) columns.push_back(col);
   w.rows.clear(), w.columns.clear();
   for (std::size_t j = 0; j < columns.size(); ++j) {
-    const std::int64_t limit = static_cast<std::int64_t>(reduced.size());  // pivots before this column
+    const std::int64_t limit = static_cast<std::int64_t>(pivot_pos.size());  // pivots before this column
     touched.clear(), heap.clear();
     auto touch = [&](std::uint32_t q) {
       if (seen[q]) return;
@@ -169,10 +174,10 @@ bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::ui
     };
     for (auto&& v : lacuna::boundary(c, k, columns[j])) {
       const auto [face, m] = cert::residue_of(v, p);
-      auto it = pos.find(face);
-      if (it == pos.end()) continue;
-      touch(it->second);
-      acc[it->second] = (acc[it->second] + m) % p;
+      const std::uint32_t q = pos[face];
+      if (q == none) continue;
+      touch(q);
+      acc[q] = (acc[q] + m) % p;
     }
     while (!heap.empty()) {
       std::pop_heap(heap.begin(), heap.end(), greater);
@@ -180,8 +185,9 @@ bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::ui
       heap.pop_back();
       const std::uint64_t x = acc[pivot_pos[t]];
       if (x == 0) continue;
-      const std::uint64_t f = x * inverse(reduced[t].front().second) % p;
-      for (const auto& [q, val] : reduced[t]) {
+      const std::uint64_t f = x * inverse(reduced[start[t]].second) % p;
+      for (std::size_t e = start[t]; e < start[t + 1]; ++e) {
+        const auto [q, val] = reduced[e];
         touch(q);
         acc[q] = (acc[q] + p - f * val % p) % p;
       }
@@ -196,11 +202,11 @@ bool log_rank_witness(const C& c, int k, const homology_basis<R>& basis, std::ui
     }
     if (chosen >= 0) {
       const auto q = static_cast<std::uint32_t>(chosen);
-      pivot_at[q] = static_cast<std::int64_t>(reduced.size());
-      std::vector<std::pair<std::uint32_t, std::uint64_t>> r{{q, acc[q]}};
+      pivot_at[q] = static_cast<std::int64_t>(pivot_pos.size());
+      reduced.push_back({q, acc[q]});
       for (std::uint32_t u : touched)
-        if (u != q && acc[u] != 0 && (pivot_at[u] < 0 || pivot_at[u] > pivot_at[q])) r.push_back({u, acc[u]});
-      reduced.push_back(std::move(r));
+        if (u != q && acc[u] != 0 && (pivot_at[u] < 0 || pivot_at[u] > pivot_at[q])) reduced.push_back({u, acc[u]});
+      start.push_back(reduced.size());
       pivot_pos.push_back(q);
       w.rows.push_back(universe[q]);
       w.columns.push_back(columns[j]);

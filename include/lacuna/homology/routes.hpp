@@ -204,15 +204,20 @@ elimination_log<R> convert_log(elimination_log<W>&& log) {
   if constexpr (std::same_as<R, W>) {
     return std::move(log);
   } else {
+    // Array by array, each given up once converted, so that the two logs are never held whole
+    // at once (the largest array first).
     elimination_log<R> out;
+    out.pivot.reserve(log.pivot.size());
+    for (const auto& e : log.pivot) out.pivot.push_back({e.index, to_ring<R>(e.value)});
+    std::vector<sparse_entry<W>>().swap(log.pivot);
+    out.affected.reserve(log.affected.size());
+    for (const auto& e : log.affected) out.affected.push_back({e.index, to_ring<R>(e.value)});
+    std::vector<sparse_entry<W>>().swap(log.affected);
     out.steps.reserve(log.steps.size());
     for (const auto& s : log.steps)
       out.steps.push_back({s.level, s.a, s.b, to_ring<R>(s.c), to_ring<R>(s.c_inverse), s.affected_begin,
                            s.affected_end, s.pivot_begin, s.pivot_end});
-    out.affected.reserve(log.affected.size());
-    for (const auto& e : log.affected) out.affected.push_back({e.index, to_ring<R>(e.value)});
-    out.pivot.reserve(log.pivot.size());
-    for (const auto& e : log.pivot) out.pivot.push_back({e.index, to_ring<R>(e.value)});
+    std::vector<elimination_step<W>>().swap(log.steps);
     return out;
   }
 }
@@ -293,6 +298,10 @@ std::vector<level_result<R>> compute_levels(const C& c, const homology_options& 
   std::vector<level_coordinates<R>> lb;
   std::vector<level_result<R>> levels;
   levels = core_level_homology<R>(rc, opt.generators, keep, lb, control, opt.generators && opt.witnesses, alg.core);
+  // From here on only the log, the sizes and the index maps of rc are read: its boundaries
+  // and coface lists are given up before the log is converted (the peak of the generators'
+  // route is the workspace and the log together; docs/performance.md, "Certified homology").
+  rc.release_incidences();
   auto rlog = convert_log<R>(std::move(log));
   if (opt.generators) {
     control->report("lifting generators", 0, 1);
