@@ -85,7 +85,7 @@ class elimination_workspace {
   ///@{
   /// The state of a cell; alive: not eliminated.
   state& cell_state(int level, std::uint32_t i) { return state_[index(level)][i]; }
-  state cell_state(int level, std::uint32_t i) const { return state_[level][i]; }
+  state cell_state(int level, std::uint32_t i) const { return state_[index(level)][i]; }
   bool alive(int level, std::uint32_t i) const { return state_[index(level)][i] != state::eliminated; }
   ///@}
 
