@@ -2,7 +2,8 @@
 // side: over Z by the coboundary route (coboundary_reduction, algorithm/integral_reduction.hpp;
 // `_Z_sparse`: the same without lattice_smith_invariants for large remainders)
 // and by the old route (sparse_elimination with unit elimination and dense Smith forms of the
-// core, allow_coboundary_route = false), over Z/2 and Z/3 by the default field route. The
+// core, allow_coboundary_route = false), over Z/2 and Z/3 by the default field route, over Q
+// (`_Q`) by the default route. The
 // complexes are built outside the timed loop. Counters: cells, b (the sum of the ranks),
 // tors (the number of torsion factors), peak_MB (the rise of the resident high-water mark
 // during the run, bench_support.hpp) and maxrss_MB (getrusage's ru_maxrss of the whole
@@ -15,6 +16,7 @@
 #include <lacuna/homology/homology.hpp>
 #include <lacuna/ring/integer.hpp>
 #include <lacuna/ring/mod_p.hpp>
+#include <lacuna/ring/rational.hpp>
 #include <lacuna/ring/z2.hpp>
 
 #include <benchmark/benchmark.h>
@@ -61,7 +63,7 @@ const complex_t& linial(int n) {
   return *slot;
 }
 
-enum variant { z_new, z_new_sparse, z_old, z2_field, z3_field, z2_new };
+enum variant { z_new, z_new_sparse, z_old, z2_field, z3_field, z2_new, q_ranks };
 
 template <class C>
 void run(benchmark::State& state, const C& c, variant v) {
@@ -81,6 +83,7 @@ void run(benchmark::State& state, const C& c, variant v) {
       case z2_field: take(lacuna::homology<lacuna::z2>(c)); break;
       case z3_field: take(lacuna::homology<lacuna::mod_p<3>>(c)); break;
       case z2_new: take(lacuna::homology<lacuna::z2>(c, {}, lacuna::coboundary_reduction{})); break;
+      case q_ranks: take(lacuna::homology<lacuna::rational>(c)); break;  // the default route over Q
     }
   }
   double cells = 0;
@@ -102,15 +105,18 @@ void matching_Z_sparse(benchmark::State& s) { run(s, matching(A(s)), z_new_spars
 void matching_Z2(benchmark::State& s) { run(s, matching(A(s)), z2_field); }
 void matching_Z3(benchmark::State& s) { run(s, matching(A(s)), z3_field); }
 void matching_Z2_new(benchmark::State& s) { run(s, matching(A(s)), z2_new); }
+void matching_Q(benchmark::State& s) { run(s, matching(A(s)), q_ranks); }
 void chessboard_Z_new(benchmark::State& s) { run(s, chessboard(A(s)), z_new); }
 void chessboard_Z_old(benchmark::State& s) { run(s, chessboard(A(s)), z_old); }
 void chessboard_Z2(benchmark::State& s) { run(s, chessboard(A(s)), z2_field); }
 void chessboard_Z3(benchmark::State& s) { run(s, chessboard(A(s)), z3_field); }
 void chessboard_Z2_new(benchmark::State& s) { run(s, chessboard(A(s)), z2_new); }
+void chessboard_Q(benchmark::State& s) { run(s, chessboard(A(s)), q_ranks); }
 void linial_Z_new(benchmark::State& s) { run(s, linial(A(s)), z_new); }
 void linial_Z_old(benchmark::State& s) { run(s, linial(A(s)), z_old); }
 void linial_Z2(benchmark::State& s) { run(s, linial(A(s)), z2_field); }
 void linial_Z3(benchmark::State& s) { run(s, linial(A(s)), z3_field); }
+void linial_Q(benchmark::State& s) { run(s, linial(A(s)), q_ranks); }
 
 // The default rule's other side: tori and cubical volumes, old route against new.
 void torus_Z_new(benchmark::State& s) { run(s, lacuna_bench::torus(A(s)), z_new); }
@@ -126,15 +132,18 @@ BENCHMARK(matching_Z_old)->DenseRange(9, 10) ONCE;
 BENCHMARK(matching_Z2)->DenseRange(9, 14) ONCE;
 BENCHMARK(matching_Z3)->DenseRange(9, 14) ONCE;
 BENCHMARK(matching_Z2_new)->DenseRange(9, 12) ONCE;
+BENCHMARK(matching_Q)->DenseRange(9, 12) ONCE;
 BENCHMARK(chessboard_Z_new)->DenseRange(4, 8) ONCE;
 BENCHMARK(chessboard_Z_old)->DenseRange(4, 6) ONCE;
 BENCHMARK(chessboard_Z2)->DenseRange(4, 8) ONCE;
 BENCHMARK(chessboard_Z3)->DenseRange(4, 7) ONCE;
 BENCHMARK(chessboard_Z2_new)->DenseRange(4, 7) ONCE;
+BENCHMARK(chessboard_Q)->DenseRange(4, 7) ONCE;
 BENCHMARK(linial_Z_new)->Arg(30)->Arg(45)->Arg(60) ONCE;
 BENCHMARK(linial_Z_old)->Arg(30)->Arg(45)->Arg(60) ONCE;
 BENCHMARK(linial_Z2)->Arg(30)->Arg(45)->Arg(60) ONCE;
 BENCHMARK(linial_Z3)->Arg(30)->Arg(45)->Arg(60) ONCE;
+BENCHMARK(linial_Q)->Arg(30)->Arg(45)->Arg(60) ONCE;
 BENCHMARK(torus_Z_new)->Arg(64)->Arg(256)->Arg(1024) ONCE;
 BENCHMARK(torus_Z_old)->Arg(64)->Arg(256)->Arg(1024) ONCE;
 BENCHMARK(volume_Z_new)->Arg(32)->Arg(64) ONCE;
