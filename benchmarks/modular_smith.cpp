@@ -71,8 +71,8 @@ void new_route(benchmark::State& state) {
 
 // Item 9: {0, 150}, {1, 100}, {2, 4}; the rest places the threshold.
 BENCHMARK(old_route)->Args({0, 4})->Args({0, 8})->Args({0, 16})->Args({0, 32})->Args({0, 64})->Args({0, 150})
-    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Args({3, 40})->Args({3, 100})->Unit(benchmark::kMillisecond)->Iterations(1);
+    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Args({3, 40})->Args({3, 64})->Args({3, 100})->Unit(benchmark::kMillisecond)->Iterations(1);
 BENCHMARK(new_route)->Args({0, 4})->Args({0, 8})->Args({0, 16})->Args({0, 32})->Args({0, 64})->Args({0, 150})
-    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Args({3, 40})->Args({3, 100})->Unit(benchmark::kMillisecond);
+    ->Args({1, 4})->Args({1, 8})->Args({1, 16})->Args({1, 100})->Args({2, 4})->Args({3, 40})->Args({3, 64})->Args({3, 100})->Unit(benchmark::kMillisecond);
 
 BENCHMARK_MAIN();

@@ -419,11 +419,16 @@ std::optional<std::vector<int>> local_valuations(const Source& s, u64 p, int k, 
 /// Whether modular_smith_invariants is worth trying on A before dense_smith_form, by
 /// measurement (benchmarks/modular_smith.cpp, docs/performance.md): dense elimination wins
 /// on square matrices below about 32 with one-digit entries and below about 8 with 19-digit
-/// entries. So: min(rows, cols) >= 32, or >= 8 with an entry beyond 32 bits, or any entry
-/// beyond 64 bits (where dense elimination grows fastest).
+/// entries; on rank-deficient ones (whose proofs cost the route a rank per prime and two
+/// compressed determinants) below about 64 (X·Y of rank 0.9 n: 8.3 against 14.2 ms at n = 40,
+/// 138 against 95 ms at n = 64; the 103 x 47 remainder of rank 46 of a random 2-complex, 4
+/// against 60 ms). So: any entry beyond 64 bits (where dense elimination grows fastest), or
+/// >= 8 with an entry beyond 32 bits, or min(rows, cols) >= 64, or >= 32 when A has full
+/// rank min(rows, cols) modulo a prime near 2^62 (a rank mod p is a lower bound of the rank,
+/// so full rank mod p is full rank; the check costs O(k^2 max(rows, cols)) word operations,
+/// little beside either route).
 inline bool prefer_modular_smith(const dense_matrix<integer>& A) {
   const std::size_t k = std::min(A.rows(), A.cols());
-  if (k >= 32) return true;
   bool wide_entry = false;
   for (std::size_t i = 0; i < A.rows(); ++i)
     for (std::size_t j = 0; j < A.cols(); ++j) {
@@ -432,7 +437,16 @@ inline bool prefer_modular_smith(const dense_matrix<integer>& A) {
       const std::int64_t v = x.small_value();
       wide_entry = wide_entry || v > (std::int64_t{1} << 32) || v < -(std::int64_t{1} << 32);
     }
-  return wide_entry && k >= 8;
+  if (wide_entry && k >= 8) return true;
+  if (k >= 64) return true;
+  if (k < 32) return false;
+  namespace md = detail::modular;
+  const md::source<integer> s(A);  // transposed so that s.n <= s.m
+  const md::u64 p = md::prime_below(mod_p_modulus_limit);
+  std::vector<md::u64> a(s.n * s.m);
+  for (std::size_t i = 0; i < s.n; ++i)
+    for (std::size_t j = 0; j < s.m; ++j) a[i * s.m + j] = s.residue(i, j, p);
+  return md::pivot_columns(std::move(a), s.n, s.m, p, nullptr).cols.size() == k;
 }
 
 /// The rank and invariant factors of the integer matrix A (any shape), or nullopt when the
