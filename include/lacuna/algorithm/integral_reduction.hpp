@@ -27,9 +27,9 @@
 // working column is a sorted vector while short and a dense array with a bitset of touched
 // rows once it and the pivot added to it pass 128 entries (each addition then costs the
 // pivot's length only); with 64-bit coefficients the deferred columns are reduced 8 at a
-// time, interleaved row by row, so that each unit pivot is read once for 8 columns. Both give exactly the columns the
-// plain sorted merge gives (the same operations in the same order), so U, Rest' and every
-// reported number are unchanged by them.
+// time, interleaved row by row, so that each unit pivot is read once for 8 columns. Both
+// give exactly the columns the plain sorted merge gives (the same operations in the same
+// order), so U, Rest' and every reported number are unchanged by them.
 //
 // Exactness: every reported number is a rank or an invariant factor of the exact matrix,
 // obtained by unimodular column operations (and, in the proof only, row operations) and an
