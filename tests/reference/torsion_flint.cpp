@@ -121,4 +121,34 @@ TEST_CASE("a deferred column beyond 64 bits: reduced alone over lacuna::integer,
         flint_test::flint_homology(c));
 }
 
+TEST_CASE("a deferred column passing 64 bits by adding or subtracting a ±1 entry: widened alone, FLINT's factors") {
+  // The deferred columns are reduced several at a time with wrapping additions whose overflow
+  // is read from the signs (algorithm/integral_reduction.hpp); here the pivot entry is ±1, so
+  // only that test can see the overflow. δ_1 has columns a = (c0: s, c1: 1), the unit pivot of
+  // row c1, and x = (c0: -2^62 - 1 or 2^62 + 1, c1: 2^62, c2: 2), deferred (its low 2 is not a
+  // unit); reducing x against a gives row c0 the value x_c0 - s·2^62 = ∓(2^63 + 1): past 64
+  // bits. Expected: FLINT's Smith form of ∂_2 (and the homology FLINT gives), with the column
+  // reduced over lacuna::integer (widened == 1).
+  for (const std::int64_t s : {std::int64_t{1}, std::int64_t{-1}}) {
+    CAPTURE(s);
+    lacuna::cell_list c;
+    c.add_cell(0, "v");
+    const auto a = c.add_cell(1, "a", {{0, 1}, {0, -1}});
+    const auto x = c.add_cell(1, "x", {{0, 1}, {0, -1}});
+    const std::int64_t half = std::int64_t{1} << 62;
+    c.add_cell(2, "c0", {{a, s}, {x, s == 1 ? -half - 1 : half + 1}});
+    c.add_cell(2, "c1", {{a, 1}, {x, half}});
+    c.add_cell(2, "c2", {{x, 2}});
+    const auto rc = lacuna::elimination_workspace<lacuna::checked_int64>::build(c);
+    const auto inv = lacuna::reduce_coboundaries<integer>(rc);
+    REQUIRE(inv.size() >= 2);
+    CHECK(inv[1].deferred == 1);
+    CHECK(inv[1].widened == 1);  // the path under test was taken
+    CHECK(route_invariants<lacuna::checked_int64>(c) == flint_all(c));
+    CHECK(route_invariants<integer>(c) == flint_all(c));
+    CHECK(lacuna_test::groups_of(lacuna::homology<integer>(c, {}, lacuna::coboundary_reduction{})) ==
+          flint_test::flint_homology(c));
+  }
+}
+
 }  // namespace reference_torsion_flint_test

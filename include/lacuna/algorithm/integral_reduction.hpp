@@ -23,6 +23,14 @@
 // and the few non-unit columns are left for a Smith form; no dense core of the whole
 // complex is ever formed.
 //
+// The work, as the field route's column reduction (algorithm/field_reduction.hpp) does it: a
+// working column is a sorted vector while short and a dense array with a bitset of touched
+// rows once it and the pivot added to it pass 128 entries (each addition then costs the
+// pivot's length only); with 64-bit coefficients the deferred columns are reduced 8 at a
+// time, interleaved row by row, so that each unit pivot is read once for 8 columns. Both
+// give exactly the columns the plain sorted merge gives (the same operations in the same
+// order), so U, Rest' and every reported number are unchanged by them.
+//
 // Exactness: every reported number is a rank or an invariant factor of the exact matrix,
 // obtained by unimodular column operations (and, in the proof only, row operations) and an
 // exact Smith form; nothing is probabilistic. Working coefficients W are the caller's
@@ -44,6 +52,7 @@
 #include <lacuna/ring/integer.hpp>
 
 #include <algorithm>
+#include <bit>
 #include <type_traits>
 #include <cstdint>
 #include <limits>
@@ -106,11 +115,11 @@ W divide_by_unit(const W& a, const W& u) {
 }
 
 template <class R, class W>
-R working_to_ring(const W& w) {
+R working_to_ring(W w) {
   if constexpr (std::same_as<W, checked_int64>)
     return R(w.v);
   else
-    return w;
+    return R(std::move(w));
 }
 
 /// out = a - q·b, both sorted by index; zero terms dropped. The one merge of this header.
@@ -156,6 +165,109 @@ void subtract_multiple(const coboundary_column<W>& a, const W& q, std::span<cons
   for (; j < b.size(); ++j) out.push_back({b[j].index, -(q * b[j].value)});
 }
 
+/// A working column held dense, the form field_reduction.hpp's accumulators give a long
+/// column: values by row, and a bitset of the rows that may be non-zero. Subtracting a pivot
+/// then costs the pivot's length, not the working column's (a sorted merge costs both); the
+/// low (largest non-zero row) only moves down while pivots are subtracted, so finding it is
+/// one downward scan of the bitset per column. The arithmetic is W's own: with
+/// checked_int64 every entry is checked, so an overflow throws coefficient_overflow as in
+/// the sparse merge.
+template <class W>
+class dense_coboundary_column {
+ public:
+  explicit dense_coboundary_column(std::size_t rows) : acc_(rows, zero<W>()), flags_((rows + 63) / 64 + 1, 0) {}
+  /// Takes a (sorted, non-empty, no zeros) as the working column; the accumulator is empty.
+  void load(std::span<const sparse_entry<W>> a) {
+    lo_ = a.front().index / 64;
+    hi_ = a.back().index / 64;
+    for (const auto& e : a) {
+      mark(e.index);
+      acc_[e.index] = e.value;
+    }
+  }
+  /// column -= q·b (b sorted, non-empty, its rows at or below the current low).
+  void subtract(const W& q, std::span<const sparse_entry<W>> b) {
+    lo_ = std::min<std::size_t>(lo_, b.front().index / 64);
+    if constexpr (std::same_as<W, checked_int64>) {
+      if (q.v == 1 || q.v == -1) {  // the usual case: no multiplications
+        const bool add = q.v == -1;
+        for (const auto& e : b) {
+          mark(e.index);
+          acc_[e.index] = add ? acc_[e.index] + e.value : acc_[e.index] - e.value;
+        }
+        return;
+      }
+    }
+    for (const auto& e : b) {
+      mark(e.index);
+      acc_[e.index] = acc_[e.index] - q * e.value;
+    }
+  }
+  /// The largest row with a non-zero value, or -1 for a zero column.
+  std::int64_t low() {
+    for (;;) {
+      for (;;) {
+        if (flags_[hi_] != 0) break;
+        if (hi_ == lo_) return -1;
+        --hi_;
+      }
+      const std::size_t r = hi_ * 64 + 63 - static_cast<std::size_t>(std::countl_zero(flags_[hi_]));
+      if (!(acc_[r] == zero<W>())) return static_cast<std::int64_t>(r);
+      flags_[r / 64] &= ~(std::uint64_t{1} << (r % 64));
+    }
+  }
+  const W& operator[](std::size_t r) const { return acc_[r]; }
+  /// Moves the column out (sorted, no zeros) and leaves the accumulator empty.
+  void extract(coboundary_column<W>& out) {
+    out.clear();
+    for (std::size_t w = lo_; w <= hi_; ++w) {
+      for (std::uint64_t bits = flags_[w]; bits != 0; bits &= bits - 1) {
+        const std::size_t r = w * 64 + static_cast<std::size_t>(std::countr_zero(bits));
+        if (!(acc_[r] == zero<W>())) out.push_back({static_cast<std::uint32_t>(r), std::move(acc_[r])});
+        acc_[r] = zero<W>();
+      }
+      flags_[w] = 0;
+    }
+  }
+  /// The largest row below `limit` with a non-zero value, or -1 (flags of zero values seen
+  /// on the way are dropped; the low is left as it is).
+  std::int64_t previous(std::size_t limit) {
+    while (limit > lo_ * 64) {
+      const std::size_t w = (limit - 1) / 64;
+      const unsigned keep = static_cast<unsigned>((limit - 1) % 64) + 1;  // bits 0..keep-1 of word w
+      const std::uint64_t mask = keep == 64 ? ~std::uint64_t{0} : (std::uint64_t{1} << keep) - 1;
+      if (const std::uint64_t bits = flags_[w] & mask; bits != 0) {
+        const std::size_t r = w * 64 + 63 - static_cast<std::size_t>(std::countl_zero(bits));
+        if (!(acc_[r] == zero<W>())) return static_cast<std::int64_t>(r);
+        flags_[w] &= ~(std::uint64_t{1} << (r % 64));
+        limit = r;  // the same word again, below r
+        continue;
+      }
+      limit = w * 64;
+    }
+    return -1;
+  }
+  /// Empties the accumulator without reading it (after an overflow mid-subtraction).
+  void discard() {
+    for (std::size_t w = lo_; w <= hi_; ++w) {
+      for (std::uint64_t bits = flags_[w]; bits != 0; bits &= bits - 1)
+        acc_[w * 64 + static_cast<std::size_t>(std::countr_zero(bits))] = zero<W>();
+      flags_[w] = 0;
+    }
+  }
+
+ private:
+  // Every row ever given a value lies in words lo_..hi_ and is flagged until read as zero.
+  void mark(std::uint32_t r) { flags_[r / 64] |= std::uint64_t{1} << (r % 64); }
+  std::vector<W> acc_;
+  std::vector<std::uint64_t> flags_;
+  std::size_t lo_ = 0, hi_ = 0;
+};
+
+/// Working columns switch to the dense form once they and the pivot subtracted from them
+/// have more entries than this (field_reduction.hpp's automatic_threshold, measured there).
+inline constexpr std::size_t coboundary_dense_threshold = 128;
+
 }  // namespace detail
 
 namespace detail {
@@ -184,10 +296,15 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
   using col_t = coboundary_column<W>;
   unit_pass_result<W> out;
   out.pivot_rows.assign(nrow, false);
-  std::vector<std::int64_t> pivot_of_row(nrow, -1);  // row -> position in `pivots`
+  std::vector<std::int64_t> pivot_of_row(nrow, -1);  // row -> pivot number
+  // The unit pivots side by side in one array (pivot t: entries pivot_off[t] .. pivot_off[t+1]).
   std::vector<col_t> pivots;
+  auto pivot = [&](std::int64_t t) {
+    return std::span<const entry>(pivots[static_cast<std::size_t>(t)]);
+  };
   std::vector<col_t> deferred_columns;  // Rest, as the pass leaves them
   col_t work, scratch;
+  dense_coboundary_column<W> dense(nrow);
   // Columns in index order: measured faster than the reverse order on M(K_11) (1.4 s
   // against 3.7 s), and the low at the largest row faster than at the smallest.
   for (std::size_t j = 0; j < ncol; ++j) {
@@ -198,18 +315,33 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
     }
     const std::span<const entry> c = column(j);
     work.assign(c.begin(), c.end());
-    while (!work.empty()) {
-      const entry& low = work.back();
-      const std::int64_t p = pivot_of_row[low.index];
+    // The same column operations as a sorted merge would do, on the dense form once the
+    // column is long: the reduced column, and so every pivot and Rest column, is the same.
+    bool is_dense = false;
+    std::int64_t low = work.empty() ? -1 : static_cast<std::int64_t>(work.back().index);
+    while (low >= 0) {
+      const W& lowv = is_dense ? dense[static_cast<std::size_t>(low)] : work.back().value;
+      const std::int64_t p = pivot_of_row[static_cast<std::size_t>(low)];
       if (p >= 0) {
-        const col_t& P = pivots[static_cast<std::size_t>(p)];
-        const W q = divide_by_unit(low.value, P.back().value);
-        subtract_multiple(work, q, std::span<const entry>(P), scratch);
-        work.swap(scratch);
+        const auto P = pivot(p);
+        const W q = divide_by_unit(lowv, P.back().value);
+        if (!is_dense && work.size() + P.size() > coboundary_dense_threshold) {
+          dense.load(work);
+          is_dense = true;
+        }
+        if (is_dense) {
+          dense.subtract(q, P);
+          low = dense.low();
+        } else {
+          subtract_multiple(work, q, P, scratch);
+          work.swap(scratch);
+          low = work.empty() ? -1 : static_cast<std::int64_t>(work.back().index);
+        }
         continue;
       }
-      if (working_is_unit(low.value)) {
-        pivot_of_row[low.index] = static_cast<std::int64_t>(pivots.size());
+      if (is_dense) dense.extract(work);
+      if (working_is_unit(work.back().value)) {
+        pivot_of_row[static_cast<std::size_t>(low)] = static_cast<std::int64_t>(pivots.size());
         // clearing_is_sound: let z_j be the k-cochain whose coboundary is this reduced
         // column c = δ_k z_j (z_j = e_j plus multiples of earlier columns: the column
         // operations are unimodular). c = u·e_i + (terms of rows below i), u a unit. In
@@ -220,14 +352,17 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
         // are unchanged; a zero column changes no invariant factor, so SNF(δ_{k+1}) is the
         // SNF of δ_{k+1} without the columns i. Over Z the step needs u to be a unit: with
         // a non-unit u the matrix would not be unimodular (Rest lows are never cleared).
-        out.pivot_rows[low.index] = true;
+        out.pivot_rows[static_cast<std::size_t>(low)] = true;
         pivots.push_back(std::move(work));
+        work = col_t{};
       } else {
         deferred_columns.push_back(std::move(work));
+        work = col_t{};
       }
-      work = col_t{};
+      is_dense = false;
       break;
     }
+    if (is_dense) dense.extract(work);  // a zero column: leaves the accumulator empty
   }
   out.units = pivots.size();
   out.deferred = deferred_columns.size();
@@ -244,7 +379,7 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
   // distinct p, every other entry of those rows is zero, and the matrix is, up to
   // permuting rows and columns, diag(units) ⊕ B. Row and column operations are invertible
   // over the ring, so the invariant factors are |U| ones followed by those of B.
-  // The column is held dense here: each step then costs the length of the pivot column
+  // The columns are held dense here: each step then costs the length of the pivot column
   // only, not of the (filling) deferred column.
   // With 64-bit working coefficients a Rest column may pass 64 bits (M(K_13), level 5: some
   // of its 24 123 deferred columns do) while the unit pivots, formed without overflow and
@@ -254,47 +389,20 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
   out.rest.reserve(deferred_columns.size());
   if (!deferred_columns.empty()) {
     if (control) control->report("reducing deferred columns", 0, deferred_columns.size());
-    std::vector<W> acc(nrow, zero<W>());
     std::vector<integer> wide;  // the dense column over lacuna::integer (W = checked_int64 only)
-    for (auto& c : deferred_columns) {
-      if (control) control->check();
+    // One column over lacuna::integer (W = checked_int64, a column that passed 64 bits).
+    auto reduce_wide = [&](const col_t& c) {
       coboundary_column<rest_t> reduced;
-      if (c.empty()) {
-        out.rest.push_back(std::move(reduced));
-        continue;
-      }
-      const std::size_t top = c.back().index + 1;
-      bool done = false;
-      try {
-        for (const auto& e : c) acc[e.index] = e.value;
-        for (std::size_t r = top; r-- > 0;) {
-          if (acc[r] == zero<W>()) continue;
-          const std::int64_t p = pivot_of_row[r];
-          if (p < 0) continue;
-          const col_t& P = pivots[static_cast<std::size_t>(p)];
-          const W q = divide_by_unit(acc[r], P.back().value);
-          for (const auto& e : P) acc[e.index] -= q * e.value;
-        }
-        done = true;
-      } catch (const coefficient_overflow&) {
-        if constexpr (!std::same_as<W, checked_int64>) throw;
-        std::fill(acc.begin(), acc.begin() + static_cast<std::ptrdiff_t>(top), zero<W>());
-      }
-      if (done) {
-        for (std::size_t r = 0; r < top; ++r)
-          if (!(acc[r] == zero<W>())) {
-            reduced.push_back({static_cast<std::uint32_t>(r), rest_t(working_to_ring<rest_t>(acc[r]))});
-            acc[r] = zero<W>();
-          }
-      } else if constexpr (std::same_as<W, checked_int64>) {
+      if constexpr (std::same_as<W, checked_int64>) {
         ++out.widened;
+        const std::size_t top = c.back().index + 1;
         if (wide.empty()) wide.assign(nrow, integer(0));
         for (const auto& e : c) wide[e.index] = integer(e.value.v);
         for (std::size_t r = top; r-- > 0;) {
           if (wide[r] == integer(0)) continue;
           const std::int64_t p = pivot_of_row[r];
           if (p < 0) continue;
-          const col_t& P = pivots[static_cast<std::size_t>(p)];
+          const auto P = pivot(p);
           const integer q = P.back().value.v == 1 ? wide[r] : -wide[r];  // the low is ±1
           for (const auto& e : P) wide[e.index] -= q * integer(e.value.v);
         }
@@ -304,8 +412,133 @@ unit_pass_result<W> unit_pass(std::size_t ncol, std::size_t nrow, Column column,
             wide[r] = integer(0);
           }
       }
-      col_t().swap(c);
-      out.rest.push_back(std::move(reduced));
+      return reduced;
+    };
+    // One column alone: the dense form over W, and over lacuna::integer if W overflows.
+    auto reduce_one = [&](const col_t& c) {
+      coboundary_column<rest_t> reduced;
+      if (c.empty()) return reduced;
+      const std::size_t top = c.back().index + 1;
+      bool done = false;
+      try {
+        dense.load(c);
+        for (std::int64_t r = dense.previous(top); r >= 0; r = dense.previous(static_cast<std::size_t>(r))) {
+          const std::int64_t p = pivot_of_row[static_cast<std::size_t>(r)];
+          if (p < 0) continue;
+          const auto P = pivot(p);
+          const W q = divide_by_unit(dense[static_cast<std::size_t>(r)], P.back().value);
+          dense.subtract(q, P);
+        }
+        done = true;
+      } catch (const coefficient_overflow&) {
+        if constexpr (!std::same_as<W, checked_int64>) throw;
+        dense.discard();
+      }
+      if (done) {
+        dense.extract(work);
+        reduced.reserve(work.size());
+        for (auto& e : work) reduced.push_back({e.index, working_to_ring<rest_t>(e.value)});
+      } else if constexpr (std::same_as<W, checked_int64>) {
+        reduced = reduce_wide(c);
+      }
+      return reduced;
+    };
+    if constexpr (std::same_as<W, checked_int64>) {
+      // Over 64 bits, `lanes` Rest columns at a time, interleaved row by row (block[r·lanes +
+      // b] is row r of the b-th column of the block): each pivot is read once for the whole
+      // block, and its subtraction from the block touches one cache line per entry. Every
+      // column undergoes exactly the operations it would alone (a zero multiple of a pivot
+      // changes nothing), so Rest' is the same. Overflow: each product and difference is
+      // checked and an overflow flags its lane (columns do not mix, so the other lanes stay
+      // exact); a flagged column's values are dropped and it is reduced again from its start
+      // over lacuna::integer, so no wrapped value is ever kept.
+      constexpr std::size_t lanes = 8;
+      std::vector<std::int64_t> block(nrow * lanes, 0);
+      for (std::size_t first = 0; first < deferred_columns.size(); first += lanes) {
+        if (control) control->check();
+        const std::size_t n = std::min(lanes, deferred_columns.size() - first);
+        std::size_t top = 0;
+        for (std::size_t b = 0; b < n; ++b) {
+          const col_t& c = deferred_columns[first + b];
+          for (const auto& e : c) block[e.index * lanes + b] = e.value.v;
+          if (!c.empty()) top = std::max<std::size_t>(top, c.back().index + 1);
+        }
+        // Per lane: the sign bits of the ±1 additions' overflow tests, and other overflows.
+        std::uint64_t signs[lanes] = {};
+        bool overflow[lanes] = {};
+        for (std::size_t r = top; r-- > 0;) {
+          const std::int64_t p = pivot_of_row[r];
+          if (p < 0) continue;
+          std::int64_t* const row = block.data() + r * lanes;
+          const auto P = pivot(p);
+          const bool negate = P.back().value.v == -1;  // q = row / low, the low ±1
+          std::int64_t q[lanes];
+          bool any = false;
+          for (std::size_t b = 0; b < lanes; ++b) {
+            overflow[b] |= __builtin_sub_overflow(std::int64_t{0}, row[b], &q[b]) && negate;
+            if (!negate) q[b] = row[b];
+            any |= q[b] != 0;
+          }
+          if (!any) continue;
+          // t -= v·q lane by lane. For v = ±1 (nearly every entry) the difference is taken
+          // modulo 2^64 and its overflow read from the signs, (a ^ q) & (a ^ d) < 0 for
+          // d = a - q and ~(a ^ q) & (a ^ d) < 0 for d = a + q (Warren, Hacker's Delight,
+          // 2-13), collected in `signs` so that the loop has no branch; other v multiply with
+          // __builtin_mul_overflow.
+          for (const auto& e : P) {
+            std::int64_t* const t = block.data() + std::size_t{e.index} * lanes;
+            const std::int64_t v = e.value.v;
+            if (v == 1) {
+              for (std::size_t b = 0; b < lanes; ++b) {
+                const auto a = static_cast<std::uint64_t>(t[b]), x = static_cast<std::uint64_t>(q[b]);
+                const std::uint64_t d = a - x;
+                signs[b] |= (a ^ x) & (a ^ d);
+                t[b] = static_cast<std::int64_t>(d);
+              }
+            } else if (v == -1) {
+              for (std::size_t b = 0; b < lanes; ++b) {
+                const auto a = static_cast<std::uint64_t>(t[b]), x = static_cast<std::uint64_t>(q[b]);
+                const std::uint64_t d = a + x;
+                signs[b] |= ~(a ^ x) & (a ^ d);
+                t[b] = static_cast<std::int64_t>(d);
+              }
+            } else {
+              for (std::size_t b = 0; b < lanes; ++b) {
+                std::int64_t prod, diff;
+                overflow[b] |= __builtin_mul_overflow(q[b], v, &prod);
+                overflow[b] |= __builtin_sub_overflow(t[b], prod, &diff);
+                t[b] = diff;
+              }
+            }
+          }
+        }
+        // The block read out row by row (one pass over it for all its columns, which are
+        // counted first so that each is allocated once).
+        for (std::size_t b = 0; b < lanes; ++b) overflow[b] |= (signs[b] >> 63) != 0;
+        const std::size_t base = out.rest.size();
+        out.rest.resize(base + n);
+        std::size_t count[lanes] = {};
+        for (std::size_t r = 0; r < top; ++r)
+          for (std::size_t b = 0; b < lanes; ++b) count[b] += block[r * lanes + b] != 0;
+        for (std::size_t b = 0; b < n; ++b)
+          if (!overflow[b]) out.rest[base + b].reserve(count[b]);
+        for (std::size_t r = 0; r < top; ++r)
+          for (std::size_t b = 0; b < n; ++b)
+            if (const std::int64_t v = block[r * lanes + b]; v != 0 && !overflow[b])
+              out.rest[base + b].push_back({static_cast<std::uint32_t>(r), rest_t(v)});
+        std::fill(block.begin(), block.begin() + static_cast<std::ptrdiff_t>(top * lanes), 0);
+        for (std::size_t b = 0; b < n; ++b) {
+          col_t& c = deferred_columns[first + b];
+          if (overflow[b]) out.rest[base + b] = reduce_wide(c);
+          col_t().swap(c);
+        }
+      }
+    } else {
+      for (auto& c : deferred_columns) {
+        if (control) control->check();
+        out.rest.push_back(reduce_one(c));
+        col_t().swap(c);
+      }
     }
     if (control) control->report("reducing deferred columns", deferred_columns.size(), deferred_columns.size());
   }
@@ -326,8 +559,15 @@ sparse_matrix<R> compact_remainder(std::vector<coboundary_column<W>>& rest, std:
   std::size_t bc = 0;
   for (auto& c : rest) {
     if (c.empty()) continue;
-    for (const auto& e : c)
-      B.columns[bc].push_back({static_cast<std::uint32_t>(row_position[e.index]), working_to_ring<R>(e.value)});
+    if constexpr (std::same_as<W, R>) {  // the column itself, renumbered: no new memory
+      for (auto& e : c) e.index = static_cast<std::uint32_t>(row_position[e.index]);
+      std::sort(c.begin(), c.end(), [](const auto& x, const auto& y) { return x.index < y.index; });
+      B.columns[bc++] = std::move(c);
+      continue;
+    }
+    B.columns[bc].reserve(c.size());
+    for (auto& e : c)
+      B.columns[bc].push_back({static_cast<std::uint32_t>(row_position[e.index]), working_to_ring<R>(std::move(e.value))});
     std::sort(B.columns[bc].begin(), B.columns[bc].end(), [](const auto& x, const auto& y) { return x.index < y.index; });
     ++bc;
     coboundary_column<W>().swap(c);
