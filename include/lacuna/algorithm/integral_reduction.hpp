@@ -66,6 +66,11 @@ struct coboundary_reduction {
   /// Measured: the 17 007 x 137 remainder of the matching complex of K_12 in 0.6 s instead
   /// of about 12 s (docs/performance.md). false: the sparse route only.
   bool lattice_smith = true;
+  /// With lattice_smith, remainders of rank below min(rows, cols) too (the bordering-minor
+  /// proof of lattice_smith.hpp, steps R1-R4). Measured: the 3 485 x 8 712 remainder of the
+  /// 8 x 8 chessboard complex and the 1 281 x 24 000 one of M(K_13) (docs/performance.md).
+  /// false: they go to the sparse route, as before.
+  bool lattice_rank_deficient = true;
 };
 
 /// What the reduction finds for the coboundary δ_L out of level L (the boundary into level L).
@@ -346,7 +351,8 @@ sparse_matrix<R> compact_remainder(std::vector<coboundary_column<W>>& rest, std:
 /// whose core takes the same modular hook.
 template <euclidean_domain R>
 smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dense_limit,
-                                     const run_control* control = nullptr, bool lattice = true) {
+                                     const run_control* control = nullptr, bool lattice = true,
+                                     bool lattice_rank_deficient = true) {
   if (A.rows == 0 || A.cols == 0) return {};
   if (static_cast<double>(A.rows) * static_cast<double>(A.cols) <= static_cast<double>(dense_limit)) {
     auto dense = A.to_dense();
@@ -358,7 +364,7 @@ smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dens
   if (control) control->report("Smith form of the core", 0, 1);
   if constexpr (std::same_as<R, integer>)
     if (lattice)
-      if (auto l = lattice_smith_invariants(A, control)) {
+      if (auto l = lattice_smith_invariants(A, control, {.rank_deficient = lattice_rank_deficient})) {
         if (control) control->report("Smith form of the core", 1, 1);
         return *l;
       }
@@ -420,7 +426,7 @@ std::vector<coboundary_invariants<R>> reduce_coboundaries(const elimination_work
     const std::size_t units = pass.units;
     res.remainder_rows = B.rows;
     res.remainder_cols = B.cols;
-    const auto s = finish_remainder(B, options.dense_limit, control, options.lattice_smith);
+    const auto s = finish_remainder(B, options.dense_limit, control, options.lattice_smith, options.lattice_rank_deficient);
     res.rank = units + s.rank;
     for (const auto& d : s.factors)
       if (!detail::working_is_unit(d)) res.torsion.push_back(d);
