@@ -61,8 +61,9 @@ struct coboundary_reduction {
   /// dense_smith_form, larger ones by smith_normal_form(..., sparse_elimination{}).
   std::size_t dense_limit = 40000;
   /// Over the integers, remainders larger than dense_limit try lattice_smith_invariants
-  /// first (lacuna/algorithm/lattice_smith.hpp: full rank proved mod a prime, then maximal
-  /// minors and local Hermite bases; exact, or it declines and the sparse route runs).
+  /// first (lacuna/algorithm/lattice_smith.hpp: the rank proved by a minor non-zero mod a
+  /// prime and, below full rank, by vanishing bordering minors; then three largest minors
+  /// and local Smith forms; exact, or it declines and the sparse route runs).
   /// Measured: the 17 007 x 137 remainder of the matching complex of K_12 in 0.6 s instead
   /// of about 12 s (docs/performance.md). false: the sparse route only.
   bool lattice_smith = true;
@@ -346,7 +347,8 @@ sparse_matrix<R> compact_remainder(std::vector<coboundary_column<W>>& rest, std:
 /// `dense_limit` entries, over the integers the modular Smith form where prefer_modular_smith
 /// says it pays (lacuna/algorithm/modular_smith.hpp; exact, or it declines), else
 /// dense_smith_form; larger remainders, over the integers, first lattice_smith_invariants
-/// when `lattice` is set (lacuna/algorithm/lattice_smith.hpp; exact, or it declines), then
+/// when `lattice` is set (lacuna/algorithm/lattice_smith.hpp; exact, or it declines; rank-
+/// deficient ones only when `lattice_rank_deficient` is set too), then
 /// the sparse unit elimination of smith_normal_form (lacuna/algorithm/smith_normal_form.hpp),
 /// whose core takes the same modular hook.
 template <euclidean_domain R>

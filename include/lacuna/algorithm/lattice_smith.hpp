@@ -1,7 +1,8 @@
-// lacuna/algorithm/lattice_smith.hpp — the invariant factors of an integer matrix of full rank
-// min(rows, cols) (typically tall: many more rows than columns) from three of its maximal
-// minors and one local Hermite basis per prime that can divide them; nullopt when a proof
-// does not go through.
+// lacuna/algorithm/lattice_smith.hpp — the invariant factors of an integer matrix (typically
+// tall or wide: many more rows than columns, or the reverse) from three of its largest
+// non-zero minors and one local Smith form per prime that can divide them; its rank proved
+// by a non-zero minor (below) and, when the rank is not full, by vanishing bordering minors
+// (steps R1-R4); nullopt when a proof does not go through.
 //
 // Why. The coboundary route (integral_reduction.hpp) leaves remainders like 17 007 x 137 with
 // rank 137 (matching complex of K_12); their Smith form by sparse or dense elimination over Z
@@ -41,6 +42,41 @@
 //     Before that, n of the vectors independent mod q (among 4n tried) prove v_q(G) = 0
 //     (an n x n minor prime to q): no local basis is needed for such a q.
 //  4. d_i = product over the q of q^v_q(d_i); primes not among the q divide no d_i.
+//
+// Step 0 first: the rank mod a prime p_0 below 2^27, the vectors inserted smallest first
+// (Euclidean norm) into a reduced echelon basis, in blocks (residual_kernel below). Rank n
+// goes on with steps 1-4. Rank r < n (rank-deficient; the remainders of M(K_11), M(K_13) and
+// of the chessboard complexes) goes to:
+//  R1. Rank >= r: the r vectors I kept mod p_0 and the pivot coordinates J (the coordinates
+//     of smallest norm first) give A[I, J] non-singular mod p_0, so det A[I, J] != 0. Two
+//     more minors A[I_t, J_t] by the same greedy insertion with the vectors already chosen
+//     moved last. Smallest vectors first keeps Hadamard's bounds small (M(K_13): about 2 800
+//     bits instead of tens of thousands).
+//  R2. Rank <= r: by the bordering-minors theorem, a non-zero r-minor all of whose bordering
+//     (r+1)-minors (rows I + i, columns J + c) vanish proves the rank is r (Gantmacher, "The
+//     Theory of Matrices", 1959, ch. I §4 — from memory). Each bordering minor is det A[I, J]
+//     times the entry (i, c) of the Schur complement A - A[:, J] A[I, J]^-1 A[I, :], so it is
+//     0 mod p when A[I, J] is invertible mod p and every vector lies in the span of the
+//     vectors I mod p. That is checked for primes p < 2^27 (bordering_mod_p: the reduced
+//     echelon basis A[I, J]^-1 A[I, :] mod p, then every vector's residual against it, by
+//     blocked products with delayed reduction, m n r word operations per prime, the primes
+//     shared by two threads) until their product passes twice Hadamard's bound of the
+//     bordering minors (the product of the norms of the vectors I times the largest other
+//     vector's, or the same by coordinates, the smaller). Then every bordering minor is 0. A
+//     prime dividing det A[I, J] is skipped; a vector outside the span mod some prime means
+//     rank > r over Q (p_0 divides every (r+1)-minor): declined.
+//  R3. Candidate primes: G = d_1 ... d_r, the gcd of the r x r minors (Newman, as in step 2),
+//     divides the gcd G' of the three minors, found exactly by CRT from their residues mod
+//     the same primes, and mod further primes (determinants only) while the product has not
+//     passed twice their own Hadamard bounds (by rows or by columns, the smaller). Trial
+//     division below 2^16, cofactor 1 or decline, as in step 2.
+//  R4. For each such q: r vectors independent mod q (greedy, as R1) prove v_q(G) = 0.
+//     Otherwise the local Hermite basis of all vectors mod Q = q^k (k = e_q + 1 capped as in
+//     step 3), which may now miss pivots, and its Smith form over Z/Q with pivots of least
+//     valuation (Dumas, Saunders & Villard 2001; Dumas, Heckenbach, Saunders & Welker 2003):
+//     exactly r invariant factors must be non-zero mod Q (the other n - r are the zero ones,
+//     the rank being r; if more vanish some v_q(d_i) >= k and the route declines), and their
+//     valuations add up to at most e_q.
 //
 // Nothing probabilistic reaches the result: the shuffle (fixed seed) and the choice of primes
 // only decide whether the proofs succeed. Cost: step 1 about n^2 word operations per vector
@@ -306,10 +342,12 @@ struct residual_kernel {
       }
     }
   }
+#if defined(__x86_64__) || defined(__i386__)
   [[gnu::target("avx2")]] static void run_avx2(const std::uint32_t* rows, const std::uint32_t* cols, std::size_t r,
                                                std::size_t n, u64* x, std::size_t b, const word_reducer& R) {
     run(rows, cols, r, n, x, b, R);
   }
+#endif
   static void run_default(const std::uint32_t* rows, const std::uint32_t* cols, std::size_t r, std::size_t n, u64* x,
                           std::size_t b, const word_reducer& R) {
     run(rows, cols, r, n, x, b, R);
@@ -317,11 +355,11 @@ struct residual_kernel {
   static void apply(const std::uint32_t* rows, const std::uint32_t* cols, std::size_t r, std::size_t n, u64* x,
                     std::size_t b, const word_reducer& R) {
     if (r == 0) return;
+#if defined(__x86_64__) || defined(__i386__)
     static const bool avx2 = __builtin_cpu_supports("avx2");
-    if (avx2)
-      run_avx2(rows, cols, r, n, x, b, R);
-    else
-      run_default(rows, cols, r, n, x, b, R);
+    if (avx2) return run_avx2(rows, cols, r, n, x, b, R);
+#endif
+    run_default(rows, cols, r, n, x, b, R);
   }
 };
 
@@ -400,10 +438,11 @@ echelon_mod_p grow_echelon(const vectors<Int>& V, const std::vector<std::size_t>
 /// det A[I, J] times an entry of it). Also det A[I_t, J_t] mod p for every given pair
 /// (dets[0] is that of I, J). Returns false when A[I, J] is singular mod p (the prime is not
 /// used); throws nothing else; `spanned` tells whether every vector lay in the span.
+/// With check_span false, only the determinants (spanned untouched).
 template <class Int>
 bool bordering_mod_p(const vectors<Int>& V, const std::vector<std::size_t>& I, const std::vector<std::uint32_t>& J,
                      const std::vector<std::pair<std::vector<std::size_t>, std::vector<std::uint32_t>>>& minors, u64 p,
-                     std::vector<u64>& dets, bool& spanned, const run_control* control) {
+                     std::vector<u64>& dets, bool& spanned, const run_control* control, bool check_span = true) {
   const std::size_t n = V.n, r = I.size(), B = residual_kernel::block;
   const word_reducer R(p);
   std::vector<u64> a;
@@ -417,10 +456,11 @@ bool bordering_mod_p(const vectors<Int>& V, const std::vector<std::size_t>& I, c
     }
   };
   dets.assign(minors.size(), 0);
-  for (std::size_t t = 1; t < minors.size(); ++t) {
+  for (std::size_t t = check_span ? 1 : 0; t < minors.size(); ++t) {
     minor_rows(minors[t].first, minors[t].second, 0);
     dets[t] = modular::det_and_adjugate_solve(a, r, 0, p);
   }
+  if (!check_span) return dets[0] != 0;
   // adj(A[I, J]) = det * A[I, J]^-1 from [A[I, J] | 1].
   minor_rows(I, J, r);
   const u64 det = modular::det_and_adjugate_solve(a, r, r, p);
@@ -535,9 +575,12 @@ std::optional<smith_invariants<Int>> rank_deficient(const vectors<Int>& V, const
       if (!in[i]) b = std::max(b, l[i]);
     return b;
   };
-  double bits = std::min(sum_of(I, vec_log) + max_outside(I, vec_log), sum_of(J, coord_log) + max_outside(J, coord_log));
-  for (const auto& [It, Jt] : minors) bits = std::max(bits, std::min(sum_of(It, vec_log), sum_of(Jt, coord_log)));
-  const double need = bits * (1 + 1e-9) + 8;  // the primes' product passes 2^(bits + 1) with a margin
+  const double bits = std::min(sum_of(I, vec_log) + max_outside(I, vec_log), sum_of(J, coord_log) + max_outside(J, coord_log));
+  double bits_minors = 0;
+  for (const auto& [It, Jt] : minors) bits_minors = std::max(bits_minors, std::min(sum_of(It, vec_log), sum_of(Jt, coord_log)));
+  // The primes' product passes 2^(bits + 1) with a margin: twice the bound, so a value below
+  // it in absolute value is recovered from its residues (and is 0 when they are).
+  const double need = bits * (1 + 1e-9) + 8, need_minors = bits_minors * (1 + 1e-9) + 8;
   {
     const double primes = need / 26.9 + 1;
     const double cost = primes * (static_cast<double>(m) * static_cast<double>(n) * static_cast<double>(r) +
@@ -579,6 +622,15 @@ std::optional<smith_invariants<Int>> rank_deficient(const vectors<Int>& V, const
       crt.add(dets[k], batch[k]);
       have += std::log2(static_cast<double>(batch[k]));
     }
+  }
+  // The three minors alone, when their bound passes the bordering one (r^3 word operations
+  // per prime instead of m n r): residues mod further primes, zero residues included.
+  for (std::vector<u64> d; have < need_minors;) {
+    p = md::prime_below(p);
+    bool unused = true;
+    bordering_mod_p(V, I, J, minors, p, d, unused, control, false);
+    crt.add(d, p);
+    have += std::log2(static_cast<double>(p));
   }
   big G = 0;
   for (std::size_t t = 0; t < minors.size(); ++t) G = md::lehmer_gcd(G, crt.symmetric(t));
@@ -628,14 +680,19 @@ struct lattice_smith_options {
   bool rank_deficient = true;
 };
 
-/// The rank and invariant factors of the integer matrix A when its rank is min(rows, cols)
-/// and every prime dividing its invariant factors is below 2^16, by the maximal-minor and
-/// local Hermite proofs of the header comment; nullopt when a proof does not go through (rank
-/// not proved full, a prime factor that cannot be placed, a valuation beyond word-size
-/// prime powers). A returned value is always exact; on nullopt the caller uses another route.
-/// Stop requests through `control`. Meant for tall (or wide) matrices: on a square one it
-/// costs like modular_smith_invariants and declines more often. Declines at once when
-/// m n^2 / 2 (m vectors of length n, n = min(rows, cols)) passes 2e9 word operations.
+/// The rank and invariant factors of the integer matrix A when every prime dividing its
+/// invariant factors is below 2^16, by the minor and local Smith form proofs of the header
+/// comment (steps 1-4 at full rank min(rows, cols), R1-R4 below it, unless
+/// options.rank_deficient is false); nullopt when a proof does not go through (a rank mod
+/// the first prime below the rank over Q, a prime factor that cannot be placed, a valuation
+/// beyond word-size prime powers, or the work limits). A returned value is always exact; on
+/// nullopt the caller uses another route. Stop requests and the phases ("Smith form of the
+/// core: rank mod p", "...: bordering minors", "...: local Smith forms") through `control`.
+/// Meant for tall or wide matrices: on a square one it costs like modular_smith_invariants
+/// and declines more often. Declines at once when m n^2 (m vectors of length n, n =
+/// min(rows, cols)) passes 2e11, at full rank when m n^2 / 2 passes 2e9, below full rank when
+/// the bordering-minor proof would pass 4e12 word operations. Uses a second thread for the
+/// bordering-minor proof.
 template <class Int>
   requires std::same_as<Int, integer>
 std::optional<smith_invariants<Int>> lattice_smith_invariants(const sparse_matrix<Int>& A,
