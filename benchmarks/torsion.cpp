@@ -1,12 +1,14 @@
 // Torsion-rich complexes of graphs and random 2-complexes (issue 12 §5), each variant side by
 // side: over Z by the coboundary route (coboundary_reduction, algorithm/integral_reduction.hpp;
 // `_Z_sparse`: the same without lattice_smith_invariants for large remainders)
-// and by the old route (sparse_elimination with unit elimination and dense Smith forms of the
+// `_Z_fullrank`: the same with lattice_smith_invariants for remainders of full rank only, as
+// before its rank-deficient steps R1-R4), and by the old route (sparse_elimination with unit elimination and dense Smith forms of the
 // core, allow_coboundary_route = false), over Z/2 and Z/3 by the default field route, over Q
 // (`_Q`) by the default route. The
 // complexes are built outside the timed loop. Counters: cells, b (the sum of the ranks),
 // tors (the number of torsion factors), peak_MB (the rise of the resident high-water mark
-// during the run, bench_support.hpp) and maxrss_MB (getrusage's ru_maxrss of the whole
+// during the run, bench_support.hpp), rank_s, bordering_s and local_s for z_new (wall seconds
+// in the phases of lattice_smith_invariants, from the progress reports) and maxrss_MB (getrusage's ru_maxrss of the whole
 // process so far: an upper bound, it never goes down).
 //   build-rel/bin/bench_torsion --benchmark_filter='matching|chessboard|linial'
 // Cases the old route does not finish in minutes are not registered for it.
@@ -22,8 +24,10 @@
 #include <benchmark/benchmark.h>
 #include <sys/resource.h>
 
+#include <chrono>
 #include <map>
 #include <memory>
+#include <string>
 #include <random>
 
 namespace {
@@ -63,11 +67,12 @@ const complex_t& linial(int n) {
   return *slot;
 }
 
-enum variant { z_new, z_new_sparse, z_old, z2_field, z3_field, z2_new, q_ranks };
+enum variant { z_new, z_new_fullrank, z_new_sparse, z_old, z2_field, z3_field, z2_new, q_ranks };
 
 template <class C>
 void run(benchmark::State& state, const C& c, variant v) {
   double b = 0, tors = 0;
+  std::map<std::string, double> phase_seconds;
   const long before = lacuna_bench::begin_peak();
   for (auto _ : state) {
     b = tors = 0;
@@ -75,7 +80,23 @@ void run(benchmark::State& state, const C& c, variant v) {
       for (const auto& g : h.groups) b += static_cast<double>(g.rank), tors += static_cast<double>(g.torsion.size());
     };
     switch (v) {
-      case z_new: take(lacuna::homology<lacuna::integer>(c, {}, lacuna::coboundary_reduction{})); break;
+      case z_new: {
+        // Wall time per progress phase (a phase lasts until a report of another phase).
+        lacuna::homology_options o;
+        std::string phase;
+        auto since = std::chrono::steady_clock::now();
+        o.control.progress = [&](const lacuna::progress_report& r) {
+          if (r.phase == phase) return;
+          const auto now = std::chrono::steady_clock::now();
+          phase_seconds[phase] += std::chrono::duration<double>(now - since).count();
+          phase = r.phase, since = now;
+        };
+        take(lacuna::homology<lacuna::integer>(c, o, lacuna::coboundary_reduction{}));
+        break;
+      }
+      case z_new_fullrank:
+        take(lacuna::homology<lacuna::integer>(c, {}, lacuna::coboundary_reduction{.lattice_rank_deficient = false}));
+        break;
       case z_new_sparse:  // remainders past dense_limit by the sparse route only
         take(lacuna::homology<lacuna::integer>(c, {}, lacuna::coboundary_reduction{.lattice_smith = false}));
         break;
@@ -95,12 +116,19 @@ void run(benchmark::State& state, const C& c, variant v) {
   state.counters["maxrss_MB"] = static_cast<double>(u.ru_maxrss) / 1024.0;
   state.counters["b"] = b;
   state.counters["tors"] = tors;
+  if (v == z_new) {
+    state.counters["rank_s"] = phase_seconds["Smith form of the core: rank mod p"];
+    state.counters["bordering_s"] = phase_seconds["Smith form of the core: bordering minors"];
+    state.counters["local_s"] = phase_seconds["Smith form of the core: local Smith forms"];
+  }
 }
 
 int A(const benchmark::State& s) { return static_cast<int>(s.range(0)); }
 
 void matching_Z_new(benchmark::State& s) { run(s, matching(A(s)), z_new); }
 void matching_Z_old(benchmark::State& s) { run(s, matching(A(s)), z_old); }
+void matching_Z_fullrank(benchmark::State& s) { run(s, matching(A(s)), z_new_fullrank); }
+void chessboard_Z_fullrank(benchmark::State& s) { run(s, chessboard(A(s)), z_new_fullrank); }
 void matching_Z_sparse(benchmark::State& s) { run(s, matching(A(s)), z_new_sparse); }
 void matching_Z2(benchmark::State& s) { run(s, matching(A(s)), z2_field); }
 void matching_Z3(benchmark::State& s) { run(s, matching(A(s)), z3_field); }
@@ -125,25 +153,29 @@ void volume_Z_new(benchmark::State& s) { run(s, lacuna_bench::random_volume(stat
 void volume_Z_old(benchmark::State& s) { run(s, lacuna_bench::random_volume(static_cast<std::size_t>(A(s))), z_old); }
 
 #define ONCE ->Iterations(1)->Unit(benchmark::kMillisecond)
-BENCHMARK(matching_Z_new)->DenseRange(9, 12) ONCE;
-BENCHMARK(matching_Z_new)->Arg(13)->Arg(14) ONCE;  // over 400 s and not run (docs/performance.md)
+// The coboundary route's rank-deficient lattice step runs on two threads: CPU time of the
+// whole process.
+#define ONCE_PROCESS ->Iterations(1)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime()
+BENCHMARK(matching_Z_new)->DenseRange(9, 14) ONCE_PROCESS;
+BENCHMARK(matching_Z_fullrank)->DenseRange(11, 12) ONCE;
+BENCHMARK(chessboard_Z_fullrank)->DenseRange(7, 8) ONCE;
 BENCHMARK(matching_Z_sparse)->DenseRange(11, 12) ONCE;
 BENCHMARK(matching_Z_old)->DenseRange(9, 10) ONCE;
 BENCHMARK(matching_Z2)->DenseRange(9, 14) ONCE;
 BENCHMARK(matching_Z3)->DenseRange(9, 14) ONCE;
 BENCHMARK(matching_Z2_new)->DenseRange(9, 12) ONCE;
-BENCHMARK(matching_Q)->DenseRange(9, 12) ONCE;
-BENCHMARK(chessboard_Z_new)->DenseRange(4, 8) ONCE;
+BENCHMARK(matching_Q)->DenseRange(9, 13) ONCE_PROCESS;
+BENCHMARK(chessboard_Z_new)->DenseRange(4, 8) ONCE_PROCESS;
 BENCHMARK(chessboard_Z_old)->DenseRange(4, 6) ONCE;
 BENCHMARK(chessboard_Z2)->DenseRange(4, 8) ONCE;
 BENCHMARK(chessboard_Z3)->DenseRange(4, 7) ONCE;
 BENCHMARK(chessboard_Z2_new)->DenseRange(4, 7) ONCE;
-BENCHMARK(chessboard_Q)->DenseRange(4, 7) ONCE;
+BENCHMARK(chessboard_Q)->DenseRange(4, 8) ONCE_PROCESS;
 BENCHMARK(linial_Z_new)->Arg(30)->Arg(45)->Arg(60) ONCE;
 BENCHMARK(linial_Z_old)->Arg(30)->Arg(45)->Arg(60) ONCE;
 BENCHMARK(linial_Z2)->Arg(30)->Arg(45)->Arg(60) ONCE;
 BENCHMARK(linial_Z3)->Arg(30)->Arg(45)->Arg(60) ONCE;
-BENCHMARK(linial_Q)->Arg(30)->Arg(45)->Arg(60) ONCE;
+BENCHMARK(linial_Q)->Arg(30)->Arg(45)->Arg(60) ONCE_PROCESS;
 BENCHMARK(torus_Z_new)->Arg(64)->Arg(256)->Arg(1024) ONCE;
 BENCHMARK(torus_Z_old)->Arg(64)->Arg(256)->Arg(1024) ONCE;
 BENCHMARK(volume_Z_new)->Arg(32)->Arg(64) ONCE;

@@ -8,6 +8,10 @@
 // product of invariant factors beyond 2^64 and one factor beyond 2^64; their transposes; and
 // inputs it must decline (rank deficient, a torsion prime above 2^16, 2^70 in one factor),
 // where finish_remainder falls back to the sparse route and still agrees with FLINT.
+// Rank-deficient inputs (the bordering-minor proof of the rank): planted torsion with zero
+// invariant factors, wide and tall, entries past 64 bits; products of random integer
+// matrices (rank r < min(rows, cols) whenever FLINT says so); and a matrix whose rank
+// modulo the route's first prime is below its rank over Q, which the rank proof must catch.
 #include "flint_support.hpp"
 
 #include <lacuna/algorithm/integral_reduction.hpp>
@@ -113,7 +117,6 @@ TEST_CASE("random tall matrices of small entries: whenever the route answers, fm
 TEST_CASE("inputs the proofs do not cover are declined, and finish_remainder still agrees with fmpz_mat_snf") {
   std::mt19937_64 rng(5);
   const std::vector<bmatrix> cases = {
-      planted_tall(rng, 40, 10, {2, 6, 0}),                      // rank 9 < 10 columns
       planted_tall(rng, 40, 10, {3, cpp_int(3) * 1000003}),      // the prime 1000003 > 2^16
       planted_tall(rng, 40, 10, {2, power(2, 70)}),              // v_2 = 70: 2^71 is not a word
   };
@@ -124,6 +127,80 @@ TEST_CASE("inputs the proofs do not cover are declined, and finish_remainder sti
     CHECK(texts(lacuna::finish_remainder(sparse_over<integer>(cases[i]), 0).factors) == want);
     CHECK(texts(lacuna::finish_remainder(sparse_over<integer>(cases[i]), 0, nullptr, false).factors) == want);
   }
+}
+
+TEST_CASE("rank-deficient planted torsion, tall and wide, entries past 64 bits: the route answers as fmpz_mat_snf") {
+  std::mt19937_64 rng(2718);
+  const cpp_int big = power(2, 10) * power(3, 12) * power(5, 12) * power(7, 6);  // about 2^74
+  const std::vector<std::vector<cpp_int>> plants = {
+      {2, 6, 0},                                // rank n - 1
+      {3, 15, 210, big, 0, 0, 0},               // rank n - 3, one factor past 2^64
+      {0, 0, 4, 4, 12, power(2, 20) * 9},       // zero factors first in the list (d padded by ones)
+  };
+  for (const auto& d : plants)
+    for (const std::size_t n : {8U, 14U})
+      for (const std::size_t m : {n + 3, 3 * n}) {
+        CAPTURE(n);
+        CAPTURE(m);
+        const auto a = planted_tall(rng, m, n, d);
+        const auto want = flint_invariants(a);  // FLINT fmpz_mat_snf
+        std::size_t zeros = 0;
+        for (const auto& x : d) zeros += x == 0 ? 1 : 0;
+        REQUIRE(want.size() == n - zeros);  // as planted: rank n - (zero factors)
+        const auto got = route(a);
+        REQUIRE(got.has_value());
+        CHECK(*got == want);
+        const auto got_t = route(transposed(a));  // wide
+        REQUIRE(got_t.has_value());
+        CHECK(*got_t == want);
+      }
+}
+
+TEST_CASE("products of random integer matrices (rank deficient, wide and tall): whenever the route answers, fmpz_mat_snf agrees") {
+  std::mt19937_64 rng(31337);
+  int answered = 0;
+  for (int t = 0; t < 16; ++t) {
+    const std::size_t r = 2 + rng() % 6, m = r + 2 + rng() % 20, n = r + 1 + rng() % 30;
+    bmatrix x(m, r), y(r, n), a(m, n);
+    for (auto& row : x.a)
+      for (auto& v : row) v = cpp_int(static_cast<int>(rng() % 7) - 3);
+    for (auto& row : y.a)
+      for (auto& v : row) v = (t % 4 == 0) ? cpp_int(static_cast<long long>(rng() >> 1U)) * 1000003 : cpp_int(static_cast<int>(rng() % 5) - 2);
+    for (std::size_t i = 0; i < m; ++i)
+      for (std::size_t j = 0; j < n; ++j)
+        for (std::size_t k = 0; k < r; ++k) a.a[i][j] += x.a[i][k] * y.a[k][j];
+    const auto want = flint_invariants(a);
+    CAPTURE(t);
+    REQUIRE(want.size() <= r);  // rank of a product of an m x r and an r x n matrix
+    if (const auto got = route(a)) {
+      ++answered;
+      CHECK(*got == want);
+    }
+    if (const auto got = route(transposed(a))) CHECK(*got == want);
+    CHECK(texts(lacuna::finish_remainder(sparse_over<integer>(a), 0).factors) == want);
+  }
+  CHECK(answered >= 8);  // the torsion primes of most products are small
+}
+
+TEST_CASE("a rank that the first prime underestimates: the rank proof fails and the route declines") {
+  // Vectors of rank 5 over Z, plus p0 times a vector outside their span, where p0 is the
+  // route's first prime: rank 5 mod p0 but 6 over Q. The bordering minors that contain the
+  // extra vector are non-zero (multiples of p0), so the proof mod the next primes must fail.
+  namespace dl = lacuna::detail::lattice_smith_impl;
+  const std::uint64_t p0 = lacuna::detail::modular::prime_below(dl::small_word_limit);
+  std::mt19937_64 rng(8);
+  auto a = planted_tall(rng, 30, 12, {1, 1, 1, 1, 3, 0, 0, 0, 0, 0, 0, 0});
+  REQUIRE(flint_invariants(a).size() == 5);
+  std::vector<cpp_int> w(12);
+  for (auto& v : w) v = cpp_int(static_cast<int>(rng() % 9) - 4) * p0;
+  a.a.push_back(w);
+  ++a.rows;
+  const auto want = flint_invariants(a);
+  REQUIRE(want.size() == 6);  // FLINT: rank 6 over Q
+  REQUIRE(flint_rank_mod(a, p0) == 5);
+  CHECK_FALSE(route(a).has_value());
+  CHECK_FALSE(route(transposed(a)).has_value());
+  CHECK(texts(lacuna::finish_remainder(sparse_over<integer>(a), 0).factors) == want);
 }
 
 }  // namespace reference_lattice_smith_flint_test

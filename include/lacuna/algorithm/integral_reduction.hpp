@@ -70,11 +70,17 @@ struct coboundary_reduction {
   /// dense_smith_form, larger ones by smith_normal_form(..., sparse_elimination{}).
   std::size_t dense_limit = 40000;
   /// Over the integers, remainders larger than dense_limit try lattice_smith_invariants
-  /// first (lacuna/algorithm/lattice_smith.hpp: full rank proved mod a prime, then maximal
-  /// minors and local Hermite bases; exact, or it declines and the sparse route runs).
+  /// first (lacuna/algorithm/lattice_smith.hpp: the rank proved by a minor non-zero mod a
+  /// prime and, below full rank, by vanishing bordering minors; then three largest minors
+  /// and local Smith forms; exact, or it declines and the sparse route runs).
   /// Measured: the 17 007 x 137 remainder of the matching complex of K_12 in 0.6 s instead
   /// of about 12 s (docs/performance.md). false: the sparse route only.
   bool lattice_smith = true;
+  /// With lattice_smith, remainders of rank below min(rows, cols) too (the bordering-minor
+  /// proof of lattice_smith.hpp, steps R1-R4). Measured: the 3 485 x 8 712 remainder of the
+  /// 8 x 8 chessboard complex and the 1 281 x 24 000 one of M(K_13) (docs/performance.md).
+  /// false: they go to the sparse route, as before.
+  bool lattice_rank_deficient = true;
 };
 
 /// What the reduction finds for the coboundary δ_L out of level L (the boundary into level L).
@@ -581,12 +587,14 @@ sparse_matrix<R> compact_remainder(std::vector<coboundary_column<W>>& rest, std:
 /// `dense_limit` entries, over the integers the modular Smith form where prefer_modular_smith
 /// says it pays (lacuna/algorithm/modular_smith.hpp; exact, or it declines), else
 /// dense_smith_form; larger remainders, over the integers, first lattice_smith_invariants
-/// when `lattice` is set (lacuna/algorithm/lattice_smith.hpp; exact, or it declines), then
+/// when `lattice` is set (lacuna/algorithm/lattice_smith.hpp; exact, or it declines; rank-
+/// deficient ones only when `lattice_rank_deficient` is set too), then
 /// the sparse unit elimination of smith_normal_form (lacuna/algorithm/smith_normal_form.hpp),
 /// whose core takes the same modular hook.
 template <euclidean_domain R>
 smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dense_limit,
-                                     const run_control* control = nullptr, bool lattice = true) {
+                                     const run_control* control = nullptr, bool lattice = true,
+                                     bool lattice_rank_deficient = true) {
   if (A.rows == 0 || A.cols == 0) return {};
   if (static_cast<double>(A.rows) * static_cast<double>(A.cols) <= static_cast<double>(dense_limit)) {
     auto dense = A.to_dense();
@@ -598,7 +606,7 @@ smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dens
   if (control) control->report("Smith form of the core", 0, 1);
   if constexpr (std::same_as<R, integer>)
     if (lattice)
-      if (auto l = lattice_smith_invariants(A, control)) {
+      if (auto l = lattice_smith_invariants(A, control, {.rank_deficient = lattice_rank_deficient})) {
         if (control) control->report("Smith form of the core", 1, 1);
         return *l;
       }
@@ -660,7 +668,7 @@ std::vector<coboundary_invariants<R>> reduce_coboundaries(const elimination_work
     const std::size_t units = pass.units;
     res.remainder_rows = B.rows;
     res.remainder_cols = B.cols;
-    const auto s = finish_remainder(B, options.dense_limit, control, options.lattice_smith);
+    const auto s = finish_remainder(B, options.dense_limit, control, options.lattice_smith, options.lattice_rank_deficient);
     res.rank = units + s.rank;
     for (const auto& d : s.factors)
       if (!detail::working_is_unit(d)) res.torsion.push_back(d);
