@@ -131,6 +131,23 @@ TEST_CASE("M(K_11) over Z: its rank-deficient level-4 remainder through the latt
   bool torsion = false;
   for (const auto& g : h) torsion = torsion || !g.torsion.empty();
   CHECK(torsion);  // M(K_n) has 3-torsion from n = 7 on (Bouc 1992, from memory)
+  // Over Q the same remainder has only its rank proved (ranks_only: the bordering minors,
+  // no local Smith forms). Universal coefficients (Hatcher 2002, Theorem 3A.3): the
+  // dimensions over Q are the free ranks over Z.
+  bool bordering_q = false, local_q = false;
+  lacuna::homology_options oq;
+  oq.control.progress = [&](const lacuna::progress_report& r) {
+    if (r.phase == "Smith form of the core: bordering minors") bordering_q = true;
+    if (r.phase == "Smith form of the core: local Smith forms") local_q = true;
+  };
+  const auto q = lacuna::homology<lacuna::rational>(c, oq);
+  CHECK(bordering_q);
+  CHECK_FALSE(local_q);
+  REQUIRE(q.groups.size() == h.size());
+  for (std::size_t k = 0; k < h.size(); ++k) {
+    CHECK(q[static_cast<int>(k)].rank == h[k].rank);
+    CHECK(q[static_cast<int>(k)].torsion.empty());
+  }
 }
 
 TEST_CASE("chessboard complexes up to 4 x 5: both routes, Euler, universal coefficients, connectivity") {

@@ -201,6 +201,29 @@ TEST_CASE("a rank that the first prime underestimates: the rank proof fails and 
   CHECK_FALSE(route(a).has_value());
   CHECK_FALSE(route(transposed(a)).has_value());
   CHECK(texts(lacuna::finish_remainder(sparse_over<integer>(a), 0).factors) == want);
+  // The rank alone (rank_only) rests on the same proof: declined too, never answered 5.
+  CHECK_FALSE(lacuna::lattice_smith_invariants(sparse_over<integer>(a), nullptr, {.rank_only = true}).has_value());
+}
+
+TEST_CASE("the rank alone (rank_only, the route of homology over Q): fmpz_mat_snf's number of non-zero factors, no factors") {
+  // Full-rank (steps 0) and rank-deficient (R1-R2) inputs, tall and wide; the rank over Q is
+  // the number of non-zero invariant factors FLINT reports.
+  std::mt19937_64 rng(4242);
+  const cpp_int big = power(3, 30) * power(7, 20);  // about 2^104
+  const std::vector<std::vector<cpp_int>> plants = {{3, 3, big}, {2, 6, 0}, {3, 15, 0, 0, 0}};
+  for (const auto& d : plants)
+    for (const std::size_t n : {9U, 15U}) {
+      CAPTURE(n);
+      const auto a = planted_tall(rng, 3 * n, n, d);
+      const std::size_t rank = flint_invariants(a).size();  // FLINT fmpz_mat_snf
+      for (const auto& x : {a, transposed(a)}) {
+        const auto s = lacuna::lattice_smith_invariants(sparse_over<integer>(x), nullptr, {.rank_only = true});
+        REQUIRE(s.has_value());
+        CHECK(s->rank == rank);
+        CHECK(s->factors.empty());
+        CHECK(lacuna::finish_remainder(sparse_over<integer>(x), 0, nullptr, true, true, true).rank == rank);
+      }
+    }
 }
 
 }  // namespace reference_lattice_smith_flint_test

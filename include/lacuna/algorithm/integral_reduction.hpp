@@ -81,6 +81,11 @@ struct coboundary_reduction {
   /// 8 x 8 chessboard complex and the 1 281 x 24 000 one of M(K_13) (docs/performance.md).
   /// false: they go to the sparse route, as before.
   bool lattice_rank_deficient = true;
+  /// The ranks only, no torsion (homology over Q sets it: H_k(C; Q) has the free ranks over
+  /// Z as dimensions). Every rank is proved as without it; the lattice route then stops once
+  /// the remainder's rank is proved (lattice_smith_options::rank_only), and no torsion is
+  /// reported. Measured in docs/performance.md (bench_torsion, `_Q`).
+  bool ranks_only = false;
 };
 
 /// What the reduction finds for the coboundary δ_L out of level L (the boundary into level L).
@@ -590,11 +595,12 @@ sparse_matrix<R> compact_remainder(std::vector<coboundary_column<W>>& rest, std:
 /// when `lattice` is set (lacuna/algorithm/lattice_smith.hpp; exact, or it declines; rank-
 /// deficient ones only when `lattice_rank_deficient` is set too), then
 /// the sparse unit elimination of smith_normal_form (lacuna/algorithm/smith_normal_form.hpp),
-/// whose core takes the same modular hook.
+/// whose core takes the same modular hook. With `rank_only` the rank is exact and the
+/// factors may be left out (the lattice route stops once the rank is proved).
 template <euclidean_domain R>
 smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dense_limit,
                                      const run_control* control = nullptr, bool lattice = true,
-                                     bool lattice_rank_deficient = true) {
+                                     bool lattice_rank_deficient = true, bool rank_only = false) {
   if (A.rows == 0 || A.cols == 0) return {};
   if (static_cast<double>(A.rows) * static_cast<double>(A.cols) <= static_cast<double>(dense_limit)) {
     auto dense = A.to_dense();
@@ -606,7 +612,8 @@ smith_invariants<R> finish_remainder(const sparse_matrix<R>& A, std::size_t dens
   if (control) control->report("Smith form of the core", 0, 1);
   if constexpr (std::same_as<R, integer>)
     if (lattice)
-      if (auto l = lattice_smith_invariants(A, control, {.rank_deficient = lattice_rank_deficient})) {
+      if (auto l = lattice_smith_invariants(A, control,
+                                            {.rank_deficient = lattice_rank_deficient, .rank_only = rank_only})) {
         if (control) control->report("Smith form of the core", 1, 1);
         return *l;
       }
@@ -668,10 +675,12 @@ std::vector<coboundary_invariants<R>> reduce_coboundaries(const elimination_work
     const std::size_t units = pass.units;
     res.remainder_rows = B.rows;
     res.remainder_cols = B.cols;
-    const auto s = finish_remainder(B, options.dense_limit, control, options.lattice_smith, options.lattice_rank_deficient);
+    const auto s = finish_remainder(B, options.dense_limit, control, options.lattice_smith, options.lattice_rank_deficient,
+                                    options.ranks_only);
     res.rank = units + s.rank;
-    for (const auto& d : s.factors)
-      if (!detail::working_is_unit(d)) res.torsion.push_back(d);
+    if (!options.ranks_only)
+      for (const auto& d : s.factors)
+        if (!detail::working_is_unit(d)) res.torsion.push_back(d);
     skip = std::move(pass.pivot_rows);
   }
   tick.finish();

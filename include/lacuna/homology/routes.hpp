@@ -541,7 +541,10 @@ homology_result<R> homology_by_coboundaries(const C& c, const homology_options& 
   if constexpr (std::same_as<R, rational>) {
     // H_k(C; Q) = H_k(C; Z) ⊗ Q (universal coefficients; Q is flat over Z): its dimension is
     // the free rank over Z, and torsion vanishes. The boundary coefficients are integers.
-    const auto z = homology_by_coboundaries<integer>(c, opt, alg, excluded, one<integer>());
+    // Only the ranks are needed: the remainders' torsion is not computed (ranks_only).
+    coboundary_reduction ranks = alg;
+    ranks.ranks_only = true;
+    const auto z = homology_by_coboundaries<integer>(c, opt, ranks, excluded, one<integer>());
     homology_result<R> res;
     res.reduced = z.reduced;
     res.level_offset_ = z.level_offset_;
