@@ -183,7 +183,8 @@ vectors<Int> as_vectors(const sparse_matrix<Int>& A) {
 /// each column; nullopt when some column has no pivot (then some v_q(d_i) >= k).
 template <class Int>
 std::optional<std::vector<u64>> local_hermite_basis(const vectors<Int>& V, u64 q, u64 Q, const run_control* control,
-                                                    bool full_rank = true, int enough = -1) {
+                                                    bool full_rank = true, int enough = -1,
+                                                    std::size_t rank = 0) {
   const std::size_t n = V.n;
   std::vector<u64> H(n * n, 0);
   std::vector<char> has(n, 0);
@@ -231,12 +232,14 @@ std::optional<std::vector<u64>> local_hermite_basis(const vectors<Int>& V, u64 q
       for (std::size_t j = c; j < n; ++j)
         if (h[j] != 0) x[j] = modular::sub(x[j], f.times(h[j], Q), Q);
     }
-    // Early end (full rank, `enough` >= 0 a lower bound of v_q(d_1 ... d_n)): with n pivots
-    // of valuations below k, the vectors so far span, with Q Z^n, a lattice L' of index
-    // q^valuation_sum in Z^n, inside L + Q Z^n (L: all the vectors), whose index is q to the
-    // sum of min(v_q(d_i), k) >= enough. Equal indices and L' inside: L' = L + Q Z^n, and
-    // the further vectors change neither the lattice nor its local Smith form.
-    if (enough >= 0 && pivots == n && valuation_sum <= enough) break;
+    // Early end (`enough` >= 0 a lower bound of v_q(d_1 ... d_r), r = `rank` the rank of all
+    // the vectors over Q, n when 0): with r pivots of valuations below k, the vectors so far
+    // span, with Q Z^n, a lattice L' of index q^(valuation_sum + (n - r) k) in Z^n (the
+    // columns without a pivot count k each), inside L + Q Z^n (L: all the vectors), whose
+    // index is q to the sum of min(v_q(d_i), k) over the r non-zero d_i, plus (n - r) k —
+    // at least q^(enough + (n - r) k). Equal indices and L' inside: L' = L + Q Z^n, and the
+    // further vectors change neither the lattice nor its local Smith form.
+    if (enough >= 0 && pivots == (rank == 0 ? n : rank) && valuation_sum <= enough) break;
   }
   for (std::size_t c = 0; c < n && full_rank; ++c)
     if (!has[c]) return std::nullopt;
@@ -642,11 +645,14 @@ std::optional<smith_invariants<Int>> rank_deficient(const vectors<Int>& V, const
   out.factors.assign(r, Int(1));
   for (const auto& [q, e] : primes) {
     // r vectors independent mod q: an r-minor prime to q, so v_q(G) = 0.
-    if (grow_echelon(V, order, q, coord_rank, r, control).rank() == r) continue;
+    // Otherwise r - r_q of the r non-zero d_i are divisible by q (r_q: the rank mod q of all
+    // vectors), a lower bound of v_q(G) that ends the insertion early (local_hermite_basis).
+    const std::size_t rq = grow_echelon(V, order, q, coord_rank, r, control).rank();
+    if (rq == r) continue;
     int k = 0;
     u64 Q = 1;
     while (k < e + 1 && Q <= (mod_p_modulus_limit - 1) / q) Q *= q, ++k;
-    const auto H = local_hermite_basis(V, q, Q, control, false);
+    const auto H = local_hermite_basis(V, q, Q, control, false, static_cast<int>(r - rq), r);
     if (!H) return std::nullopt;
     const square_source s{n, n, &*H};
     // Exactly r invariant factors non-zero mod Q (the other n - r are the zero ones, as the
