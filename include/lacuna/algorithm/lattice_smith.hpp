@@ -506,6 +506,22 @@ bool bordering_mod_p(const vectors<Int>& V, const std::vector<std::size_t>& I, c
   return true;
 }
 
+/// The primes q below 2^16 dividing G > 0 with their exponents e_q, by trial division;
+/// nullopt when a cofactor above 1 remains (a prime factor that is not placed).
+template <class Big>
+std::optional<std::vector<std::pair<u64, int>>> small_prime_factors(Big G) {
+  std::vector<std::pair<u64, int>> primes;
+  for (const u64 q : modular::small_primes()) {
+    if (G == 1) break;
+    if (static_cast<u64>(G % q) != 0) continue;
+    int e = 0;
+    while (static_cast<u64>(G % q) == 0) G /= q, ++e;
+    primes.emplace_back(q, e);
+  }
+  if (G != 1) return std::nullopt;
+  return primes;
+}
+
 /// Steps R1-R4 of the header comment for V (m vectors of length n) of rank r < n mod the
 /// prime E1.p, E1 grown over all vectors in `order`. nullopt when a proof does not go through.
 template <class Int>
@@ -629,15 +645,9 @@ std::optional<smith_invariants<Int>> rank_deficient(const vectors<Int>& V, const
   big G = 0;
   for (std::size_t t = 0; t < minors.size(); ++t) G = md::lehmer_gcd(G, crt.symmetric(t));
   if (G == 0) return std::nullopt;  // cannot happen: det A[I, J] is non-zero mod a prime
-  std::vector<std::pair<u64, int>> primes;
-  for (const u64 q : md::small_primes()) {
-    if (G == 1) break;
-    if (static_cast<u64>(G % q) != 0) continue;
-    int e = 0;
-    while (static_cast<u64>(G % q) == 0) G /= q, ++e;
-    primes.emplace_back(q, e);
-  }
-  if (G != 1) return std::nullopt;  // a prime factor above 2^16 that cannot be placed
+  const auto primes_found = small_prime_factors(std::move(G));
+  if (!primes_found) return std::nullopt;  // a prime factor above 2^16 that cannot be placed
+  const auto& primes = *primes_found;
 
   // R4. Local Smith forms at each candidate q.
   if (control) control->report("Smith form of the core: local Smith forms", 0, primes.size());
@@ -815,15 +825,9 @@ std::optional<smith_invariants<Int>> lattice_smith_invariants(const sparse_matri
   if (G == 0) return std::nullopt;  // cannot happen: M_1 is non-zero mod a prime
 
   // Trial division: the small primes q of G' with e_q = v_q(G'), and the cofactor.
-  std::vector<std::pair<u64, int>> primes;
-  for (const u64 q : md::small_primes()) {
-    if (G == 1) break;
-    if (static_cast<u64>(G % q) != 0) continue;
-    int e = 0;
-    while (static_cast<u64>(G % q) == 0) G /= q, ++e;
-    primes.emplace_back(q, e);
-  }
-  if (G != 1) return std::nullopt;  // a prime factor above 2^16 that cannot be placed
+  const auto primes_found = dl::small_prime_factors(std::move(G));
+  if (!primes_found) return std::nullopt;  // a prime factor above 2^16 that cannot be placed
+  const auto& primes = *primes_found;
 
   // 3. Local Smith forms from local Hermite bases.
   out.rank = n;
